@@ -1,0 +1,34 @@
+/**
+ * The one plain, serialisable conditions object. The same object drives the
+ * worker, the URL, the CLI flags and the metadata block of every export.
+ */
+export type InternalFieldKind = 'dipole' | 'igrf';
+
+export interface FieldConditions {
+  /** ISO 8601 UTC instant. */
+  time: string;
+  /** Solar-wind dynamic pressure, nPa. */
+  pdynNpa: number;
+  /** IMF Bz (GSM), nT. */
+  bzNt: number;
+  /** IMF By (GSM), nT. */
+  byNt: number;
+  /** Dipole tilt override, degrees; null/undefined = from the time. */
+  tiltDeg?: number | null;
+  /** Main field: centred dipole of the date, or full IGRF-14. */
+  internal: InternalFieldKind;
+  /** Magnetopause on: compression term and boundary. Off: neither. */
+  magnetopause: boolean;
+  /** IMF penetration efficiency ε in [0, 1]. */
+  imfEfficiency: number;
+  /** Tail current-sheet term on/off (issue 6). */
+  tail?: boolean;
+}
+
+/** Options of the mapping products (not of the field). */
+export interface ProductOptions {
+  /** Footpoint altitude above the WGS84 ellipsoid, km. */
+  altKm: number;
+  /** Equatorial source distance for the equatorward precipitation edge, RE. */
+  sourceRe: number;
+}

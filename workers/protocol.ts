@@ -1,0 +1,148 @@
+/**
+ * The engine worker's contract (comlink). Coarse calls; bulk data as typed
+ * arrays that the worker transfers. Every call carries a request id; the
+ * worker answers `{ stale: true }` for a request superseded by a newer one on
+ * the same channel, and the client drops it. Errors arrive as `{ error }`.
+ * Types only: the implementation is workers/engine.worker.ts.
+ */
+import type { FieldConditions, ProductOptions } from '../src/physics/conditions';
+
+export type LineKind = 0 | 1 | 2; // 0 closed, 1 open, 2 unresolved
+export const LINE_KIND_NAMES = ['closed', 'open', 'unresolved'] as const;
+
+export interface FrameInfo {
+  /** Row-major 3×3, GSM → GEO. */
+  geoFromGsm: Float64Array;
+  /** Unit vectors in GEO. */
+  sunGeo: Float64Array;
+  axisGeo: Float64Array;
+  tiltDeg: number;
+  /** Centred-dipole pole (geocentric) and B0 for the instant. */
+  poleLatDeg: number;
+  poleLonDeg: number;
+  b0Nt: number;
+  /** Decimal year used for the IGRF coefficients. */
+  igrfEpoch: number;
+}
+
+export interface MagnetopauseInfo {
+  enabled: boolean;
+  r0Re: number;
+  alpha: number;
+}
+
+export interface LineBundle {
+  /** All points, GEO Cartesian, RE, concatenated xyz. */
+  pointsGeo: Float64Array;
+  /** Start index (in points, not floats) of each line; length nLines + 1. */
+  offsets: Int32Array;
+  kinds: Uint8Array;
+}
+
+export interface FanSpec {
+  /** MLT meridians, hours. */
+  mltHours: number[];
+  /** Magnetic latitudes of the seeds (both hemispheres are traced from the north seeds), deg. */
+  magLatDeg: number[];
+}
+
+export interface SceneResult {
+  requestId: number;
+  stale?: boolean;
+  error?: string;
+  warnings: string[];
+  frames: FrameInfo;
+  magnetopause: MagnetopauseInfo;
+  lines: LineBundle;
+}
+
+/** One boundary curve per hemisphere, sampled per MLT; NaN where absent. */
+export interface BoundaryCurve {
+  hemisphere: 'north' | 'south';
+  mltHours: Float64Array;
+  openClosedMagLatDeg: Float64Array;
+  openClosedGeoLatDeg: Float64Array;
+  openClosedGeoLonDeg: Float64Array;
+  equatorwardMagLatDeg: Float64Array;
+  equatorwardGeoLatDeg: Float64Array;
+  equatorwardGeoLonDeg: Float64Array;
+}
+
+export interface OvalResult {
+  requestId: number;
+  stale?: boolean;
+  error?: string;
+  warnings: string[];
+  curves: BoundaryCurve[];
+}
+
+export interface SiteInput {
+  name: string;
+  latDeg: number; // geodetic
+  lonDeg: number;
+  heightKm?: number;
+}
+
+export interface Footpoint {
+  hemisphere: 'north' | 'south';
+  geoLatDeg: number;
+  geoLonDeg: number;
+  magLatDeg: number;
+  magLonDeg: number;
+  mltHours: number;
+  altKm: number;
+}
+
+export interface SiteResult {
+  name: string;
+  latDeg: number;
+  lonDeg: number;
+  /** closed / open / unresolved */
+  type: 'closed' | 'open' | 'unresolved';
+  /** The far footpoint at the conjugate altitude (ground by default); null when the line is open. */
+  conjugate: Footpoint | null;
+  footpoints: Footpoint[];
+  equatorRe: number | null;
+  lShell: number | null;
+  mltHours: number;
+  magLatDeg: number;
+  /** Relative to the oval at the site's MLT in its hemisphere. */
+  ovalRelation: 'poleward' | 'inside' | 'equatorward' | 'unknown';
+  /** Nearest oval point at the emission altitude as seen from the site. */
+  sky: { elevationDeg: number; azimuthDeg: number; distanceKm: number; visible: boolean } | null;
+  /** The site's own field line, GEO RE, xyz. */
+  lineGeo: Float64Array;
+  error?: string;
+}
+
+export interface SitesResult {
+  requestId: number;
+  stale?: boolean;
+  error?: string;
+  warnings: string[];
+  sites: SiteResult[];
+}
+
+export interface SweepResult {
+  requestId: number;
+  stale?: boolean;
+  error?: string;
+  warnings: string[];
+  vary: 'pdyn' | 'bz';
+  mltHours: number;
+  values: Float64Array;
+  northOpenClosedMagLatDeg: Float64Array;
+  northEquatorwardMagLatDeg: Float64Array;
+  southOpenClosedMagLatDeg: Float64Array;
+  southEquatorwardMagLatDeg: Float64Array;
+}
+
+export interface EngineApi {
+  /** Frames, magnetopause and a fan of field lines (fast: the first thing drawn). */
+  scene(requestId: number, c: FieldConditions, fan: FanSpec): Promise<SceneResult>;
+  /** Boundaries per MLT for both hemispheres (slower; refined). */
+  oval(requestId: number, c: FieldConditions, o: ProductOptions & { mltStepHours: number; latTolDeg?: number }): Promise<OvalResult>;
+  /** Conjugates and products for sites. Conjugate altitude: o.conjugateAltKm (default 0). */
+  sites(requestId: number, c: FieldConditions, o: ProductOptions & { conjugateAltKm?: number; minElevationDeg?: number }, sites: SiteInput[]): Promise<SitesResult>;
+  sweep(requestId: number, c: FieldConditions, o: ProductOptions & { vary: 'pdyn' | 'bz'; from: number; to: number; steps: number; mltHours: number }): Promise<SweepResult>;
+}

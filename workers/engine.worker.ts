@@ -1,0 +1,34 @@
+/// <reference lib="webworker" />
+/**
+ * The browser's engine worker: exposes createEngineApi() with comlink and
+ * transfers the typed arrays of every answer (no copies).
+ */
+import { expose, transfer, type Endpoint } from 'comlink';
+import { createEngineApi } from './engine-api';
+import type { EngineApi } from './protocol';
+
+const inner = createEngineApi();
+
+/** Collect the ArrayBuffers of the typed arrays in a result (one level of nesting into arrays/objects). */
+function buffersOf(v: unknown, acc: Set<ArrayBuffer>, depth = 0): Set<ArrayBuffer> {
+  if (depth > 4 || v === null || typeof v !== 'object') return acc;
+  if (ArrayBuffer.isView(v)) {
+    if (v.buffer instanceof ArrayBuffer) acc.add(v.buffer);
+    return acc;
+  }
+  for (const x of Array.isArray(v) ? v : Object.values(v)) buffersOf(x, acc, depth + 1);
+  return acc;
+}
+
+function withTransfer<T>(p: Promise<T>): Promise<T> {
+  return p.then((r) => transfer(r, [...buffersOf(r, new Set())]));
+}
+
+const api: EngineApi = {
+  scene: (id, c, fan) => withTransfer(inner.scene(id, c, fan)),
+  oval: (id, c, o) => withTransfer(inner.oval(id, c, o)),
+  sites: (id, c, o, s) => withTransfer(inner.sites(id, c, o, s)),
+  sweep: (id, c, o) => withTransfer(inner.sweep(id, c, o)),
+};
+
+expose(api, self as unknown as Endpoint);

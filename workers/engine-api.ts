@@ -5,7 +5,7 @@
  * long calls yield between pieces of work and answer { stale: true } once a
  * newer request for the same channel has arrived.
  */
-import type { FieldConditions, ProductOptions } from '../src/physics/conditions';
+import type { FieldConditions } from '../src/physics/conditions';
 import { prepareModel, type PreparedModel } from '../src/physics/model';
 import { makeTracer, traceSite, sectorBoundaries, mltGrid, ovalRelation, DEFAULT_SOURCE_RE, type SectorBoundaries } from '../src/physics/mapping';
 import { sweepBoundaries } from '../src/physics/sweep';
@@ -102,7 +102,7 @@ export function createEngineApi(): EngineApiInternals {
     latest,
 
     scene(requestId: number, c: FieldConditions, fan: FanSpec): Promise<SceneResult> {
-      return guarded('scene', requestId,
+      return guarded<SceneResult>('scene', requestId,
         () => ({ requestId, warnings: [], frames: emptyFrames(), magnetopause: { enabled: false, r0Re: NaN, alpha: NaN }, lines: emptyLines() }),
         async () => {
           const m = model(c);
@@ -144,7 +144,7 @@ export function createEngineApi(): EngineApiInternals {
     },
 
     oval(requestId, c, o): Promise<OvalResult> {
-      return guarded('oval', requestId, () => ({ requestId, warnings: [], curves: [] }), async () => {
+      return guarded<OvalResult>('oval', requestId, () => ({ requestId, warnings: [], curves: [] }), async () => {
         const m = model(c);
         const t = tracer(m, o.altKm);
         const mlts = mltGrid(o.mltStepHours);
@@ -174,7 +174,7 @@ export function createEngineApi(): EngineApiInternals {
     },
 
     sites(requestId, c, o, sites: SiteInput[]): Promise<SitesResult> {
-      return guarded('sites', requestId, () => ({ requestId, warnings: [], sites: [] }), async () => {
+      return guarded<SitesResult>('sites', requestId, () => ({ requestId, warnings: [], sites: [] }), async () => {
         const m = model(c);
         const conjAlt = o.conjugateAltKm ?? 0;
         const tc = tracer(m, conjAlt);
@@ -192,7 +192,7 @@ export function createEngineApi(): EngineApiInternals {
 
     sweep(requestId, c, o): Promise<SweepResult> {
       const n = Math.max(0, Math.floor(o.steps));
-      return guarded('sweep', requestId,
+      return guarded<SweepResult>('sweep', requestId,
         () => ({ requestId, warnings: [], vary: o.vary, mltHours: o.mltHours, values: new Float64Array(0), northOpenClosedMagLatDeg: new Float64Array(0), northEquatorwardMagLatDeg: new Float64Array(0), southOpenClosedMagLatDeg: new Float64Array(0), southEquatorwardMagLatDeg: new Float64Array(0) }),
         async () => {
           const rows = await sweepBoundaries(c, { vary: o.vary, from: o.from, to: o.to, steps: n, mltHours: o.mltHours, altKm: o.altKm, sourceRe: o.sourceRe ?? DEFAULT_SOURCE_RE },

@@ -7,12 +7,11 @@
  */
 import type { FieldConditions } from '../src/physics/conditions';
 import { prepareModel, type PreparedModel } from '../src/physics/model';
-import { makeTracer, traceSite, sectorBoundaries, mltGrid, ovalRelation, DEFAULT_SOURCE_RE, type SectorBoundaries } from '../src/physics/mapping';
+import { makeTracer, sectorBoundaries, mltGrid, DEFAULT_SOURCE_RE } from '../src/physics/mapping';
+import { siteReport } from '../src/physics/site-report';
 import { sweepBoundaries } from '../src/physics/sweep';
 import { gsmAtMagneticLatMlt } from '../src/physics/footpoint';
-import { skyPosition } from '../src/physics/sky';
-import { applyMat3T } from '../src/physics/frames';
-import { LINE_CLOSED, type Tracer } from '../src/physics/trace';
+import type { Tracer } from '../src/physics/trace';
 import type {
   EngineApi, FanSpec, SceneResult, OvalResult, SitesResult, SweepResult, SiteInput, SiteResult, BoundaryCurve, FrameInfo, LineBundle,
 } from './protocol';
@@ -23,7 +22,7 @@ const yieldToQueue = (): Promise<void> => new Promise((r) => setTimeout(r, 0));
 
 export class StaleRequest extends Error {}
 
-function message(e: unknown): string {
+export function message(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
 }
 
@@ -184,7 +183,7 @@ export function createEngineApi(): EngineApiInternals {
         for (const site of sites) {
           await yieldToQueue();
           check('sites', requestId);
-          out.push(siteResult(m, tc, ta, site, conjAlt, o.altKm, o.sourceRe ?? DEFAULT_SOURCE_RE, minEl));
+          out.push(siteReport(m, tc, ta, site, { conjugateAltKm: conjAlt, altKm: o.altKm, sourceRe: o.sourceRe ?? DEFAULT_SOURCE_RE, minElevationDeg: minEl }));
         }
         return { requestId, warnings: [...m.warnings], sites: out };
       });
@@ -213,52 +212,3 @@ export function createEngineApi(): EngineApiInternals {
   return api;
 }
 
-/** Products of one site (shared with the batch command's row). */
-export function siteResult(m: PreparedModel, tConj: Tracer, tAlt: Tracer, site: SiteInput, conjAltKm: number, altKm: number, sourceRe: number, minElevationDeg: number): SiteResult {
-  const base = { name: site.name, latDeg: site.latDeg, lonDeg: site.lonDeg };
-  try {
-    const line = traceSite(m, tConj, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', true);
-    const pts = line.points!;
-    const g = m.frames.gsmFromGeo;
-    const lineGeo = new Float64Array(pts.length);
-    const v = new Float64Array(3);
-    for (let k = 0; k < pts.length; k += 3) {
-      applyMat3T(v, g, pts[k], pts[k + 1], pts[k + 2]);
-      lineGeo[k] = v[0]; lineGeo[k + 1] = v[1]; lineGeo[k + 2] = v[2];
-    }
-    // Footpoints and MLT at the emission altitude.
-    const atAlt = traceSite(m, tAlt, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', false);
-    const near = atAlt.near ?? line.near;
-    const magLat = near ? near.magLatDeg : NaN;
-    const mlt = near ? near.mltHours : NaN;
-    const hemisphere = magLat >= 0 ? 'north' : 'south';
-    let relation: SiteResult['ovalRelation'] = 'unknown';
-    let sky: SiteResult['sky'] = null;
-    if (Number.isFinite(mlt)) {
-      const b: SectorBoundaries = sectorBoundaries(m, tAlt, hemisphere, mlt, { sourceRe });
-      relation = atAlt.type === 'closed' || atAlt.type === 'open' ? ovalRelation(magLat, b) : 'unknown';
-      // Nearest oval edge point at the emission altitude, seen from the site.
-      let best: { el: number; az: number; d: number } | null = null;
-      for (const p of [b.openClosed, b.equatorward]) {
-        if (!p) continue;
-        const s = skyPosition(site.latDeg, site.lonDeg, site.heightKm ?? 0, p.geoLatDeg, p.geoLonDeg, altKm);
-        if (!best || s.distanceKm < best.d) best = { el: s.elevationDeg, az: s.azimuthDeg, d: s.distanceKm };
-      }
-      if (relation === 'inside' && near) {
-        // Inside the oval: the nearest oval point is the site's own footpoint at the emission height.
-        const s = skyPosition(site.latDeg, site.lonDeg, site.heightKm ?? 0, near.geoLatDeg, near.geoLonDeg, near.altKm);
-        best = { el: s.elevationDeg, az: s.azimuthDeg, d: s.distanceKm };
-      }
-      if (best) sky = { elevationDeg: best.el, azimuthDeg: best.az, distanceKm: best.d, visible: best.el >= minElevationDeg };
-    }
-    return {
-      ...base, type: line.type, conjugate: line.conjugate, footpoints: atAlt.footpoints,
-      equatorRe: line.equator ? line.equator.rRe : null, lShell: line.type === 'closed' && line.equator ? line.equator.rRe : null,
-      mltHours: mlt, magLatDeg: magLat, ovalRelation: relation, sky, lineGeo,
-    };
-  } catch (e) {
-    return { ...base, type: 'unresolved', conjugate: null, footpoints: [], equatorRe: null, lShell: null, mltHours: NaN, magLatDeg: NaN, ovalRelation: 'unknown', sky: null, lineGeo: new Float64Array(0), error: message(e) };
-  }
-}
-
-export { LINE_CLOSED };

@@ -76,44 +76,9 @@ export interface OvalResult {
   curves: BoundaryCurve[];
 }
 
-export interface SiteInput {
-  name: string;
-  latDeg: number; // geodetic
-  lonDeg: number;
-  heightKm?: number;
-}
-
-export interface Footpoint {
-  hemisphere: 'north' | 'south';
-  geoLatDeg: number;
-  geoLonDeg: number;
-  magLatDeg: number;
-  magLonDeg: number;
-  mltHours: number;
-  altKm: number;
-}
-
-export interface SiteResult {
-  name: string;
-  latDeg: number;
-  lonDeg: number;
-  /** closed / open / unresolved */
-  type: 'closed' | 'open' | 'unresolved';
-  /** The far footpoint at the conjugate altitude (ground by default); null when the line is open. */
-  conjugate: Footpoint | null;
-  footpoints: Footpoint[];
-  equatorRe: number | null;
-  lShell: number | null;
-  mltHours: number;
-  magLatDeg: number;
-  /** Relative to the oval at the site's MLT in its hemisphere. */
-  ovalRelation: 'poleward' | 'inside' | 'equatorward' | 'unknown';
-  /** Nearest oval point at the emission altitude as seen from the site. */
-  sky: { elevationDeg: number; azimuthDeg: number; distanceKm: number; visible: boolean } | null;
-  /** The site's own field line, GEO RE, xyz. */
-  lineGeo: Float64Array;
-  error?: string;
-}
+export type { SiteInput, SiteResult } from '../src/physics/site-report';
+export type { Footpoint } from '../src/physics/footpoint';
+import type { SiteResult } from '../src/physics/site-report';
 
 export interface SitesResult {
   requestId: number;

@@ -78,7 +78,7 @@ export interface OvalResult {
 
 export type { SiteInput, SiteResult } from '../src/physics/site-report';
 export type { Footpoint } from '../src/physics/footpoint';
-import type { SiteResult } from '../src/physics/site-report';
+import type { SiteInput, SiteResult } from '../src/physics/site-report';
 
 export interface SitesResult {
   requestId: number;

@@ -1,0 +1,110 @@
+/**
+ * The engine client: the app's only link to the worker. Watches the store,
+ * asks for the fast scene first and the refined oval, sites and sweep after,
+ * and writes current answers back into the store.
+ */
+import * as Comlink from 'comlink';
+import type { EngineApi, FanSpec, OvalResult, SceneResult, SitesResult, SweepResult } from '../../workers/protocol';
+import { Channel } from './channel';
+import { store, type AppState } from './store';
+
+/** The field-line fan: MLT meridians every 2 h, seeds from 55° to 80° magnetic latitude. */
+export const FAN: FanSpec = {
+  mltHours: [0, 2, 4, 6, 8, 10, 12, 14, 16, 18, 20, 22],
+  magLatDeg: [55, 60, 64, 67, 70, 73, 76, 80],
+};
+
+/** Sweep ranges: Pdyn 0.3–30 nPa (log spaced), Bz −20..+10 nT. */
+export const SWEEP = { pdyn: { from: 0.3, to: 30, steps: 13 }, bz: { from: -20, to: 10, steps: 13 } } as const;
+
+const OVAL_MLT_STEP_H = 0.5;
+
+export interface EngineClient {
+  dispose(): void;
+  refreshSweep(): void;
+}
+
+export function startEngine(makeWorker?: () => Worker): EngineClient {
+  const worker = makeWorker ? makeWorker() : new Worker(new URL('../../workers/engine.worker.ts', import.meta.url), { type: 'module' });
+  const api = Comlink.wrap<EngineApi>(worker);
+  const err = (ch: keyof AppState['errors']) => (msg: string) => store.set((s) => ({ errors: { ...s.errors, [ch]: msg } }));
+  const ok = (ch: keyof AppState['errors']) => {
+    const e = store.get().errors;
+    if (e[ch] === undefined) return e;
+    const rest = { ...e };
+    delete rest[ch];
+    return rest;
+  };
+  const busy = (ch: keyof AppState['pending']) => (b: boolean) => store.set((s) => ({ pending: { ...s.pending, [ch]: b } }));
+  worker.addEventListener('error', (e) => err('engine')(`engine worker failed: ${e.message || 'could not start'}`));
+
+  // Each answer remembers which change it belongs to, for the drawn-time marks.
+  const seqOf = new Map<string, number>();
+  const scene = new Channel<SceneResult>((a) => store.set({ scene: a, errors: ok('scene'), sceneSeq: seqOf.get(`scene${a.requestId}`) ?? -1 }), err('scene'), busy('scene'));
+  const oval = new Channel<OvalResult>((a) => store.set({ oval: a, errors: ok('oval'), ovalSeq: seqOf.get(`oval${a.requestId}`) ?? -1 }), err('oval'), busy('oval'));
+  const sites = new Channel<SitesResult>((a) => store.set({ siteResults: a, errors: ok('sites') }), err('sites'), busy('sites'));
+  const sweep = new Channel<SweepResult>((a) => store.set({ sweep: a, errors: ok('sweep') }), err('sweep'), busy('sweep'));
+
+  const productOpts = (s: AppState) => ({ altKm: s.products.altKm, sourceRe: s.products.sourceRe });
+
+  const askScene = () =>
+    scene.request((id) => {
+      const s = store.get();
+      seqOf.set(`scene${id}`, s.perf.seq);
+      return api.scene(id, s.conditions, FAN);
+    });
+  const askOval = () =>
+    oval.request((id) => {
+      const s = store.get();
+      seqOf.set(`oval${id}`, s.perf.seq);
+      return api.oval(id, s.conditions, { ...productOpts(s), mltStepHours: OVAL_MLT_STEP_H });
+    });
+  const askSites = () =>
+    sites.request((id) => {
+      const s = store.get();
+      return api.sites(id, s.conditions, { ...productOpts(s), conjugateAltKm: 0, minElevationDeg: s.products.minElevationDeg }, s.sites);
+    });
+  const askSweep = () =>
+    sweep.request((id) => {
+      const s = store.get();
+      const v = s.view.sweepVary;
+      return api.sweep(id, s.conditions, { ...productOpts(s), vary: v, ...SWEEP[v], mltHours: s.view.sweepMlt });
+    });
+
+  // Refined products wait until the controls rest a moment, so dragging stays fluid.
+  let settle: ReturnType<typeof setTimeout> | undefined;
+  const refine = (withSweep: boolean) => {
+    clearTimeout(settle);
+    settle = setTimeout(() => {
+      askOval();
+      askSites();
+      if (withSweep) askSweep();
+    }, 120);
+  };
+
+  const unsub = store.subscribe((s, prev) => {
+    if (s.conditions !== prev.conditions) {
+      askScene();
+      refine(true);
+    } else if (s.products !== prev.products) {
+      refine(true);
+    } else if (s.sites !== prev.sites) {
+      askSites();
+    }
+    if (s.view.sweepVary !== prev.view.sweepVary || s.view.sweepMlt !== prev.view.sweepMlt) askSweep();
+  });
+
+  askScene();
+  askOval();
+  askSites();
+  askSweep();
+
+  return {
+    dispose() {
+      unsub();
+      clearTimeout(settle);
+      worker.terminate();
+    },
+    refreshSweep: askSweep,
+  };
+}

@@ -1,0 +1,47 @@
+/**
+ * Fieldline Atlas colours (our own palette, documented in DEVELOPERS.md):
+ * closed lines teal, open lines amber, unresolved lines grey-violet; the
+ * oval band a pale green, its poleward (open–closed) edge amber, its
+ * equatorward edge teal to echo the line types they separate.
+ */
+import { LINE_KIND_NAMES, type LineKind } from '../../../workers/protocol';
+
+export const LINE_COLOURS: Record<(typeof LINE_KIND_NAMES)[number], string> = {
+  closed: '#2bb5a8',
+  open: '#f0a030',
+  unresolved: '#9a8fb8',
+};
+
+export const OVAL_COLOURS = { band: '#7ee08a', openClosed: '#f0a030', equatorward: '#2bb5a8', visibility: '#e86a8a' } as const;
+
+export const SITE_COLOURS = { site: '#ffffff', conjugate: '#ff5fa2' } as const;
+
+/** Name of a line kind; out-of-range codes count as unresolved. */
+export function kindName(k: number): (typeof LINE_KIND_NAMES)[number] {
+  return k === 0 || k === 1 || k === 2 ? LINE_KIND_NAMES[k as LineKind] : 'unresolved';
+}
+
+/** "#rrggbb" → [r, g, b] in 0..1. */
+export function hexToRgb(hex: string): [number, number, number] {
+  const m = /^#([0-9a-f]{6})$/i.exec(hex);
+  if (!m) throw new RangeError(`colour: expected #rrggbb, got ${hex}`);
+  const n = parseInt(m[1], 16);
+  return [((n >> 16) & 255) / 255, ((n >> 8) & 255) / 255, (n & 255) / 255];
+}
+
+/** RGB (0..1) of a line kind code. */
+export function kindRgb(k: number): [number, number, number] {
+  return hexToRgb(LINE_COLOURS[kindName(k)]);
+}
+
+export interface LegendEntry {
+  label: string;
+  colour: string;
+}
+
+/** The legend, with the count of lines of each kind in a bundle. */
+export function lineLegend(kinds: ArrayLike<number>): LegendEntry[] {
+  const counts = [0, 0, 0];
+  for (let i = 0; i < kinds.length; i++) counts[LINE_KIND_NAMES.indexOf(kindName(kinds[i]))]++;
+  return LINE_KIND_NAMES.map((n, i) => ({ label: `${n} (${counts[i]})`, colour: LINE_COLOURS[n] }));
+}

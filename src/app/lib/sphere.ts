@@ -1,0 +1,137 @@
+/**
+ * Display geometry on and around the globe (scene frame = GEO, RE units).
+ * Pure: typed arrays in, typed arrays out; no three.js objects here.
+ */
+import type { BoundaryCurve, LineBundle } from '../../../workers/protocol';
+import { kindRgb } from './palette';
+
+const DEG = Math.PI / 180;
+
+/** Point on a sphere of radius rRe at geocentric lat/lon (display placement). */
+export function sphereXyz(latDeg: number, lonDeg: number, rRe: number): [number, number, number] {
+  const p = latDeg * DEG;
+  const l = lonDeg * DEG;
+  return [rRe * Math.cos(p) * Math.cos(l), rRe * Math.cos(p) * Math.sin(l), rRe * Math.sin(p)];
+}
+
+/** Geocentric lat/lon (deg) of a direction. */
+export function latLonOf(x: number, y: number, z: number): [number, number] {
+  return [Math.atan2(z, Math.hypot(x, y)) / DEG, Math.atan2(y, x) / DEG];
+}
+
+/** v_geo = M v_gsm with M row-major (FrameInfo.geoFromGsm). */
+export function rotate(m: ArrayLike<number>, x: number, y: number, z: number): [number, number, number] {
+  return [m[0] * x + m[1] * y + m[2] * z, m[3] * x + m[4] * y + m[5] * z, m[6] * x + m[7] * y + m[8] * z];
+}
+
+/** Line bundle → float32 positions, per-vertex colours and a segment index (pairs within each line). */
+export function bundleSegments(b: LineBundle): { positions: Float32Array; colours: Float32Array; index: Uint32Array } {
+  const nPts = b.pointsGeo.length / 3;
+  const positions = new Float32Array(b.pointsGeo);
+  const colours = new Float32Array(nPts * 3);
+  const nLines = b.offsets.length - 1;
+  let nSeg = 0;
+  for (let l = 0; l < nLines; l++) nSeg += Math.max(0, b.offsets[l + 1] - b.offsets[l] - 1);
+  const index = new Uint32Array(nSeg * 2);
+  let k = 0;
+  for (let l = 0; l < nLines; l++) {
+    const [r, g, bl] = kindRgb(b.kinds[l]);
+    for (let i = b.offsets[l]; i < b.offsets[l + 1]; i++) {
+      colours[3 * i] = r;
+      colours[3 * i + 1] = g;
+      colours[3 * i + 2] = bl;
+      if (i + 1 < b.offsets[l + 1]) {
+        index[k++] = i;
+        index[k++] = i + 1;
+      }
+    }
+  }
+  return { positions, colours, index };
+}
+
+/**
+ * Shue et al. (1998) surface r = r0 (2/(1+cos θ))^α, axisymmetric about GSM x,
+ * sampled in θ up to the tail cut xMinRe and rotated into GEO.
+ */
+export function magnetopauseMesh(r0: number, alpha: number, geoFromGsm: ArrayLike<number>, xMinRe = -40, nTheta = 48, nPhi = 48): { positions: Float32Array; index: Uint32Array } {
+  // θ where x = r cos θ reaches xMinRe (bisection on a monotone function).
+  const xAt = (t: number) => r0 * Math.pow(2 / (1 + Math.cos(t)), alpha) * Math.cos(t);
+  let lo = Math.PI / 2;
+  let hi = Math.PI * 0.999;
+  if (xAt(hi) > xMinRe) lo = hi;
+  else for (let i = 0; i < 50; i++) { const mid = (lo + hi) / 2; if (xAt(mid) > xMinRe) lo = mid; else hi = mid; }
+  const tMax = lo;
+  const positions = new Float32Array((nTheta + 1) * (nPhi + 1) * 3);
+  let p = 0;
+  for (let i = 0; i <= nTheta; i++) {
+    const t = (tMax * i) / nTheta;
+    const r = r0 * Math.pow(2 / (1 + Math.cos(t)), alpha);
+    for (let j = 0; j <= nPhi; j++) {
+      const ph = (2 * Math.PI * j) / nPhi;
+      const v = rotate(geoFromGsm, r * Math.cos(t), r * Math.sin(t) * Math.cos(ph), r * Math.sin(t) * Math.sin(ph));
+      positions[p++] = v[0];
+      positions[p++] = v[1];
+      positions[p++] = v[2];
+    }
+  }
+  const index = new Uint32Array(nTheta * nPhi * 6);
+  let k = 0;
+  for (let i = 0; i < nTheta; i++)
+    for (let j = 0; j < nPhi; j++) {
+      const a = i * (nPhi + 1) + j;
+      const b = a + nPhi + 1;
+      index.set([a, b, a + 1, a + 1, b, b + 1], k);
+      k += 6;
+    }
+  return { positions, index };
+}
+
+/** Segments of a geographic (or, given an axis, magnetic) graticule on a sphere of radius rRe. */
+export function graticuleSegments(rRe: number, stepLatDeg: number, stepLonDeg: number, axis?: ArrayLike<number>): Float32Array {
+  // Magnetic frame: z along the axis, y = ẑ_geo × axis (MAG convention), x = y × z.
+  let ex = [1, 0, 0], ey = [0, 1, 0], ez = [0, 0, 1];
+  if (axis) {
+    ez = [axis[0], axis[1], axis[2]];
+    const yy = [-ez[1], ez[0], 0];
+    const n = Math.hypot(yy[0], yy[1]) || 1;
+    ey = [yy[0] / n, yy[1] / n, 0];
+    ex = [ey[1] * ez[2] - ey[2] * ez[1], ey[2] * ez[0] - ey[0] * ez[2], ey[0] * ez[1] - ey[1] * ez[0]];
+  }
+  const out: number[] = [];
+  const push = (la: number, lo: number) => {
+    const [x, y, z] = sphereXyz(la, lo, rRe);
+    out.push(x * ex[0] + y * ey[0] + z * ez[0], x * ex[1] + y * ey[1] + z * ez[1], x * ex[2] + y * ey[2] + z * ez[2]);
+  };
+  for (let la = -90 + stepLatDeg; la < 90; la += stepLatDeg)
+    for (let lo = -180; lo < 180; lo += 3) { push(la, lo); push(la, lo + 3); }
+  for (let lo = -180; lo < 180; lo += stepLonDeg)
+    for (let la = -90; la < 90; la += 3) { push(la, lo); push(la + 3, lo); }
+  return new Float32Array(out);
+}
+
+/**
+ * The oval band of one hemisphere as triangles between the equatorward edge and
+ * the open–closed boundary (closed around MLT), skipping sectors with a NaN edge.
+ */
+export function ovalBandMesh(c: BoundaryCurve, rRe: number): { positions: Float32Array; index: Uint32Array; edges: Float32Array } {
+  const n = c.mltHours.length;
+  const positions = new Float32Array(n * 2 * 3);
+  const ok = new Uint8Array(n);
+  for (let i = 0; i < n; i++) {
+    const a = sphereXyz(c.equatorwardGeoLatDeg[i], c.equatorwardGeoLonDeg[i], rRe);
+    const b = sphereXyz(c.openClosedGeoLatDeg[i], c.openClosedGeoLonDeg[i], rRe);
+    positions.set(a, 6 * i);
+    positions.set(b, 6 * i + 3);
+    ok[i] = Number.isFinite(a[0] + a[1] + a[2] + b[0] + b[1] + b[2]) ? 1 : 0;
+  }
+  const idx: number[] = [];
+  const edges: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const j = (i + 1) % n;
+    if (!ok[i] || !ok[j]) continue;
+    const a = 2 * i, b = 2 * i + 1, c2 = 2 * j, d = 2 * j + 1;
+    idx.push(a, c2, b, b, c2, d);
+    for (const [u, v] of [[a, c2], [b, d]]) edges.push(...positions.subarray(3 * u, 3 * u + 3), ...positions.subarray(3 * v, 3 * v + 3));
+  }
+  return { positions, index: new Uint32Array(idx), edges: new Float32Array(edges) };
+}

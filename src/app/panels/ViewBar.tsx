@@ -1,0 +1,32 @@
+/** Preset viewpoints, the line legend and the engine status, over the 3D view. */
+import { requestView, VIEW_PRESETS } from '../scene/CameraRig';
+import { lineLegend } from '../lib/palette';
+import { useStore } from '../store';
+import { fmt } from '../lib/units';
+
+export function ViewBar() {
+  const scene = useStore((s) => s.scene);
+  const pending = useStore((s) => s.pending);
+  const legend = lineLegend(scene?.lines.kinds ?? []);
+  const f = scene?.frames;
+  const mp = scene?.magnetopause;
+  return (
+    <div className="viewbar">
+      <div className="row" role="group" aria-label="Viewpoints">
+        {VIEW_PRESETS.map((p) => (
+          <button key={p.id} type="button" onClick={() => requestView(p.id)}>{p.label}</button>
+        ))}
+      </div>
+      <ul className="legend" aria-label="Field-line legend">
+        {legend.map((l) => (
+          <li key={l.label}><i style={{ background: l.colour }} /> {l.label}</li>
+        ))}
+      </ul>
+      <p className="status" aria-live="off">
+        {f ? `tilt ${fmt(f.tiltDeg, 1)}° · B0 ${fmt(f.b0Nt, 0)} nT · pole ${fmt(f.poleLatDeg, 2)}°, ${fmt(f.poleLonDeg, 2)}°` : 'starting engine…'}
+        {mp?.enabled ? ` · r0 ${fmt(mp.r0Re, 2)} RE, α ${fmt(mp.alpha, 3)}` : ''}
+        {pending.scene || pending.oval ? ' · updating…' : ''}
+      </p>
+    </div>
+  );
+}

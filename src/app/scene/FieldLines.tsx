@@ -1,0 +1,40 @@
+/** The fan of field lines, one draw call, coloured per vertex by line type. */
+import { useEffect, useMemo, useRef } from 'react';
+import { useFrame, useThree } from '@react-three/fiber';
+import * as THREE from 'three';
+import { bundleSegments } from '../lib/sphere';
+import { store, useStore } from '../store';
+import { noteDrawn } from '../perf';
+
+export function FieldLines() {
+  const lines = useStore((s) => s.scene?.lines);
+  const show = useStore((s) => s.view.fan);
+  const invalidate = useThree((s) => s.invalidate);
+  const pendingSeq = useRef(-1);
+  const geom = useMemo(() => {
+    if (!lines) return null;
+    const { positions, colours, index } = bundleSegments(lines);
+    const g = new THREE.BufferGeometry();
+    g.setAttribute('position', new THREE.BufferAttribute(positions, 3));
+    g.setAttribute('color', new THREE.BufferAttribute(colours, 3));
+    g.setIndex(new THREE.BufferAttribute(index, 1));
+    return g;
+  }, [lines]);
+  useEffect(() => {
+    pendingSeq.current = store.get().sceneSeq;
+    invalidate();
+    return () => geom?.dispose();
+  }, [geom, invalidate]);
+  useFrame(() => {
+    if (pendingSeq.current >= 0) {
+      noteDrawn('scene', pendingSeq.current);
+      pendingSeq.current = -1;
+    }
+  });
+  if (!geom || !show) return null;
+  return (
+    <lineSegments geometry={geom} name="field-lines">
+      <lineBasicMaterial vertexColors transparent opacity={0.9} />
+    </lineSegments>
+  );
+}

@@ -1,0 +1,125 @@
+/**
+ * The app's one store: a plain object, a setter and subscribers, with a thin
+ * React hook. Components read slices; the frame loop never touches React state.
+ */
+import { useSyncExternalStore } from 'react';
+import type { FieldConditions } from '../physics/conditions';
+import type { OvalResult, SceneResult, SiteInput, SitesResult, SweepResult } from '../../workers/protocol';
+import { DEMO_SCENARIO } from './scenario';
+import { noteChange } from './perf';
+
+export type AltPreset = 'ground' | 'green' | 'red' | 'custom';
+
+export interface ProductSettings {
+  altPreset: AltPreset;
+  altKm: number;
+  sourceRe: number;
+  minElevationDeg: number;
+}
+
+export interface ViewSettings {
+  magGraticule: boolean;
+  fan: boolean;
+  magnetopauseSurface: boolean;
+  playing: boolean;
+  sweepVary: 'pdyn' | 'bz';
+  sweepMlt: number;
+}
+
+export interface PerfMark {
+  /** Sequence number of the latest condition change and when it happened (performance.now()). */
+  seq: number;
+  changedAt: number;
+}
+
+export interface AppState {
+  scenarioName: string;
+  conditions: FieldConditions;
+  products: ProductSettings;
+  sites: SiteInput[];
+  view: ViewSettings;
+  scene: SceneResult | null;
+  oval: OvalResult | null;
+  siteResults: SitesResult | null;
+  sweep: SweepResult | null;
+  /** Engine errors (messages), by channel. */
+  errors: Partial<Record<'scene' | 'oval' | 'sites' | 'sweep' | 'engine', string>>;
+  pending: { scene: boolean; oval: boolean; sites: boolean; sweep: boolean };
+  perf: PerfMark;
+  /** Change sequence that the current scene / oval answers belong to. */
+  sceneSeq: number;
+  ovalSeq: number;
+}
+
+export interface Store<T> {
+  get(): T;
+  set(patch: Partial<T> | ((s: T) => Partial<T>)): void;
+  subscribe(fn: (s: T, prev: T) => void): () => void;
+}
+
+export function createStore<T extends object>(initial: T): Store<T> {
+  let state = initial;
+  const listeners = new Set<(s: T, prev: T) => void>();
+  return {
+    get: () => state,
+    set(patch) {
+      const prev = state;
+      const p = typeof patch === 'function' ? patch(state) : patch;
+      state = { ...state, ...p };
+      for (const fn of listeners) fn(state, prev);
+    },
+    subscribe(fn) {
+      listeners.add(fn);
+      return () => listeners.delete(fn);
+    },
+  };
+}
+
+export function initialState(): AppState {
+  return {
+    scenarioName: DEMO_SCENARIO.name,
+    conditions: { ...DEMO_SCENARIO.conditions },
+    products: { ...DEMO_SCENARIO.products },
+    sites: DEMO_SCENARIO.sites.map((s) => ({ ...s })),
+    view: { magGraticule: false, fan: true, magnetopauseSurface: true, playing: false, sweepVary: 'pdyn', sweepMlt: 0 },
+    scene: null,
+    oval: null,
+    siteResults: null,
+    sweep: null,
+    errors: {},
+    pending: { scene: false, oval: false, sites: false, sweep: false },
+    perf: { seq: 0, changedAt: 0 },
+    sceneSeq: -1,
+    ovalSeq: -1,
+  };
+}
+
+export const store: Store<AppState> = createStore(initialState());
+
+/** Subscribe a component to one slice; the selector must return a stable reference or a primitive. */
+export function useStore<U>(selector: (s: AppState) => U): U {
+  return useSyncExternalStore(store.subscribe, () => selector(store.get()), () => selector(store.get()));
+}
+
+/** Change conditions (marks a new perf sequence; the engine client reacts). */
+export function setConditions(patch: Partial<FieldConditions>): void {
+  noteChange(store.get().perf.seq + 1);
+  store.set((s) => ({
+    conditions: { ...s.conditions, ...patch },
+    scenarioName: s.scenarioName.endsWith('(edited)') ? s.scenarioName : `${s.scenarioName} (edited)`,
+    perf: { seq: s.perf.seq + 1, changedAt: performance.now() },
+  }));
+}
+
+export function setProducts(patch: Partial<ProductSettings>): void {
+  noteChange(store.get().perf.seq + 1);
+  store.set((s) => ({ products: { ...s.products, ...patch }, perf: { seq: s.perf.seq + 1, changedAt: performance.now() } }));
+}
+
+export function setView(patch: Partial<ViewSettings>): void {
+  store.set((s) => ({ view: { ...s.view, ...patch } }));
+}
+
+export function setSites(sites: SiteInput[]): void {
+  store.set({ sites });
+}

@@ -1,0 +1,123 @@
+/**
+ * The app's export files: sites/conjugates, boundaries and sweeps as CSV
+ * (units in headers), GeoJSON (RFC 7946: lon/lat, WGS84) and JSON with a
+ * metadata block. Pure builders: data in, text out.
+ */
+import type { BoundaryCurve, SiteResult, SweepResult } from '../../workers/protocol';
+import type { FieldConditions, ProductOptions } from '../physics/conditions';
+import { writeCsv, type CsvCell as Cell } from './csv';
+import { featureCollection, lineFeature, pointFeature, type Feature } from './geojson';
+
+export interface ExportMeta {
+  generator: string;
+  version: string;
+  createdUtc: string;
+  scenario: string;
+  conditions: FieldConditions;
+  products: ProductOptions & { minElevationDeg: number };
+  igrfEpoch: number | null;
+}
+
+const r = (v: number | null | undefined, d: number): number | null => (v == null || !Number.isFinite(v) ? null : Math.round(v * 10 ** d) / 10 ** d);
+
+export const SITE_HEADER = [
+  'name', 'lat_deg', 'lon_deg', 'line_type', 'conjugate_lat_deg', 'conjugate_lon_deg', 'conjugate_alt_km',
+  'equator_distance_re', 'l_shell', 'mlt_h', 'mag_lat_deg', 'oval_relation',
+  'sky_elevation_deg', 'sky_azimuth_deg', 'sky_distance_km', 'sky_visible',
+];
+
+export function siteRow(s: SiteResult): Cell[] {
+  const c = s.conjugate;
+  return [
+    s.name, r(s.latDeg, 5), r(s.lonDeg, 5), s.type, r(c?.geoLatDeg, 4), r(c?.geoLonDeg, 4), r(c?.altKm, 1),
+    r(s.equatorRe, 3), r(s.lShell, 3), r(s.mltHours, 3), r(s.magLatDeg, 4), s.ovalRelation,
+    r(s.sky?.elevationDeg, 2), r(s.sky?.azimuthDeg, 2), r(s.sky?.distanceKm, 1), s.sky ? s.sky.visible : null,
+  ];
+}
+
+export function sitesCsv(sites: SiteResult[]): string {
+  return writeCsv(SITE_HEADER, sites.map(siteRow));
+}
+
+export const BOUNDARY_HEADER = [
+  'hemisphere', 'mlt_h', 'open_closed_mag_lat_deg', 'open_closed_geo_lat_deg', 'open_closed_geo_lon_deg',
+  'equatorward_mag_lat_deg', 'equatorward_geo_lat_deg', 'equatorward_geo_lon_deg',
+];
+
+export function boundariesCsv(curves: BoundaryCurve[]): string {
+  const rows: Cell[][] = [];
+  for (const c of curves)
+    for (let i = 0; i < c.mltHours.length; i++)
+      rows.push([
+        c.hemisphere, r(c.mltHours[i], 3), r(c.openClosedMagLatDeg[i], 4), r(c.openClosedGeoLatDeg[i], 4), r(c.openClosedGeoLonDeg[i], 4),
+        r(c.equatorwardMagLatDeg[i], 4), r(c.equatorwardGeoLatDeg[i], 4), r(c.equatorwardGeoLonDeg[i], 4),
+      ]);
+  return writeCsv(BOUNDARY_HEADER, rows);
+}
+
+export function sweepCsv(s: SweepResult): string {
+  const head = [s.vary === 'pdyn' ? 'pdyn_npa' : 'imf_bz_nt', 'mlt_h', 'north_open_closed_mag_lat_deg', 'north_equatorward_mag_lat_deg', 'south_open_closed_mag_lat_deg', 'south_equatorward_mag_lat_deg'];
+  const rows: Cell[][] = [];
+  for (let i = 0; i < s.values.length; i++)
+    rows.push([r(s.values[i], 4), s.mltHours, r(s.northOpenClosedMagLatDeg[i], 4), r(s.northEquatorwardMagLatDeg[i], 4), r(s.southOpenClosedMagLatDeg[i], 4), r(s.southEquatorwardMagLatDeg[i], 4)]);
+  return writeCsv(head, rows);
+}
+
+/** A closed boundary ring as lon/lat positions (NaN where absent; the shared writer cuts gaps and the antimeridian). */
+function ring(lat: ArrayLike<number>, lon: ArrayLike<number>): (number[] | null)[] {
+  const out: (number[] | null)[] = [];
+  for (let k = 0; k <= lat.length; k++) {
+    const i = k % lat.length;
+    out.push(Number.isFinite(lat[i]) && Number.isFinite(lon[i]) ? [r(lon[i], 5)!, r(lat[i], 5)!] : null);
+  }
+  return out;
+}
+
+export function boundariesGeoJson(curves: BoundaryCurve[], meta: ExportMeta): object {
+  const features: Feature[] = [];
+  for (const c of curves)
+    for (const edge of ['openClosed', 'equatorward'] as const)
+      features.push(lineFeature(ring(c[`${edge}GeoLatDeg`], c[`${edge}GeoLonDeg`]), { hemisphere: c.hemisphere, boundary: edge === 'openClosed' ? 'open-closed' : 'equatorward', alt_km: meta.products.altKm }));
+  return featureCollection(features, { metadata: meta });
+}
+
+export function sitesGeoJson(sites: SiteResult[], meta: ExportMeta): object {
+  const features: Feature[] = [];
+  for (const s of sites) {
+    const row = siteRow(s);
+    const props: Record<string, unknown> = Object.fromEntries(SITE_HEADER.map((h, i) => [h, row[i] ?? null]));
+    features.push(pointFeature(r(s.lonDeg, 5)!, r(s.latDeg, 5)!, { ...props, role: 'site' }));
+    if (s.conjugate)
+      features.push(pointFeature(r(s.conjugate.geoLonDeg, 5)!, r(s.conjugate.geoLatDeg, 5)!, { name: s.name, role: 'conjugate', hemisphere: s.conjugate.hemisphere, alt_km: s.conjugate.altKm }));
+  }
+  return featureCollection(features, { metadata: meta });
+}
+
+const arr = (a: ArrayLike<number>, d: number) => Array.from(a, (v) => r(v, d));
+
+export function fullJson(meta: ExportMeta, sites: SiteResult[], curves: BoundaryCurve[], sweep: SweepResult | null): object {
+  return {
+    metadata: meta,
+    sites: sites.map((s) => ({ ...s, lineGeo: undefined, error: s.error })),
+    boundaries: curves.map((c) => ({
+      hemisphere: c.hemisphere,
+      mlt_h: arr(c.mltHours, 3),
+      open_closed_mag_lat_deg: arr(c.openClosedMagLatDeg, 4),
+      open_closed_geo_lat_deg: arr(c.openClosedGeoLatDeg, 4),
+      open_closed_geo_lon_deg: arr(c.openClosedGeoLonDeg, 4),
+      equatorward_mag_lat_deg: arr(c.equatorwardMagLatDeg, 4),
+      equatorward_geo_lat_deg: arr(c.equatorwardGeoLatDeg, 4),
+      equatorward_geo_lon_deg: arr(c.equatorwardGeoLonDeg, 4),
+    })),
+    sweep: sweep && {
+      vary: sweep.vary,
+      unit: sweep.vary === 'pdyn' ? 'nPa' : 'nT',
+      mlt_h: sweep.mltHours,
+      values: arr(sweep.values, 4),
+      north_open_closed_mag_lat_deg: arr(sweep.northOpenClosedMagLatDeg, 4),
+      north_equatorward_mag_lat_deg: arr(sweep.northEquatorwardMagLatDeg, 4),
+      south_open_closed_mag_lat_deg: arr(sweep.southOpenClosedMagLatDeg, 4),
+      south_equatorward_mag_lat_deg: arr(sweep.southEquatorwardMagLatDeg, 4),
+    },
+  };
+}

@@ -1,0 +1,69 @@
+import { describe, expect, it } from 'vitest';
+import { readCsv } from '../../src/io/csv';
+import { geoJsonProblems } from '../../src/io/geojson';
+import { boundariesCsv, boundariesGeoJson, sitesCsv, sitesGeoJson, type ExportMeta } from '../../src/io/app-export';
+import { parseSitesCsv } from '../../src/io/app-csv';
+import type { BoundaryCurve, SiteResult } from '../../workers/protocol';
+import { DEMO_SCENARIO } from '../../src/app/scenario';
+
+const meta: ExportMeta = {
+  generator: 'test', version: '0', createdUtc: '2025-01-01T00:00:00Z', scenario: 'x',
+  conditions: DEMO_SCENARIO.conditions, products: { altKm: 110, sourceRe: 8, minElevationDeg: 10 }, igrfEpoch: 2025.2,
+};
+
+function site(name: string, lat: number, lon: number): SiteResult {
+  return {
+    name, latDeg: lat, lonDeg: lon, type: 'closed',
+    conjugate: { hemisphere: 'south', geoLatDeg: -60.5, geoLonDeg: 170.25, magLatDeg: -61, magLonDeg: 10, mltHours: 1, altKm: 0 } as SiteResult['conjugate'],
+    footpoints: [], equatorRe: 5.2, lShell: 5.1, mltHours: 23.5, magLatDeg: 64, ovalRelation: 'equatorward',
+    sky: { elevationDeg: 12.3, azimuthDeg: 355, distanceKm: 420, visible: true }, boundaries: null, lineGeo: new Float64Array(0),
+  };
+}
+
+describe('CSV export', () => {
+  it('escapes formula-like names (OWASP CSV injection) and keeps negative numbers numeric', () => {
+    const csv = sitesCsv([site('=HYPERLINK("x")', -45, -70), site('+1', 1, 1), site('-cmd', 2, 2), site('@SUM(A1)', 3, 3), site('Plain, "quoted"', 4, 4)]);
+    const rows = readCsv(csv);
+    expect(rows[0]).toContain('lat_deg');
+    expect(rows[0].every((h) => /_(deg|km|re|h)$|^(name|line_type|l_shell|oval_relation|sky_visible)$/.test(h))).toBe(true);
+    expect(rows.slice(1).map((r) => r[0])).toEqual(["'=HYPERLINK(\"x\")", "'+1", "'-cmd", "'@SUM(A1)", 'Plain, "quoted"']);
+    expect(rows[1][1]).toBe('-45');
+    expect(rows[1][2]).toBe('-70');
+  });
+
+  it('writes one boundary row per MLT sample and hemisphere, with NaN as empty', () => {
+    const c: BoundaryCurve = {
+      hemisphere: 'north', mltHours: Float64Array.from([0, 12]),
+      openClosedMagLatDeg: Float64Array.from([70, NaN]), openClosedGeoLatDeg: Float64Array.from([68, NaN]), openClosedGeoLonDeg: Float64Array.from([10, NaN]),
+      equatorwardMagLatDeg: Float64Array.from([65, 72]), equatorwardGeoLatDeg: Float64Array.from([63, 74]), equatorwardGeoLonDeg: Float64Array.from([12, -170]),
+    };
+    const rows = readCsv(boundariesCsv([c]));
+    expect(rows.length).toBe(3);
+    expect(rows[2][2]).toBe('');
+    const gj = boundariesGeoJson([c], meta);
+    expect(geoJsonProblems(gj)).toEqual([]);
+  });
+});
+
+describe('GeoJSON export', () => {
+  it('is valid RFC 7946 with lon/lat order and carries the metadata', () => {
+    const gj = sitesGeoJson([site('<b>bold</b>', 66.8, 24.1)], meta) as { features: { geometry: { coordinates: number[] }; properties: Record<string, unknown> }[]; metadata: ExportMeta };
+    expect(geoJsonProblems(gj)).toEqual([]);
+    expect(gj.features[0].geometry.coordinates).toEqual([24.1, 66.8]);
+    expect(gj.features[0].properties.name).toBe('<b>bold</b>');
+    expect(gj.features[1].geometry.coordinates).toEqual([170.25, -60.5]);
+    expect(gj.metadata.conditions.pdynNpa).toBe(3);
+  });
+});
+
+describe('site CSV import', () => {
+  it('reads name, lat_deg, lon_deg in any order and reports bad lines', () => {
+    const { sites, problems } = parseSitesCsv('lon_deg,name,lat_deg\r\n24.5,"Fell, upper",66.1\n200,East,10\nx,Bad,1\n5,Polar,95\n');
+    expect(sites).toEqual([{ name: 'Fell, upper', latDeg: 66.1, lonDeg: 24.5 }, { name: 'East', latDeg: 10, lonDeg: -160 }]);
+    expect(problems).toEqual(['line 4: lon_deg must be a number in −180..360', 'line 5: lat_deg must be a number in −90..90']);
+  });
+
+  it('rejects a file without coordinate columns', () => {
+    expect(parseSitesCsv('a,b\n1,2\n').problems[0]).toMatch(/lat_deg/);
+  });
+});

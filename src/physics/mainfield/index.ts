@@ -1,0 +1,10 @@
+export { coefIndex, coefCount } from './layout';
+export { parseIgrfTable } from './igrf-parse';
+export type { IgrfTable } from './igrf-parse';
+export { IGRF14_TABLE, IGRF14_SOURCE_SHA256 } from './igrf14-table';
+export { igrfCoefficients, tableCoefficients, applySecularVariation } from './coefficients';
+export type { MainFieldCoefficients } from './coefficients';
+export { centredDipole } from './centred-dipole';
+export type { CentredDipole } from './centred-dipole';
+export { prepareMainField } from './synthesis';
+export type { MainFieldModel } from './synthesis';

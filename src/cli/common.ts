@@ -1,0 +1,124 @@
+/**
+ * The flags every command shares, the conditions they make, and the
+ * `conditions` block every result carries.
+ */
+import { readFileSync } from 'node:fs';
+import type { FieldConditions } from '../physics/conditions';
+import { DEFAULT_CONDITIONS, DEFAULT_IMF_EFFICIENCY, type PreparedModel } from '../physics/model';
+import { RAD } from '../physics/constants';
+import { InputError } from '../physics/errors';
+import { UsageError, type FlagSpec, type ParsedFlags } from './args';
+
+export type OutputFormat = 'json' | 'csv' | 'geojson';
+
+/** Default footpoint altitude, km (common practice for the auroral emission height, CHECKS §7). */
+export const DEFAULT_ALT_KM = 110;
+
+export function commonFlags(formats: readonly OutputFormat[]): FlagSpec[] {
+  return [
+    { name: 'time', kind: 'string', meta: '<ISO 8601 UTC>', help: 'instant, e.g. 2025-03-20T22:00:00Z', defaultText: 'now' },
+    { name: 'pdyn', kind: 'number', meta: '<nPa>', unit: 'nPa', above: 0, max: 1e4, help: 'solar-wind dynamic pressure', defaultText: String(DEFAULT_CONDITIONS.pdynNpa) },
+    { name: 'bz', kind: 'number', meta: '<nT>', unit: 'nT', min: -1000, max: 1000, help: 'IMF Bz (GSM)', defaultText: String(DEFAULT_CONDITIONS.bzNt) },
+    { name: 'by', kind: 'number', meta: '<nT>', unit: 'nT', min: -1000, max: 1000, help: 'IMF By (GSM)', defaultText: String(DEFAULT_CONDITIONS.byNt) },
+    { name: 'tilt-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'dipole tilt, overrides the tilt from --time', defaultText: 'from --time' },
+    { name: 'internal', kind: 'enum', meta: 'dipole|igrf', values: ['dipole', 'igrf'], help: 'main field: centred dipole of the date or full IGRF-14', defaultText: DEFAULT_CONDITIONS.internal },
+    { name: 'magnetopause', kind: 'enum', meta: 'on|off', values: ['on', 'off'], help: 'off removes both the compression term and the boundary', defaultText: 'on' },
+    { name: 'imf-efficiency', kind: 'number', meta: '<0..1>', min: 0, max: 1, help: 'share of the IMF that penetrates the magnetosphere', defaultText: String(DEFAULT_IMF_EFFICIENCY) },
+    { name: 'alt-km', kind: 'number', meta: '<km>', unit: 'km', min: 0, max: 5000, help: 'footpoint altitude above the WGS84 ellipsoid', defaultText: String(DEFAULT_ALT_KM) },
+    { name: 'format', kind: 'enum', meta: formats.join('|'), values: formats, help: 'output format', defaultText: 'json' },
+    { name: 'help', kind: 'switch', help: 'show this help' },
+  ];
+}
+
+/** Conditions from the common flags; `now` gives the default time. */
+export function conditionsFromFlags(f: ParsedFlags, now: Date): FieldConditions {
+  return {
+    time: (f.time as string | undefined) ?? now.toISOString(),
+    pdynNpa: (f.pdyn as number | undefined) ?? DEFAULT_CONDITIONS.pdynNpa,
+    bzNt: (f.bz as number | undefined) ?? DEFAULT_CONDITIONS.bzNt,
+    byNt: (f.by as number | undefined) ?? DEFAULT_CONDITIONS.byNt,
+    tiltDeg: (f['tilt-deg'] as number | undefined) ?? null,
+    internal: ((f.internal as string | undefined) ?? DEFAULT_CONDITIONS.internal) as FieldConditions['internal'],
+    magnetopause: f.magnetopause === undefined ? DEFAULT_CONDITIONS.magnetopause : f.magnetopause === 'on',
+    imfEfficiency: (f['imf-efficiency'] as number | undefined) ?? DEFAULT_IMF_EFFICIENCY,
+  };
+}
+
+let cachedVersion: string | null = null;
+
+/** This program's version, from package.json. */
+export function programVersion(): string {
+  if (cachedVersion === null) {
+    try {
+      const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version?: string };
+      cachedVersion = pkg.version ?? 'unknown';
+    } catch {
+      cachedVersion = 'unknown';
+    }
+  }
+  return cachedVersion;
+}
+
+/**
+ * The conditions block: the keys fixed by issue 3 first, then extras (the
+ * tilt's origin, the Shue flaring exponent, the dipole of the date, the
+ * coefficient epoch and the program version).
+ */
+export function conditionsBlock(model: PreparedModel, altKm: number, warnings: readonly string[]): Record<string, unknown> {
+  const c = model.conditions;
+  const mp = model.magnetopause;
+  return {
+    time: new Date(model.ms).toISOString(),
+    pdynNpa: c.pdynNpa,
+    bzNt: c.bzNt,
+    byNt: c.byNt,
+    tiltDeg: model.frames.tiltRad * RAD,
+    standoffRe: mp ? mp.r0Re : null,
+    internal: c.internal,
+    magnetopause: c.magnetopause,
+    imfEfficiency: c.imfEfficiency,
+    altKm,
+    warnings: [...warnings],
+    tiltSource: c.tiltDeg === null || c.tiltDeg === undefined ? 'time' : 'override',
+    flaringAlpha: mp ? mp.alpha : null,
+    b0Nt: model.dipole.b0Nt,
+    poleLatDeg: model.dipole.poleLatDeg,
+    poleLonDeg: model.dipole.poleLonDeg,
+    igrfEpoch: model.decimalYear,
+    coefficients: 'IGRF-14',
+    version: programVersion(),
+  };
+}
+
+/** Engine input names → the flags that set them. */
+const FLAG_OF_FIELD: Record<string, string> = {
+  time: '--time',
+  pdynNpa: '--pdyn',
+  bzNt: '--bz',
+  byNt: '--by',
+  tiltDeg: '--tilt-deg',
+  internal: '--internal',
+  magnetopause: '--magnetopause',
+  imfEfficiency: '--imf-efficiency',
+  altKm: '--alt-km',
+  lat: '--lat',
+  lon: '--lon',
+  heightKm: '--height-km',
+  mltStep: '--mlt-step',
+  mlt: '--mlt',
+  vary: '--vary',
+  from: '--from',
+  to: '--to',
+  steps: '--steps',
+  sourceRe: '--source-re',
+};
+
+/** An engine InputError re-worded for the flag that set the value, or null when no flag did. */
+export function usageFromInputError(e: unknown): UsageError | null {
+  if (!(e instanceof InputError)) return null;
+  const flag = FLAG_OF_FIELD[e.field];
+  if (!flag) return null;
+  const prefix = `${e.field}: `;
+  const msg = e.message.startsWith(prefix) ? e.message.slice(prefix.length) : e.message;
+  return new UsageError(flag, msg);
+}

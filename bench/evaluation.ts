@@ -1,0 +1,131 @@
+/**
+ * Section "field" (project issue 2): cost of one field evaluation and of one
+ * model preparation.
+ *  - evalNsDipoleCompressionImf: prepared default model (tilted dipole +
+ *    compression + IMF), evaluate(out, x, y, z) over ~1e6 GSM points inside the
+ *    magnetopause;
+ *  - evalNsIgrf13: the degree-13 spherical-harmonic main field alone (GEO);
+ *  - prepareMs: prepareModel per condition over 200 varied conditions.
+ */
+import { prepareModel, DEFAULT_IMF_EFFICIENCY, type PreparedModel } from '../src/physics/model';
+import { prepareMainField } from '../src/physics/mainfield/synthesis';
+import { igrfCoefficients } from '../src/physics/mainfield/coefficients';
+import type { FieldConditions } from '../src/physics/conditions';
+import { type BenchSection, type Figure, type RunOptions, consume, median, now, seededRandom, timeRuns } from './lib';
+
+/** The default bench condition of issues 2 and 3. */
+export const BENCH_CONDITIONS = Object.freeze({
+  time: '2025-03-20T22:00:00Z',
+  pdynNpa: 2,
+  bzNt: -3,
+  byNt: 2,
+  internal: 'dipole',
+  magnetopause: true,
+  imfEfficiency: DEFAULT_IMF_EFFICIENCY,
+} satisfies Partial<FieldConditions> & { time: string });
+
+/**
+ * n GSM points (xyz interleaved) inside the model's magnetopause: random
+ * directions, radius log-uniform in [1.02, 30] RE (the tracer spends most
+ * evaluations near Earth), rejected when outside the boundary.
+ */
+export function pointsInside(model: PreparedModel, n: number, seed = 1): Float64Array {
+  const rnd = seededRandom(seed);
+  const pts = new Float64Array(3 * n);
+  const lnMin = Math.log(1.02), lnMax = Math.log(30);
+  let k = 0;
+  while (k < n) {
+    const u = 2 * rnd() - 1;
+    const phi = 2 * Math.PI * rnd();
+    const s = Math.sqrt(1 - u * u);
+    const r = Math.exp(lnMin + (lnMax - lnMin) * rnd());
+    const x = r * s * Math.cos(phi), y = r * s * Math.sin(phi), z = r * u;
+    if (!model.isInside(x, y, z)) continue;
+    pts[3 * k] = x; pts[3 * k + 1] = y; pts[3 * k + 2] = z;
+    k++;
+  }
+  return pts;
+}
+
+type EvalFn = (out: Float64Array, x: number, y: number, z: number) => void;
+
+/** Median ns per call of f over the points. */
+export function evalNs(f: EvalFn, pts: Float64Array, reps: number, warmup: number): number {
+  const n = pts.length / 3;
+  const out = new Float64Array(3);
+  const pass = (): void => {
+    let acc = 0;
+    for (let i = 0; i < n; i++) {
+      f(out, pts[3 * i], pts[3 * i + 1], pts[3 * i + 2]);
+      acc += out[0] + out[2];
+    }
+    consume(acc);
+  };
+  return (median(timeRuns(pass, reps, warmup)) * 1e6) / n;
+}
+
+/** 200 varied conditions (seeded): times over 2025, Pdyn 0.5–10 nPa, Bz −15..10 nT, By −10..10 nT. */
+export function variedConditions(n: number, seed = 7): (Partial<FieldConditions> & { time: string })[] {
+  const rnd = seededRandom(seed);
+  const t0 = Date.UTC(2025, 0, 1);
+  const span = 365 * 86_400_000;
+  const out: (Partial<FieldConditions> & { time: string })[] = [];
+  for (let i = 0; i < n; i++) {
+    out.push({
+      ...BENCH_CONDITIONS,
+      time: new Date(t0 + Math.floor(rnd() * span / 60_000) * 60_000).toISOString(),
+      pdynNpa: Math.exp(Math.log(0.5) + (Math.log(10) - Math.log(0.5)) * rnd()),
+      bzNt: -15 + 25 * rnd(),
+      byNt: -10 + 20 * rnd(),
+    });
+  }
+  return out;
+}
+
+export const fieldSection: BenchSection = {
+  name: 'field',
+  title: 'Field evaluation and preparation (issue 2)',
+  run(o: RunOptions) {
+    const nPts = o.quick ? 100_000 : 1_000_000;
+    const reps = o.quick ? 3 : 7;
+    const model = prepareModel(BENCH_CONDITIONS);
+    const pts = pointsInside(model, nPts);
+    o.log(`field: ${nPts} points inside the magnetopause (r0 ${model.magnetopause?.r0Re.toFixed(2)} RE)`);
+
+    const ns = evalNs(model.evaluate, pts, reps, 2);
+    // Context: the internal (tilted dipole) term alone on the same points.
+    const nsInternal = evalNs(model.evaluateInternal, pts, reps, 2);
+
+    const igrfN = o.quick ? 20_000 : 200_000;
+    const mf = prepareMainField(igrfCoefficients(2025.2));
+    const nsIgrf = evalNs((out, x, y, z) => mf.evaluateGeo(out, x, y, z), pts.subarray(0, 3 * igrfN), reps, 2);
+
+    const conds = variedConditions(200);
+    for (let i = 0; i < 40; i++) consume(prepareModel(conds[i]).dipole.b0Nt); // warm-up
+    const perCond: number[] = [];
+    const batchMeans: number[] = [];
+    for (let rep = 0; rep < (o.quick ? 1 : 3); rep++) {
+      let total = 0;
+      for (const c of conds) {
+        const t0 = now();
+        const m = prepareModel(c);
+        const dt = now() - t0;
+        consume(m.dipole.b0Nt);
+        perCond.push(dt);
+        total += dt;
+      }
+      batchMeans.push(total / conds.length);
+    }
+    perCond.sort((a, b) => a - b);
+    const p95 = perCond[Math.floor(0.95 * (perCond.length - 1))];
+
+    const figures: Figure[] = [
+      { key: 'evalNsDipoleCompressionImf', value: ns, unit: 'ns/eval', target: { op: '<=', value: 200, issue: 2 }, note: `${nPts} points, median of ${reps}` },
+      { key: 'evalNsDipoleOnly', value: nsInternal, unit: 'ns/eval', note: 'evaluateInternal of the same model (context)' },
+      { key: 'evalNsIgrf13', value: nsIgrf, unit: 'ns/eval', note: `evaluateGeo, ${igrfN} points` },
+      { key: 'prepareMs', value: median(batchMeans), unit: 'ms/condition', target: { op: '<=', value: 5, issue: 2 }, note: `mean over ${conds.length} varied conditions, median of batches` },
+      { key: 'prepareMsP95', value: p95, unit: 'ms', note: '95th percentile of single preparations' },
+    ];
+    return { figures, detail: { points: nPts, igrfPoints: igrfN, r0Re: model.magnetopause?.r0Re ?? null, prepareMsMax: perCond[perCond.length - 1] } };
+  },
+};

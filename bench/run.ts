@@ -1,0 +1,166 @@
+/**
+ * Benchmark harness: `npm run bench -- [--only <section>] [--quick]`; for JSON use
+ * `npm run --silent bench -- --json` (without --silent npm prints its own banner on stdout).
+ *
+ * Sections are registered in SECTIONS below, each loaded lazily so that a
+ * section whose engine modules are missing reports an error instead of
+ * stopping the others. To add a section, write bench/<name>.ts exporting a
+ * `BenchSection` (see bench/lib.ts) and add one line to SECTIONS. The `batch`
+ * section (project issue 5: site-conditions per second, peak memory) is
+ * already registered: it loads bench/batch.ts, exporting `batchSection`, once
+ * that file exists.
+ *
+ * Output: a readable table on stdout; with --json exactly one JSON object on
+ * stdout and nothing else (progress goes to stderr). One core, no workers.
+ */
+import { existsSync } from 'node:fs';
+import os from 'node:os';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import type { BenchSection, Figure, SectionResult } from './lib';
+import { sig, targetMet } from './lib';
+
+interface SectionEntry {
+  name: string;
+  load(): Promise<BenchSection | null>;
+}
+
+/** Optional section from bench/<file>.ts exporting `exportName`; null while the file does not exist. */
+function optional(name: string, file: string, exportName: string): SectionEntry {
+  return {
+    name,
+    async load() {
+      const path = fileURLToPath(new URL(`./${file}`, import.meta.url));
+      if (!existsSync(path)) return null;
+      const mod = (await import(pathToFileURL(path).href)) as Record<string, unknown>;
+      const s = mod[exportName] as BenchSection | undefined;
+      if (!s || typeof s.run !== 'function') throw new Error(`bench/${file} does not export a BenchSection named ${exportName}`);
+      return s;
+    },
+  };
+}
+
+/** The registry, in run order. */
+export const SECTIONS: SectionEntry[] = [
+  { name: 'field', load: async () => (await import('./evaluation')).fieldSection },
+  { name: 'tracer', load: async () => (await import('./tracer')).tracerSection },
+  optional('batch', 'batch.ts', 'batchSection'), // project issue 5
+];
+
+interface Args { json: boolean; only: string | null; quick: boolean }
+
+function parseArgs(argv: string[]): Args {
+  const a: Args = { json: false, only: null, quick: false };
+  for (let i = 0; i < argv.length; i++) {
+    const s = argv[i];
+    if (s === '--json') a.json = true;
+    else if (s === '--quick') a.quick = true;
+    else if (s === '--only') a.only = argv[++i] ?? null;
+    else if (s.startsWith('--only=')) a.only = s.slice(7);
+    else if (s === '--help' || s === '-h') {
+      process.stderr.write(`usage: npm run bench -- [--json] [--only <${SECTIONS.map((x) => x.name).join('|')}>] [--quick]\n`);
+      process.exit(0);
+    } else {
+      process.stderr.write(`bench: unknown argument "${s}" (expected --json, --only <section>, --quick)\n`);
+      process.exit(2);
+    }
+  }
+  if (a.only !== null && !SECTIONS.some((s) => s.name === a.only)) {
+    process.stderr.write(`bench: unknown section "${a.only}"; sections: ${SECTIONS.map((s) => s.name).join(', ')}\n`);
+    process.exit(2);
+  }
+  return a;
+}
+
+interface SectionReport {
+  title?: string;
+  status: 'ok' | 'missing' | 'error';
+  error?: string;
+  seconds?: number;
+  /** key → value, the figures for scripts. */
+  values?: Record<string, number>;
+  figures?: Figure[];
+  detail?: Record<string, unknown>;
+}
+
+function machine(): Record<string, unknown> {
+  const cpus = os.cpus();
+  return {
+    cpu: cpus[0]?.model ?? 'unknown',
+    cores: cpus.length,
+    node: process.version,
+    v8: process.versions.v8,
+    platform: `${os.platform()} ${os.release()} ${os.arch()}`,
+    totalMemGiB: Number((os.totalmem() / 2 ** 30).toFixed(1)),
+    loadAvg: os.loadavg().map((x) => Number(x.toFixed(2))),
+    date: new Date().toISOString(),
+    threads: 1,
+  };
+}
+
+function fmt(v: number): string {
+  if (!Number.isFinite(v)) return String(v);
+  const a = Math.abs(v);
+  if (a !== 0 && (a < 1e-3 || a >= 1e7)) return v.toExponential(3);
+  return String(sig(v, 4));
+}
+
+function printTable(sections: Record<string, SectionReport>, m: Record<string, unknown>): void {
+  const lines: string[] = [];
+  lines.push(`Fieldline Atlas benchmarks — ${String(m.cpu)} (${String(m.cores)} cores, 1 used), Node ${String(m.node)}, ${String(m.date)}`);
+  for (const [name, r] of Object.entries(sections)) {
+    lines.push('');
+    lines.push(`[${name}] ${r.title ?? ''}${r.seconds !== undefined ? ` (${r.seconds.toFixed(1)} s)` : ''}`);
+    if (r.status === 'missing') { lines.push('  not yet implemented (bench file absent)'); continue; }
+    if (r.status === 'error') { lines.push(`  ERROR: ${r.error}`); continue; }
+    const rows = (r.figures ?? []).map((f) => {
+      const met = targetMet(f);
+      const target = f.target ? `${f.target.op} ${fmt(f.target.value)} (#${f.target.issue})` : '';
+      return [f.key, fmt(f.value), f.unit, target, met === null ? '' : met ? 'ok' : 'MISSED', f.note ?? ''];
+    });
+    const head = ['key', 'value', 'unit', 'target', '', 'note'];
+    const w = head.map((h, i) => Math.max(h.length, ...rows.map((row) => row[i].length)));
+    const line = (row: string[]): string => '  ' + row.map((c, i) => (i === 1 ? c.padStart(w[i]) : i === row.length - 1 ? c : c.padEnd(w[i]))).join('  ');
+    lines.push(line(head));
+    for (const row of rows) lines.push(line(row));
+  }
+  process.stdout.write(lines.join('\n') + '\n');
+}
+
+async function main(): Promise<void> {
+  const args = parseArgs(process.argv.slice(2));
+  const log = (msg: string): void => void process.stderr.write(`${msg}\n`);
+  const sections: Record<string, SectionReport> = {};
+  let failed = false;
+  for (const entry of SECTIONS) {
+    if (args.only !== null && entry.name !== args.only) continue;
+    const t0 = performance.now();
+    try {
+      const s = await entry.load();
+      if (!s) { sections[entry.name] = { status: 'missing' }; continue; }
+      log(`bench: running ${entry.name}…`);
+      const r: SectionResult = await s.run({ quick: args.quick, log });
+      const values: Record<string, number> = {};
+      for (const f of r.figures) values[f.key] = f.value;
+      sections[entry.name] = { title: s.title, status: 'ok', seconds: (performance.now() - t0) / 1000, values, figures: r.figures, detail: r.detail };
+    } catch (e) {
+      failed = true;
+      const err = e instanceof Error ? e.message : String(e);
+      log(`bench: section ${entry.name} failed: ${e instanceof Error && e.stack ? e.stack : err}`);
+      sections[entry.name] = { status: 'error', error: err };
+    }
+  }
+  const m = machine();
+  const missed = Object.entries(sections).flatMap(([name, r]) =>
+    (r.figures ?? []).filter((f) => targetMet(f) === false).map((f) => `${name}.${f.key}`));
+  if (args.json) {
+    process.stdout.write(JSON.stringify({ machine: m, quick: args.quick, sections, targetsMissed: missed }) + '\n');
+  } else {
+    printTable(sections, m);
+    const errs = Object.entries(sections).filter(([, r]) => r.status === 'error').map(([n]) => n);
+    if (errs.length) process.stdout.write(`\nSections failed: ${errs.join(', ')}\n`);
+    process.stdout.write(missed.length ? `\nTargets missed: ${missed.join(', ')}\n` : errs.length ? '' : '\nAll stated targets met.\n');
+  }
+  if (failed) process.exitCode = 1;
+}
+
+void main();

@@ -1,0 +1,296 @@
+/**
+ * Section "tracer" (project issue 3): tracing speed and accuracy on one core.
+ *  - tracesPerSecond / evalsPerTrace / overheadRatio: closed lines seeded on the
+ *    SM equator at L 2–12 (8 MLTs) of the default bench model, default options;
+ *  - footpointErrorDeg: pure tilt-0 dipole, sphere at 110 km, against the
+ *    analytic footpoint cos²λ = (1 + h/RE)/L (CHECKS.md §1, derived);
+ *  - odexSpeedRatio: the same ODE dr/ds = ±B/|B| integrated by odex (Gragg–
+ *    Bulirsch–Stoer extrapolation, Hairer & Wanner's ODEX) to the analytic arc
+ *    length of each half-line (CHECKS.md §1), tolerances tightened until its
+ *    footpoint error ≤ ours; wall time odex / ours;
+ *  - sceneMs: one scene recompute on a freshly prepared model: 200 lines
+ *    (8 MLTs × 25 latitudes) plus both hemispheres' boundaries at 1 h MLT.
+ */
+import { createRequire } from 'node:module';
+import { prepareModel, type PreparedModel } from '../src/physics/model';
+import { Tracer, LINE_CLOSED } from '../src/physics/trace';
+import { applyMat3, applyMat3T } from '../src/physics/frames';
+import { gsmAtMagneticLatMlt } from '../src/physics/footpoint';
+import { makeTracer, traceGsm, ovalBoundaries, mltGrid } from '../src/physics/mapping';
+import { RE_KM, RAD } from '../src/physics/constants';
+import { BENCH_CONDITIONS } from './evaluation';
+import { type BenchSection, type Figure, type RunOptions, consume, median, now, timeRuns } from './lib';
+
+// tsconfig maps the bare name 'odex' to its local type declaration (test/types/odex.d.ts),
+// and tsx follows that mapping at run time, so load the package's entry file by path.
+const { Solver } = createRequire(import.meta.url)('odex/src/odex.js') as typeof import('odex');
+
+const ALT_KM = 110;
+const MLTS = [0, 3, 6, 9, 12, 15, 18, 21];
+
+/** GSM seeds (xyz interleaved) on the SM equator at r = L for each L and MLT. */
+function equatorSeeds(model: PreparedModel, ls: number[], mlts: number[]): Float64Array {
+  const out = new Float64Array(3 * ls.length * mlts.length);
+  const v = new Float64Array(3);
+  let k = 0;
+  for (const mlt of mlts) {
+    const phi = ((mlt - 12) * 15 * Math.PI) / 180; // MLT = 12 h + φ_SM/15° (common practice)
+    for (const L of ls) {
+      applyMat3T(v, model.frames.smFromGsm, L * Math.cos(phi), L * Math.sin(phi), 0);
+      out[k++] = v[0]; out[k++] = v[1]; out[k++] = v[2];
+    }
+  }
+  return out;
+}
+
+function range(a: number, b: number, step: number): number[] {
+  const out: number[] = [];
+  for (let i = 0; a + i * step <= b + 1e-9; i++) out.push(a + i * step);
+  return out;
+}
+
+/** Analytic footpoint latitude (rad) of the dipole line L at height h on the sphere: cos²λ = (1 + h/RE)/L (CHECKS.md §1). */
+function analyticFootLat(L: number, altKm: number): number {
+  return Math.acos(Math.sqrt((1 + altKm / RE_KM) / L));
+}
+
+/** Dipole arc length (RE) from the equator to latitude λ: L/(2√3)·[x√(1+x²) + asinh x], x = √3 sin λ (CHECKS.md §1). */
+function arcLength(L: number, latRad: number): number {
+  const x = Math.sqrt(3) * Math.sin(latRad);
+  return (L / (2 * Math.sqrt(3))) * (x * Math.sqrt(1 + x * x) + Math.asinh(x));
+}
+
+/** Trace all seeds once; returns the total wall time (ms). */
+function traceAll(t: Tracer, seeds: Float64Array): number {
+  const n = seeds.length / 3;
+  let acc = 0;
+  const t0 = now();
+  for (let i = 0; i < n; i++) acc += t.trace(seeds[3 * i], seeds[3 * i + 1], seeds[3 * i + 2]) + t.nPoints;
+  const dt = now() - t0;
+  consume(acc);
+  return dt;
+}
+
+/** Max |SM latitude of each footpoint − analytic| (deg) over the seeds of a tilt-0 dipole; L from |seed|. */
+function dipoleFootError(model: PreparedModel, t: Tracer, seeds: Float64Array): { maxDeg: number; perL: Record<string, number> } {
+  const v = new Float64Array(3);
+  const n = seeds.length / 3;
+  let maxDeg = 0;
+  const perL: Record<string, number> = {};
+  for (let i = 0; i < n; i++) {
+    const x = seeds[3 * i], y = seeds[3 * i + 1], z = seeds[3 * i + 2];
+    const L = Math.hypot(x, y, z);
+    const type = t.trace(x, y, z);
+    const lam = analyticFootLat(L, ALT_KM);
+    let err = type === LINE_CLOSED ? 0 : Infinity;
+    for (const idx of [t.footMinus, t.footPlus]) {
+      if (idx < 0) { err = Infinity; continue; }
+      const p = t.points;
+      applyMat3(v, model.frames.smFromGsm, p[3 * idx], p[3 * idx + 1], p[3 * idx + 2]);
+      const lat = Math.asin(v[2] / Math.hypot(v[0], v[1], v[2]));
+      err = Math.max(err, Math.abs(Math.abs(lat) - lam) * RAD);
+    }
+    const key = L.toFixed(2);
+    perL[key] = Math.max(perL[key] ?? 0, err);
+    maxDeg = Math.max(maxDeg, err);
+  }
+  return { maxDeg, perL };
+}
+
+interface OdexRun { maxErrDeg: number; maxRadialErrRe: number; evals: number; ms: number }
+
+/**
+ * odex on dr/ds = sign·B/|B| of the same model, each half-line integrated from
+ * the equatorial seed to its analytic arc length; error = |lat_end| − λ_analytic.
+ */
+function odexRun(model: PreparedModel, seeds: Float64Array, tol: number): OdexRun {
+  const b = new Float64Array(3);
+  const derivative = (sign: number) => (_s: number, y: number[]): number[] => {
+    model.evaluate(b, y[0], y[1], y[2]);
+    const m = sign / Math.sqrt(b[0] * b[0] + b[1] * b[1] + b[2] * b[2]);
+    return [b[0] * m, b[1] * m, b[2] * m];
+  };
+  const fPlus = derivative(1), fMinus = derivative(-1);
+  const solver = new Solver(3);
+  solver.absoluteTolerance = tol;
+  solver.relativeTolerance = tol;
+  solver.maxSteps = 100_000;
+  const v = new Float64Array(3);
+  const rStop = 1 + ALT_KM / RE_KM;
+  const n = seeds.length / 3;
+  let maxErrDeg = 0, maxRadialErrRe = 0, evals = 0;
+  const t0 = now();
+  for (let i = 0; i < n; i++) {
+    const y0 = [seeds[3 * i], seeds[3 * i + 1], seeds[3 * i + 2]];
+    const L = Math.hypot(y0[0], y0[1], y0[2]);
+    const lam = analyticFootLat(L, ALT_KM);
+    const sHalf = arcLength(L, lam);
+    for (const f of [fMinus, fPlus]) {
+      const res = solver.solve(f, 0, y0, sHalf);
+      evals += res.nEval;
+      const [x, y, z] = res.y;
+      applyMat3(v, model.frames.smFromGsm, x, y, z);
+      const r = Math.hypot(v[0], v[1], v[2]);
+      const lat = Math.asin(v[2] / r);
+      maxErrDeg = Math.max(maxErrDeg, Math.abs(Math.abs(lat) - lam) * RAD);
+      maxRadialErrRe = Math.max(maxRadialErrRe, Math.abs(r - rStop));
+    }
+  }
+  return { maxErrDeg, maxRadialErrRe, evals, ms: now() - t0 };
+}
+
+export const tracerSection: BenchSection = {
+  name: 'tracer',
+  title: 'Field-line tracer (issue 3)',
+  run(o: RunOptions) {
+    const reps = o.quick ? 3 : 7;
+    const ls = range(2, 12, 0.25);
+
+    // --- Speed through the real model.
+    const model = prepareModel(BENCH_CONDITIONS);
+    const tracer = new Tracer(model);
+    const all = equatorSeeds(model, ls, MLTS);
+    const kept: number[] = [];
+    let pathPts = 0;
+    for (let i = 0; i < all.length / 3; i++) {
+      if (tracer.trace(all[3 * i], all[3 * i + 1], all[3 * i + 2]) === LINE_CLOSED) {
+        kept.push(all[3 * i], all[3 * i + 1], all[3 * i + 2]);
+        pathPts += tracer.nPoints;
+      }
+    }
+    const seeds = Float64Array.from(kept);
+    const nLines = seeds.length / 3;
+    o.log(`tracer: ${nLines} of ${all.length / 3} equatorial seeds are closed in the default model`);
+    // Points along the traced lines, for the evaluation cost where the tracer actually evaluates.
+    const path = new Float64Array(3 * pathPts);
+    let evalsTotal = 0;
+    {
+      let k = 0;
+      for (let i = 0; i < nLines; i++) {
+        tracer.trace(seeds[3 * i], seeds[3 * i + 1], seeds[3 * i + 2]);
+        evalsTotal += tracer.evals;
+        path.set(tracer.points.subarray(0, 3 * tracer.nPoints), k);
+        k += 3 * tracer.nPoints;
+      }
+    }
+    const evalsPerTrace = evalsTotal / nLines;
+    const traceMs = median(timeRuns(() => void traceAll(tracer, seeds), reps, 3));
+    const tracesPerSecond = nLines / (traceMs / 1000);
+    const out = new Float64Array(3);
+    const pathEvalMs = median(timeRuns(() => {
+      let acc = 0;
+      for (let rep = 0; rep < 10; rep++) {
+        for (let i = 0; i < pathPts; i++) {
+          model.evaluate(out, path[3 * i], path[3 * i + 1], path[3 * i + 2]);
+          acc += out[0];
+        }
+      }
+      consume(acc);
+    }, reps, 3));
+    const evalNsOnPath = (pathEvalMs * 1e6) / (10 * pathPts);
+    const traceNs = (traceMs * 1e6) / nLines;
+    const overheadRatio = traceNs / (evalsPerTrace * evalNsOnPath);
+
+    // --- Accuracy and odex comparison in the pure tilt-0 dipole.
+    const dip = prepareModel({ time: BENCH_CONDITIONS.time, internal: 'dipole', magnetopause: false, imfEfficiency: 0, tiltDeg: 0 });
+    const dTracer = new Tracer(dip, { ellipsoid: false, altKm: ALT_KM });
+    const dSeeds = equatorSeeds(dip, ls, [0, 6, 12, 18]);
+    const acc = dipoleFootError(dip, dTracer, dSeeds);
+    let dEvals = 0;
+    for (let i = 0; i < dSeeds.length / 3; i++) { dTracer.trace(dSeeds[3 * i], dSeeds[3 * i + 1], dSeeds[3 * i + 2]); dEvals += dTracer.evals; }
+    const oursDipoleMs = median(timeRuns(() => void traceAll(dTracer, dSeeds), reps, 3));
+
+    // Loosest tolerance on a 10^(1/4) ladder whose error is ≤ ours.
+    const tols = range(0, 28, 1).map((i) => 1e-5 * 10 ** (-i / 4));
+    const tried: { tol: number; errDeg: number }[] = [];
+    let chosen: { tol: number; run: OdexRun } | null = null;
+    for (const tol of tols) {
+      const r = odexRun(dip, dSeeds, tol);
+      tried.push({ tol, errDeg: r.maxErrDeg });
+      if (r.maxErrDeg <= acc.maxDeg) { chosen = { tol, run: r }; break; }
+    }
+    let odexMs = NaN, odexErr = NaN, odexEvalsPerTrace = NaN, odexRadial = NaN;
+    if (chosen) {
+      odexRun(dip, dSeeds, chosen.tol); // warm-up at the chosen tolerance
+      const runs: OdexRun[] = [];
+      for (let i = 0; i < (o.quick ? 1 : 5); i++) runs.push(odexRun(dip, dSeeds, chosen.tol));
+      odexMs = median(runs.map((r) => r.ms));
+      odexErr = runs[0].maxErrDeg;
+      odexRadial = runs[0].maxRadialErrRe;
+      odexEvalsPerTrace = runs[0].evals / (dSeeds.length / 3);
+    }
+    const odexSpeedRatio = odexMs / oursDipoleMs;
+    o.log(`tracer: odex tolerance ${chosen?.tol.toExponential(2) ?? 'none'} (tried ${tried.map((t) => `${t.tol.toExponential(1)}:${t.errDeg.toExponential(2)}°`).join(', ')})`);
+
+    // --- Scene recompute on a fresh model.
+    const lats = range(0, 24, 1).map((i) => 55 + 1.25 * i); // 55°–85° magnetic latitude, north
+    const mltHours = mltGrid(1);
+    const p = new Float64Array(3);
+    let prepMs = 0, linesMs = 0, bndMs = 0, sceneLines = 0;
+    const scene = (): void => {
+      const t0 = now();
+      const m = prepareModel(BENCH_CONDITIONS);
+      const t = makeTracer(m);
+      const t1 = now();
+      let n = 0;
+      for (const mlt of MLTS) {
+        for (const lat of lats) {
+          gsmAtMagneticLatMlt(p, m.frames, lat, mlt, ALT_KM, true);
+          const line = traceGsm(m, t, p[0], p[1], p[2], true);
+          consume(line.lengthRe);
+          n++;
+        }
+      }
+      const t2 = now();
+      const b = ovalBoundaries(m, t, ['north', 'south'], mltHours);
+      consume(b.length);
+      const t3 = now();
+      prepMs = t1 - t0; linesMs = t2 - t1; bndMs = t3 - t2; sceneLines = n;
+    };
+    const sceneRuns: { total: number; prep: number; lines: number; bnd: number }[] = [];
+    for (let i = 0; i < 2; i++) scene();
+    for (let i = 0; i < (o.quick ? 3 : 7); i++) {
+      scene();
+      sceneRuns.push({ total: prepMs + linesMs + bndMs, prep: prepMs, lines: linesMs, bnd: bndMs });
+    }
+    // How many traces the boundary searches take (separate, untimed pass).
+    const counting = new (class extends Tracer { count = 0; override trace(x: number, y: number, z: number): number { this.count++; return super.trace(x, y, z); } })(model);
+    ovalBoundaries(model, counting, ['north', 'south'], mltHours);
+
+    const figures: Figure[] = [
+      { key: 'tracesPerSecond', value: tracesPerSecond, unit: 'lines/s', target: { op: '>=', value: 10_000, issue: 3 }, note: `${nLines} closed lines, L 2–12 × 8 MLT, default model, one core` },
+      { key: 'footpointErrorDeg', value: acc.maxDeg, unit: 'deg', target: { op: '<=', value: 0.001, issue: 3 }, note: 'tilt-0 dipole, 110 km sphere, max over L 2–12 and both ends' },
+      { key: 'evalsPerTrace', value: evalsPerTrace, unit: 'evals/line', note: 'default model' },
+      { key: 'overheadRatio', value: overheadRatio, unit: '×', target: { op: '<=', value: 1.3, issue: 3 }, note: `trace time / (evals × ${evalNsOnPath.toFixed(1)} ns per eval on the traced points)` },
+      { key: 'odexSpeedRatio', value: odexSpeedRatio, unit: '×', target: { op: '>=', value: 3, issue: 3 }, note: `odex ${odexMs.toFixed(1)} ms (tol ${chosen?.tol.toExponential(2) ?? '—'}, err ${odexErr.toExponential(2)}°) / ours ${oursDipoleMs.toFixed(1)} ms (err ${acc.maxDeg.toExponential(2)}°)` },
+      { key: 'odexFootpointErrorDeg', value: odexErr, unit: 'deg', note: 'odex at the chosen tolerance' },
+      { key: 'sceneMs', value: median(sceneRuns.map((r) => r.total)), unit: 'ms', target: { op: '<=', value: 150, issue: 3 }, note: `prepare + ${sceneLines} lines + boundaries (2 hemispheres × 24 MLT), median of ${sceneRuns.length}` },
+    ];
+    return {
+      figures,
+      detail: {
+        closedLines: nLines,
+        seeds: all.length / 3,
+        evalNsOnPath,
+        traceUs: traceNs / 1000,
+        dipole: {
+          lines: dSeeds.length / 3,
+          oursMs: oursDipoleMs,
+          oursEvalsPerTrace: dEvals / (dSeeds.length / 3),
+          oursErrorDegPerL: acc.perL,
+          odexTolerance: chosen?.tol ?? null,
+          odexMs,
+          odexEvalsPerTrace,
+          odexRadialErrorRe: odexRadial,
+          odexTried: tried,
+        },
+        scene: {
+          prepareMs: median(sceneRuns.map((r) => r.prep)),
+          linesMs: median(sceneRuns.map((r) => r.lines)),
+          boundariesMs: median(sceneRuns.map((r) => r.bnd)),
+          boundaryTraces: counting.count,
+        },
+      },
+    };
+  },
+};

@@ -11,7 +11,7 @@ function current(): number {
   return s.view.sweepVary === 'pdyn' ? s.conditions.pdynNpa : s.conditions.bzNt;
 }
 
-function makePlot(el: HTMLElement, vary: 'pdyn' | 'bz'): uPlot {
+function makePlot(el: HTMLElement, vary: 'pdyn' | 'bz', data: uPlot.AlignedData): uPlot {
   const s = (label: string, stroke: string, dash?: number[]) => ({ label, stroke, width: 1.6, dash, spanGaps: false });
   return new uPlot(
     {
@@ -47,7 +47,7 @@ function makePlot(el: HTMLElement, vary: 'pdyn' | 'bz'): uPlot {
         ],
       },
     },
-    [[], [], [], [], []],
+    data,
     el,
   );
 }
@@ -59,17 +59,14 @@ export function SweepPlot() {
   const mlt = useStore((s) => s.view.sweepMlt);
   const sweep = useStore((s) => s.sweep);
   const marker = useStore((s) => (s.view.sweepVary === 'pdyn' ? s.conditions.pdynNpa : s.conditions.bzNt));
+  // Rebuilt per answer (13 points): uPlot cannot lay out a log axis over empty data.
   useEffect(() => {
-    if (!host.current) return;
-    const p = makePlot(host.current, vary);
+    if (!host.current || !sweep || sweep.vary !== vary || sweep.values.length === 0) return;
+    const abs = (a: Float64Array) => Array.from(a, (v) => (Number.isFinite(v) ? Math.abs(v) : null));
+    const data = [Array.from(sweep.values), abs(sweep.northOpenClosedMagLatDeg), abs(sweep.northEquatorwardMagLatDeg), abs(sweep.southOpenClosedMagLatDeg), abs(sweep.southEquatorwardMagLatDeg)] as uPlot.AlignedData;
+    const p = makePlot(host.current, vary, data);
     plot.current = p;
     return () => { p.destroy(); plot.current = null; };
-  }, [vary]);
-  useEffect(() => {
-    const p = plot.current;
-    if (!p || !sweep || sweep.vary !== vary) return;
-    const abs = (a: Float64Array) => Array.from(a, (v) => (Number.isFinite(v) ? Math.abs(v) : null));
-    p.setData([Array.from(sweep.values), abs(sweep.northOpenClosedMagLatDeg), abs(sweep.northEquatorwardMagLatDeg), abs(sweep.southOpenClosedMagLatDeg), abs(sweep.southEquatorwardMagLatDeg)] as uPlot.AlignedData);
   }, [sweep, vary]);
   useEffect(() => { plot.current?.redraw(false, false); }, [marker]);
   return (

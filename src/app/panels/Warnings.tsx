@@ -7,9 +7,11 @@ export function Warnings() {
   const sites = useStore((s) => s.siteResults);
   const sweep = useStore((s) => s.sweep);
   const errors = useStore((s) => s.errors);
-  const warnings = [...new Set([...(scene?.warnings ?? []), ...(oval?.warnings ?? []), ...(sites?.warnings ?? []), ...(sweep?.warnings ?? [])])];
+  const warnings = [...new Set([...(scene?.warnings ?? []), ...(oval?.warnings ?? []), ...(sites?.warnings ?? [])])];
+  // The sweep visits extreme values on purpose: summarise its warnings in one line.
+  const sweepNote = sweep && sweep.warnings.length > 0 ? `Sweep: ${sweep.warnings.length} step${sweep.warnings.length === 1 ? '' : 's'} outside a model's fitted range (values extrapolated).` : null;
   const errs = Object.entries(errors).filter(([, v]) => v);
-  if (warnings.length === 0 && errs.length === 0) return null;
+  if (warnings.length === 0 && errs.length === 0 && !sweepNote) return null;
   return (
     <div className="warnings" role="status" aria-live="polite" aria-label="Engine warnings">
       {errs.map(([k, v]) => (
@@ -18,6 +20,7 @@ export function Warnings() {
       {warnings.map((w) => (
         <p key={w}>⚠ {w}</p>
       ))}
+      {sweepNote && <p className="minor">{sweepNote}</p>}
     </div>
   );
 }

@@ -31,7 +31,7 @@ function presetPosition(p: ViewPreset): THREE.Vector3 {
     case 'nightside': return sun.clone().multiplyScalar(-5).addScaledVector(z, 1.2);
     case 'north': return z.clone().multiplyScalar(4.5).addScaledVector(sun, -0.05);
     case 'south': return z.clone().multiplyScalar(-4.5).addScaledVector(sun, -0.05);
-    default: return sun.clone().multiplyScalar(-14).addScaledVector(dusk, 22).addScaledVector(z, 9);
+    default: return sun.clone().multiplyScalar(-6).addScaledVector(dusk, 12).addScaledVector(z, 5);
   }
 }
 

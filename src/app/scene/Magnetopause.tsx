@@ -29,7 +29,7 @@ export function Magnetopause() {
         <meshBasicMaterial color="#6fa8ff" transparent opacity={0.07} side={THREE.DoubleSide} depthWrite={false} />
       </mesh>
       <mesh geometry={geom} renderOrder={3}>
-        <meshBasicMaterial color="#6fa8ff" wireframe transparent opacity={0.08} depthWrite={false} />
+        <meshBasicMaterial color="#6fa8ff" wireframe transparent opacity={0.035} depthWrite={false} />
       </mesh>
     </group>
   );

@@ -7,4 +7,4 @@ export type { MainFieldCoefficients } from './coefficients';
 export { centredDipole } from './centred-dipole';
 export type { CentredDipole } from './centred-dipole';
 export { prepareMainField } from './synthesis';
-export type { MainFieldModel } from './synthesis';
+export type { MainFieldModel, MainFieldOptions } from './synthesis';

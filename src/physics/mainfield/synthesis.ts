@@ -24,6 +24,8 @@ export interface MainFieldModel {
   readonly epochYear: number;
   /** B (nT) as GEO Cartesian components at the GEO Cartesian point (x, y, z) in RE (geocentric). Writes out[0..2]. */
   evaluateGeo(out: Float64Array, x: number, y: number, z: number): void;
+  /** Highest degree actually summed at radius rRe (nmax unless truncationRelTol drops the tail). */
+  effectiveDegree(rRe: number): number;
   /** As evaluateGeo but adds B into out[0..2]. */
   addGeo(out: Float64Array, x: number, y: number, z: number): void;
   /** (Br, Bθ, Bφ) in nT at geocentric radius rRe (RE), colatitude θ and east longitude φ (rad). Writes out[0..2]. */
@@ -45,8 +47,9 @@ class SphericalHarmonicField implements MainFieldModel {
   private readonly diag: Float64Array; // √((2m−1)/(2m)) for m ≥ 2
   private readonly pw: Float64Array; // (a/r)^(n+2) work array
   private readonly sph: Float64Array; // (Br, Bθ, Bφ) work array for addGeo
+  private readonly rCut: Float64Array; // rCut[n]: beyond this radius (RE) degrees ≥ n are negligible
 
-  constructor(c: MainFieldCoefficients) {
+  constructor(c: MainFieldCoefficients, truncationRelTol: number) {
     const N = c.nmax;
     this.nmax = N;
     this.source = c.source;
@@ -78,11 +81,17 @@ class SphericalHarmonicField implements MainFieldModel {
         this.bk[k] = n > m ? Math.sqrt((n - 1) * (n - 1) - m * m) / d : 0;
       }
     }
+    this.rCut = truncationRadii(c, truncationRelTol);
   }
 
   /** Writes (Br, Bθ, Bφ) for 1/r (in 1/RE), cos θ, sin θ, cos φ, sin φ. */
   private core(out: Float64Array, invR: number, t: number, s: number, cp: number, sp: number): void {
-    const N = this.nmax;
+    const nFull = this.nmax;
+    // Degrees whose bounded contribution is below truncationRelTol × the dipole field are dropped (r ≥ rCut[n]).
+    let N = nFull;
+    const rCut = this.rCut;
+    while (N > 1 && invR * rCut[N] <= 1) N--;
+    const skip = nFull - N;
     const gk = this.gk, hk = this.hk, ak = this.ak, bk = this.bk, pw = this.pw;
     let q = invR * invR;
     for (let n = 1; n <= N; n++) {
@@ -103,6 +112,7 @@ class SphericalHarmonicField implements MainFieldModel {
       p2 = p1; p1 = p;
       d2 = d1; d1 = d;
     }
+    k += skip;
     // m ≥ 1: R_n^m = P_n^m / sin θ; dP_n^m/dθ = n cos θ R_n^m − √(n²−m²) R_{n−1}^m
     // (from (1−x²) dP/dx = −n x P_n + (n+m) P_{n−1}, Schmidt-normalised; division-free).
     // Per order, sums over n of g·(…) and h·(…) are combined with cos mφ, sin mφ once.
@@ -139,10 +149,17 @@ class SphericalHarmonicField implements MainFieldModel {
       brS += cm * gR1 + sm * hR1;
       bt -= cm * gD + sm * hD;
       bp += m * (sm * gR - cm * hR);
+      k += skip;
     }
     out[0] = br + s * brS;
     out[1] = bt;
     out[2] = bp;
+  }
+
+  effectiveDegree(rRe: number): number {
+    let N = this.nmax;
+    while (N > 1 && rRe >= this.rCut[N]) N--;
+    return N;
   }
 
   evaluateSpherical(out: Float64Array, rRe: number, thetaRad: number, phiRad: number): void {
@@ -179,10 +196,58 @@ class SphericalHarmonicField implements MainFieldModel {
 }
 
 /**
+ * rCut[n] (RE) such that for r ≥ rCut[n] the degrees n..N together contribute at most
+ * relTol × B0/r³ (B0/r³ bounds the dipole field from below). Bound per degree:
+ * |B_n| ≤ √2 (n+1) Σm √(g²+h²) r^−(n+2), from the Schmidt bounds |P_n^m| ≤ 1 and
+ * |dP_n^m/dθ|, |m P_n^m / sin θ| ≤ √(n(n+1)/2) ≤ (n+1)/√2 (derived for m = 0 from
+ * dP_n^0/dθ = −√(n(n+1)/2) P_n^1; for m ≥ 1 checked by brute force over θ for n ≤ 13).
+ * relTol = 0 gives rCut = ∞ (no truncation).
+ */
+function truncationRadii(c: MainFieldCoefficients, relTol: number): Float64Array {
+  const N = c.nmax;
+  const rCut = new Float64Array(N + 2).fill(Number.POSITIVE_INFINITY);
+  if (!(relTol > 0) || N < 2) return rCut;
+  const b0 = Math.hypot(c.g[1], c.g[2], c.h[2]);
+  const K = new Float64Array(N + 1);
+  for (let n = 2; n <= N; n++) {
+    let sum = 0;
+    for (let m = 0; m <= n; m++) sum += Math.hypot(c.g[coefIndex(n, m)], c.h[coefIndex(n, m)]);
+    K[n] = Math.SQRT2 * (n + 1) * sum;
+  }
+  const excess = (n: number, r: number): number => {
+    let e = 0;
+    for (let j = n; j <= N; j++) e += K[j] * Math.pow(r, -(j - 1));
+    return e - relTol * b0;
+  };
+  for (let n = 2; n <= N; n++) {
+    if (excess(n, 1) <= 0) { rCut[n] = 1; continue; }
+    let lo = 1, hi = 2;
+    while (excess(n, hi) > 0 && hi < 1e6) hi *= 2;
+    for (let i = 0; i < 60; i++) {
+      const mid = 0.5 * (lo + hi);
+      if (excess(n, mid) > 0) lo = mid; else hi = mid;
+    }
+    rCut[n] = hi;
+  }
+  // Keep rCut non-increasing in n so dropping degree n implies dropping all above it.
+  for (let n = N - 1; n >= 2; n--) rCut[n] = Math.max(rCut[n], rCut[n + 1]);
+  return rCut;
+}
+
+export interface MainFieldOptions {
+  /**
+   * Drop degrees whose bounded contribution is below this fraction of the dipole field at the
+   * evaluation radius (0 = exact synthesis to nmax, the default). E.g. 1e-7 (field direction good
+   * to ~1e-7 rad) sums about degree 10 at 4 RE and 7 at 10 RE instead of 13.
+   */
+  truncationRelTol?: number;
+}
+
+/**
  * Prepare a synthesis model once from a coefficient set (any source: IGRF, WMM…).
  * Validates degree, array lengths and finiteness; evaluate calls do not validate.
  */
-export function prepareMainField(c: MainFieldCoefficients): MainFieldModel {
+export function prepareMainField(c: MainFieldCoefficients, options: MainFieldOptions = {}): MainFieldModel {
   const N = c.nmax;
   if (!Number.isInteger(N) || N < 1 || N > 200) {
     throw new InputError('nmax', `expected an integer degree 1..200, got ${String(N)}`);
@@ -196,5 +261,9 @@ export function prepareMainField(c: MainFieldCoefficients): MainFieldModel {
       throw new InputError('coefficients', `entry ${k} is not a finite number (g ${c.g[k]}, h ${c.h[k]})`);
     }
   }
-  return new SphericalHarmonicField(c);
+  const tol = options.truncationRelTol ?? 0;
+  if (!Number.isFinite(tol) || tol < 0 || tol > 1e-3) {
+    throw new InputError('truncationRelTol', `expected a number in 0..0.001, got ${String(tol)}`);
+  }
+  return new SphericalHarmonicField(c, tol);
 }

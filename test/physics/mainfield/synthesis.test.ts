@@ -166,3 +166,28 @@ describe('spherical-harmonic main field', () => {
   });
 });
 
+
+describe('optional degree truncation far from Earth', () => {
+  it('stays within truncationRelTol × B0/r³ of the exact sum and drops degrees with distance (derived bound)', () => {
+    const c = igrfCoefficients(2025.0);
+    const fast = prepareMainField(c, { truncationRelTol: 1e-7 });
+    const b0 = centredDipole(c).b0Nt;
+    const far = shellPoints(300, 1, 30, 999);
+    const a = new Float64Array(3), e = new Float64Array(3);
+    let worst = 0;
+    for (let i = 0; i < far.length; i += 3) {
+      const x = far[i], y = far[i + 1], z = far[i + 2];
+      const r = Math.hypot(x, y, z);
+      fast.evaluateGeo(a, x, y, z);
+      igrf2025.evaluateGeo(e, x, y, z);
+      worst = Math.max(worst, Math.hypot(a[0] - e[0], a[1] - e[1], a[2] - e[2]) / (b0 / (r * r * r)));
+    }
+    // The promised bound; measured 1.35e-8 (the per-degree bound is generous).
+    expectAtMost(worst, 1e-7, 'truncated vs exact, |ΔB| / (B0/r³)');
+    expect(fast.effectiveDegree(1)).toBe(13);
+    expect(igrf2025.effectiveDegree(50)).toBe(13);
+    const d4 = fast.effectiveDegree(4), d10 = fast.effectiveDegree(10);
+    expect(d4 < 13 && d10 < d4 && d10 >= 1, `degrees at 4 and 10 RE: ${d4}, ${d10}`).toBe(true);
+    expect(() => prepareMainField(c, { truncationRelTol: -1 })).toThrow('truncationRelTol: expected a number in 0..0.001, got -1');
+  });
+});

@@ -14,6 +14,7 @@ import { fieldCommand } from './commands/field';
 import { traceCommand } from './commands/trace';
 import { ovalCommand } from './commands/oval';
 import { sweepCommand } from './commands/sweep';
+import { runBatch, BATCH_SUMMARY } from './batch/index';
 
 export interface CliIo {
   stdout(text: string): void;
@@ -40,6 +41,7 @@ export function topHelp(): string {
     '',
     'Commands:',
     ...COMMANDS.map((c) => `  ${c.name.padEnd(width)}${c.summary}`),
+    `  ${'batch'.padEnd(width)}${BATCH_SUMMARY}`,
     '',
     'Options common to every command:',
     flagHelp(commonFlags(['json', 'csv', 'geojson'])),
@@ -100,6 +102,7 @@ export async function run(argv: readonly string[], io: CliIo): Promise<number> {
     io.stdout(`${programVersion()}\n`);
     return EXIT_OK;
   }
+  if (name === 'batch') return runBatch(rest, io); // streams its own output (src/cli/batch)
   const cmd = COMMANDS.find((c) => c.name === name);
   if (!cmd) {
     const what = name.startsWith('-') ? `expected a command before options, got "${name}"` : `unknown command "${name}"`;

@@ -1,0 +1,233 @@
+/**
+ * One unit of batch work: a condition × every site. The model is prepared once
+ * for the condition and its two tracers (conjugate altitude, footpoint
+ * altitude) serve all sites. Rows come back already formatted, so the worker
+ * threads share the formatting work. Runs the same in a worker or in-process.
+ */
+import { prepareModel, type PreparedModel } from '../../physics/model';
+import { makeTracer, siteGsm } from '../../physics/mapping';
+import { siteReport, type SiteInput, type SiteResult } from '../../physics/site-report';
+import { applyMat3 } from '../../physics/frames';
+import { RAD } from '../../physics/constants';
+import type { Footpoint } from '../../physics/footpoint';
+import type { InternalFieldKind } from '../../physics/conditions';
+import { csvField, type CsvCell } from '../../io/csv';
+import { writeJson } from '../../io/json';
+import type { RowOutcome, SeriesCondition } from './inputs';
+
+export type BatchFormat = 'csv' | 'json' | 'geojson';
+
+/** Everything a row needs besides its condition and site (the same for the whole run). */
+export interface BatchSettings {
+  tiltDeg: number | null;
+  internal: InternalFieldKind;
+  magnetopause: boolean;
+  imfEfficiency: number;
+  altKm: number;
+  conjugateAltKm: number;
+  sourceRe: number;
+  minElevationDeg: number;
+  format: BatchFormat;
+  /** Decimals of numbers in CSV cells (JSON and GeoJSON are lossless). */
+  csvDecimals: number;
+}
+
+export interface ConditionJob {
+  seq: number;
+  /** Line in the conditions file, or null for the condition given by the flags. */
+  line: number | null;
+  cond: RowOutcome<SeriesCondition>;
+}
+
+export interface JobResult {
+  seq: number;
+  /** Formatted rows (CSV records / JSON lines / GeoJSON features joined by ",\n"); '' when none. */
+  text: string;
+  rows: number;
+  ok: number;
+  skipped: number;
+  failed: number;
+  /** Problem texts of the job's skipped and failed rows, first few only. */
+  problems: string[];
+}
+
+/** Output columns, units in the names. The JSON and GeoJSON records use the same keys. */
+export const BATCH_COLUMNS = [
+  'conditions_line', 'sites_line', 'site', 'site_lat_deg', 'site_lon_deg', 'site_height_km',
+  'time', 'pdyn_npa', 'bz_nt', 'by_nt', 'tilt_deg',
+  'line_type',
+  'conj_geo_lat_deg', 'conj_geo_lon_deg', 'conj_mag_lat_deg', 'conj_mag_lon_deg', 'conj_mlt_h',
+  'foot_geo_lat_deg', 'foot_geo_lon_deg', 'far_foot_geo_lat_deg', 'far_foot_geo_lon_deg',
+  'equator_r_re', 'l_shell', 'mlt_h', 'mag_lat_deg',
+  'open_closed_mag_lat_deg', 'equatorward_mag_lat_deg', 'oval_relation', 'inside_oval',
+  'sky_elevation_deg', 'sky_azimuth_deg', 'sky_distance_km', 'sky_visible',
+  'warnings', 'error', 'skipped',
+] as const;
+
+type Row = CsvCell[];
+
+const MAX_PROBLEMS = 20;
+
+function emptyRow(): Row {
+  return new Array<CsvCell>(BATCH_COLUMNS.length).fill(null);
+}
+
+const C = Object.fromEntries(BATCH_COLUMNS.map((c, i) => [c, i])) as Record<(typeof BATCH_COLUMNS)[number], number>;
+
+function fillSite(r: Row, site: RowOutcome<SiteInput>): void {
+  r[C.sites_line] = site.line;
+  if (site.kind === 'ok') {
+    r[C.site] = site.value.name;
+    r[C.site_lat_deg] = site.value.latDeg;
+    r[C.site_lon_deg] = site.value.lonDeg;
+    r[C.site_height_km] = site.value.heightKm ?? 0;
+  }
+}
+
+function fillCondition(r: Row, line: number | null, c: SeriesCondition | null, m: PreparedModel | null, rawTime: string | undefined): void {
+  r[C.conditions_line] = line;
+  if (rawTime !== undefined) r[C.time] = rawTime;
+  if (c) {
+    r[C.time] = c.time;
+    r[C.pdyn_npa] = c.pdynNpa;
+    r[C.bz_nt] = c.bzNt;
+    r[C.by_nt] = c.byNt;
+  }
+  if (m) {
+    r[C.time] = new Date(m.ms).toISOString();
+    r[C.tilt_deg] = m.frames.tiltRad * RAD;
+  }
+}
+
+const v3 = new Float64Array(3);
+
+/** The footpoint at the footpoint altitude on the site's side (by the SM z of the site, as traceSite decides) and the far one. */
+function splitFootpoints(m: PreparedModel, site: SiteInput, feet: Footpoint[]): { near: Footpoint | null; far: Footpoint | null } {
+  siteGsm(v3, m, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo');
+  applyMat3(v3, m.frames.smFromGsm, v3[0], v3[1], v3[2]);
+  const north = v3[2] >= 0;
+  let near: Footpoint | null = null;
+  let far: Footpoint | null = null;
+  for (const f of feet) {
+    if ((f.hemisphere === 'north') === north) near = f;
+    else far = f;
+  }
+  return { near, far };
+}
+
+function fillResult(r: Row, m: PreparedModel, site: SiteInput, s: SiteResult): void {
+  r[C.line_type] = s.type;
+  if (s.conjugate) {
+    r[C.conj_geo_lat_deg] = s.conjugate.geoLatDeg;
+    r[C.conj_geo_lon_deg] = s.conjugate.geoLonDeg;
+    r[C.conj_mag_lat_deg] = s.conjugate.magLatDeg;
+    r[C.conj_mag_lon_deg] = s.conjugate.magLonDeg;
+    r[C.conj_mlt_h] = s.conjugate.mltHours;
+  }
+  const { near, far } = splitFootpoints(m, site, s.footpoints);
+  if (near) { r[C.foot_geo_lat_deg] = near.geoLatDeg; r[C.foot_geo_lon_deg] = near.geoLonDeg; }
+  if (far) { r[C.far_foot_geo_lat_deg] = far.geoLatDeg; r[C.far_foot_geo_lon_deg] = far.geoLonDeg; }
+  r[C.equator_r_re] = s.equatorRe;
+  r[C.l_shell] = s.lShell;
+  r[C.mlt_h] = Number.isFinite(s.mltHours) ? s.mltHours : null;
+  r[C.mag_lat_deg] = Number.isFinite(s.magLatDeg) ? s.magLatDeg : null;
+  if (s.boundaries) {
+    r[C.open_closed_mag_lat_deg] = s.boundaries.openClosedMagLatDeg;
+    r[C.equatorward_mag_lat_deg] = s.boundaries.equatorwardMagLatDeg;
+  }
+  r[C.oval_relation] = s.ovalRelation;
+  r[C.inside_oval] = s.ovalRelation === 'unknown' ? null : s.ovalRelation === 'inside';
+  if (s.sky) {
+    r[C.sky_elevation_deg] = s.sky.elevationDeg;
+    r[C.sky_azimuth_deg] = s.sky.azimuthDeg;
+    r[C.sky_distance_km] = s.sky.distanceKm;
+    r[C.sky_visible] = s.sky.visible;
+  }
+}
+
+/** Formats rows; for GeoJSON each row is a Point at the conjugate point (null geometry without one). */
+export class RowFormatter {
+  private readonly parts: string[] = [];
+  constructor(private readonly settings: BatchSettings) {}
+
+  add(r: Row): void {
+    const f = this.settings.format;
+    if (f === 'csv') {
+      let s = '';
+      for (let i = 0; i < r.length; i++) s += (i ? ',' : '') + csvField(r[i], this.settings.csvDecimals);
+      this.parts.push(s + '\r\n');
+      return;
+    }
+    const o: Record<string, CsvCell> = {};
+    BATCH_COLUMNS.forEach((c, i) => { o[c] = r[i] === undefined ? null : r[i]; });
+    if (f === 'json') { this.parts.push(writeJson(o, 0)); return; }
+    const lat = r[C.conj_geo_lat_deg], lon = r[C.conj_geo_lon_deg];
+    const geometry = typeof lat === 'number' && typeof lon === 'number'
+      ? { type: 'Point', coordinates: [lon, lat, this.settings.conjugateAltKm * 1000] } : null;
+    this.parts.push(writeJson({ type: 'Feature', geometry, properties: o }, 0).trimEnd());
+  }
+
+  take(): string {
+    const s = this.settings.format === 'geojson' ? this.parts.join(',\n') : this.parts.join('');
+    this.parts.length = 0;
+    return s;
+  }
+}
+
+const message = (e: unknown): string => (e instanceof Error ? e.message : String(e));
+
+/** All rows of one condition, in site order. Never throws: problems become rows. */
+export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInput>[], st: BatchSettings): JobResult {
+  const out = new RowFormatter(st);
+  const res: JobResult = { seq: job.seq, text: '', rows: 0, ok: 0, skipped: 0, failed: 0, problems: [] };
+  const note = (p: string) => { if (res.problems.length < MAX_PROBLEMS) res.problems.push(p); };
+  const where = job.line === null ? 'conditions from the flags' : `conditions line ${job.line}`;
+  let model: PreparedModel | null = null;
+  let condProblem: { error?: string; skipped?: string } | null = null;
+  const cond = job.cond.kind === 'ok' ? job.cond.value : null;
+  if (job.cond.kind === 'error') condProblem = { error: job.cond.error };
+  else if (job.cond.kind === 'skipped') condProblem = { skipped: job.cond.reason };
+  else {
+    try {
+      model = prepareModel({
+        time: cond!.time, pdynNpa: cond!.pdynNpa, bzNt: cond!.bzNt, byNt: cond!.byNt,
+        tiltDeg: st.tiltDeg, internal: st.internal, magnetopause: st.magnetopause, imfEfficiency: st.imfEfficiency,
+      });
+    } catch (e) {
+      condProblem = { error: `${where}: ${message(e)}` };
+    }
+  }
+  const tConj = model ? makeTracer(model, { altKm: st.conjugateAltKm, ellipsoid: true }) : null;
+  const tAlt = model ? (st.altKm === st.conjugateAltKm ? tConj : makeTracer(model, { altKm: st.altKm, ellipsoid: true })) : null;
+  const warnings = model && model.warnings.length ? model.warnings.join('; ') : null;
+  if (condProblem) note(condProblem.error ?? condProblem.skipped!);
+  for (const site of sites) {
+    const r = emptyRow();
+    fillSite(r, site);
+    fillCondition(r, job.line, cond, model, job.cond.kind === 'ok' ? undefined : job.cond.time);
+    res.rows++;
+    if (condProblem) {
+      if (condProblem.error) { r[C.error] = condProblem.error; res.failed++; }
+      else { r[C.skipped] = condProblem.skipped; res.skipped++; }
+    } else if (site.kind === 'error') {
+      r[C.error] = site.error; res.failed++;
+      if (job.seq === 0) note(site.error);
+    } else if (site.kind === 'skipped') {
+      r[C.skipped] = site.reason; res.skipped++;
+      if (job.seq === 0) note(site.reason);
+    } else {
+      r[C.warnings] = warnings;
+      const s = siteReport(model!, tConj!, tAlt!, site.value, { conjugateAltKm: st.conjugateAltKm, altKm: st.altKm, sourceRe: st.sourceRe, minElevationDeg: st.minElevationDeg });
+      if (s.error) {
+        const err = `sites line ${site.line} (${site.value.name}), ${where}: ${s.error}`;
+        r[C.error] = err; res.failed++; note(err);
+      } else {
+        fillResult(r, model!, site.value, s);
+        res.ok++;
+      }
+    }
+    out.add(r);
+  }
+  res.text = out.take();
+  return res;
+}

@@ -1,0 +1,286 @@
+/**
+ * `batch`: every site × every condition of a solar-wind series, as a table,
+ * on all cores. Inputs are streamed, jobs (one condition × all sites) run on a
+ * worker_threads pool with a bounded in-flight window, and rows are written in
+ * input order with backpressure, so memory stays flat however long the series.
+ * Exit codes: 0 all rows computed (skips allowed), 3 some rows failed,
+ * 2 bad arguments or a wrong header, 1 the run itself failed.
+ */
+import os from 'node:os';
+import { basename } from 'node:path';
+import { UsageError, parseFlags, flagHelp, type FlagSpec, type ParsedFlags } from '../args';
+import { commonFlags, conditionsFromFlags, programVersion, DEFAULT_ALT_KM } from '../common';
+import { CSV_DECIMALS } from '../command';
+import { DEFAULT_SOURCE_RE } from '../../physics/mapping';
+import { PDYN_NOMINAL_COEFF } from '../../physics/magnetopause';
+import type { SiteInput } from '../../physics/site-report';
+import type { InternalFieldKind } from '../../physics/conditions';
+import { decimalYear, parseUtc } from '../../physics/time';
+import { sitesHeader, conditionsHeader, parseSite, parseCondition, checkTime, SITES_EXPECTED, CONDITIONS_EXPECTED, type RowOutcome } from './inputs';
+import { BATCH_COLUMNS, type BatchFormat, type BatchSettings, type ConditionJob, type JobResult } from './compute';
+import { inProcessRunner, threadRunner, runOrdered, type JobRunner } from './pool';
+import { fileSink, stdoutSink, outputPrefix, outputSuffix, chunkSeparator, type Sink } from './output';
+import { csvRecords, requireFile, countLines } from './read';
+import { Progress } from './progress';
+
+export interface BatchIo {
+  stdout(text: string): void;
+  stderr(text: string): void;
+  now?(): Date;
+}
+
+export const EXIT_OK = 0;
+export const EXIT_FAILURE = 1;
+export const EXIT_USAGE = 2;
+export const EXIT_ROWS_FAILED = 3;
+
+const NAME = 'fieldline-atlas batch';
+const FORMATS: BatchFormat[] = ['csv', 'json', 'geojson'];
+
+export const BATCH_FLAGS: FlagSpec[] = [
+  { name: 'sites', kind: 'string', meta: '<sites.csv>', help: `site table; columns ${SITES_EXPECTED}`, required: true },
+  { name: 'conditions', kind: 'string', meta: '<series.csv>', help: `solar-wind series; columns ${CONDITIONS_EXPECTED}`, defaultText: 'one condition from --time --pdyn --bz --by' },
+  { name: 'out', kind: 'string', meta: '<file>', help: 'write the table here', defaultText: 'stdout' },
+  { name: 'workers', kind: 'integer', meta: '<N>', min: 1, max: 256, help: 'threads computing rows (1 = this thread)', defaultText: 'the number of cores' },
+  { name: 'shard', kind: 'string', meta: '<k/n>', help: 'take conditions k, k+n, k+2n, … (1-based) for array jobs; shard outputs concatenate' },
+  { name: 'progress', kind: 'switch', help: 'rows/s and ETA on stderr (on by default when stderr is a terminal)' },
+  { name: 'conjugate-alt-km', kind: 'number', meta: '<km>', unit: 'km', min: 0, max: 5000, help: 'altitude of the conjugate point', defaultText: '0 (ground)' },
+  { name: 'source-re', kind: 'number', meta: '<RE>', unit: 'RE', min: 1.5, max: 100, help: 'equatorial source distance of the equatorward edge', defaultText: String(DEFAULT_SOURCE_RE) },
+  { name: 'min-elevation-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'lowest elevation at which the oval counts as visible', defaultText: '10' },
+];
+
+function batchCommonFlags(): FlagSpec[] {
+  return commonFlags(FORMATS).map((s) => (s.name === 'format' ? { ...s, defaultText: 'csv' } : s));
+}
+
+export const BATCH_SUMMARY = 'many sites × a solar-wind series: conjugates, footpoints, boundaries, visibility, on all cores';
+
+export function batchHelp(): string {
+  return [
+    'Usage: npm run --silent cli -- batch --sites <sites.csv> [--conditions <series.csv>] [--out <file>]',
+    '         [--format csv|json|geojson] [--workers <N>] [--shard <k/n>] [--progress] [common options]',
+    '',
+    `batch: ${BATCH_SUMMARY}.`,
+    '',
+    'Options:',
+    flagHelp(BATCH_FLAGS),
+    '',
+    'Common options (--time --pdyn --bz --by only without --conditions):',
+    flagHelp(batchCommonFlags()),
+    '',
+    'One row per site × condition, in input order (conditions outer, sites inner).',
+    'Sites are geodetic (WGS84): lat_deg, lon_deg east, height_km above the ellipsoid (default 0).',
+    'Series: time (ISO 8601 UTC); pdyn_npa, or density_cm3 and speed_kms giving',
+    `${PDYN_NOMINAL_COEFF}·n·v² nPa (alpha content unknown); bz_nt; optional by_nt (default 0).`,
+    'When pdyn_npa is empty or a fill value and density/speed are present, those are used.',
+    '',
+    `Columns: ${BATCH_COLUMNS.join(', ')}.`,
+    'conj_*: the far footpoint at --conjugate-alt-km; foot_* / far_foot_*: the footpoints at',
+    "--alt-km on the site's side and the other; mlt_h, mag_lat_deg: of the site-side footpoint;",
+    "boundaries (magnetic latitude) at that MLT in the site's hemisphere, as `oval` computes them.",
+    '',
+    'Bad rows do not stop the run: a malformed row (missing value, non-numeric, latitude',
+    'outside ±90, unparsable time, time outside IGRF-14 1900–2030, pressure ≤ 0) gets the',
+    '`error` column naming the file line and the problem; empty cells and fill values',
+    '(all nines: 999.9, 9999.99, 99999.9, …) give `skipped` with the reason. A summary goes',
+    'to stderr. A wrong or missing header column is exit 2.',
+    '',
+    'Formats: csv (# metadata lines, header, CRLF; text cells starting with = + - @ get a',
+    "leading '), json (JSON Lines: a metadata line, then one object per row), geojson (one",
+    'FeatureCollection, a Point per row at the conjugate point).',
+    'Exit codes: 0 no row failed, 3 some rows failed, 2 bad arguments or header, 1 run failed.',
+    '',
+    'Examples:',
+    '  npm run --silent cli -- batch --sites examples/sites.csv --conditions examples/series.csv --out table.csv',
+    '  npm run --silent cli -- batch --sites examples/sites.csv --time 2025-03-20T22:00:00Z --pdyn 3 --bz -5 --format json',
+    '  npm run --silent cli -- batch --sites s.csv --conditions year.csv --shard 3/16 --out part-03.csv',
+    '',
+  ].join('\n');
+}
+
+function parseShard(text: string | undefined): { k: number; n: number } {
+  if (text === undefined) return { k: 1, n: 1 };
+  const m = /^(\d+)\/(\d+)$/.exec(text.trim());
+  const k = m ? Number(m[1]) : NaN, n = m ? Number(m[2]) : NaN;
+  if (!m || !(n >= 1) || !(k >= 1 && k <= n)) throw new UsageError('--shard', `expected k/n with 1 ≤ k ≤ n (e.g. 2/8), got "${text}"`);
+  return { k, n };
+}
+
+interface Plan {
+  flags: ParsedFlags;
+  settings: BatchSettings;
+  shard: { k: number; n: number };
+  workers: number;
+  sitesPath: string;
+  conditionsPath: string | null;
+  outPath: string | null;
+  progress: boolean;
+  flagCondition: { time: string; pdynNpa: number; bzNt: number; byNt: number } | null;
+}
+
+function plan(argv: readonly string[], io: BatchIo): Plan {
+  const flags = parseFlags(argv, [...BATCH_FLAGS, ...batchCommonFlags()], 'batch');
+  const conditionsPath = (flags.conditions as string | undefined) ?? null;
+  if (conditionsPath !== null) {
+    for (const f of ['time', 'pdyn', 'bz', 'by']) {
+      if (flags[f] !== undefined) throw new UsageError(`--${f}`, 'is given by the --conditions file; use it only without --conditions');
+    }
+  }
+  const c = conditionsFromFlags(flags, io.now ? io.now() : new Date());
+  const settings: BatchSettings = {
+    tiltDeg: c.tiltDeg ?? null,
+    internal: c.internal as InternalFieldKind,
+    magnetopause: c.magnetopause,
+    imfEfficiency: c.imfEfficiency,
+    altKm: (flags['alt-km'] as number | undefined) ?? DEFAULT_ALT_KM,
+    conjugateAltKm: (flags['conjugate-alt-km'] as number | undefined) ?? 0,
+    sourceRe: (flags['source-re'] as number | undefined) ?? DEFAULT_SOURCE_RE,
+    minElevationDeg: (flags['min-elevation-deg'] as number | undefined) ?? 10,
+    format: ((flags.format as string | undefined) ?? 'csv') as BatchFormat,
+    csvDecimals: CSV_DECIMALS,
+  };
+  let flagCondition: Plan['flagCondition'] = null;
+  if (conditionsPath === null) {
+    try { checkTime(c.time); } catch (e) { throw new UsageError('--time', (e as Error).message.replace(/^time: /, '')); }
+    flagCondition = { time: c.time, pdynNpa: c.pdynNpa, bzNt: c.bzNt, byNt: c.byNt };
+  }
+  return {
+    flags, settings, flagCondition, conditionsPath,
+    shard: parseShard(flags.shard as string | undefined),
+    workers: (flags.workers as number | undefined) ?? Math.max(1, os.availableParallelism()),
+    sitesPath: flags.sites as string,
+    outPath: (flags.out as string | undefined) ?? null,
+    progress: flags.progress === true || process.stderr.isTTY === true,
+  };
+}
+
+async function readSites(path: string): Promise<RowOutcome<SiteInput>[]> {
+  const out: RowOutcome<SiteInput>[] = [];
+  let idx: ReturnType<typeof sitesHeader> | null = null;
+  for await (const rec of csvRecords(path, '--sites')) {
+    if (idx === null) { idx = sitesHeader(rec.fields); continue; }
+    out.push(parseSite(rec.fields, rec.line, idx));
+  }
+  if (idx === null) throw new UsageError('--sites', `${path} is empty; expected a header with columns ${SITES_EXPECTED}`);
+  return out;
+}
+
+/** The jobs of this shard, read as they are needed. The header is checked before the first job is asked for. */
+async function conditionJobs(p: Plan): Promise<AsyncIterable<ConditionJob>> {
+  if (p.conditionsPath === null) {
+    const cond = p.flagCondition!;
+    return (async function* () {
+      yield { seq: 0, line: null, cond: { kind: 'ok', line: 0, value: { ...cond, pdynSource: 'flags' } } } as ConditionJob;
+    })();
+  }
+  const path = p.conditionsPath;
+  const records = csvRecords(path, '--conditions');
+  const first = await records.next();
+  if (first.done) throw new UsageError('--conditions', `${path} is empty; expected a header with columns ${CONDITIONS_EXPECTED}`);
+  const idx = conditionsHeader(first.value.fields);
+  const { k, n } = p.shard;
+  return (async function* () {
+    let i = 0;
+    let seq = 0;
+    for await (const rec of records) {
+      if (i++ % n !== k - 1) continue;
+      yield { seq: seq++, line: rec.line, cond: parseCondition(rec.fields, rec.line, idx) };
+    }
+  })();
+}
+
+function metadata(p: Plan, sites: number): Record<string, unknown> {
+  const s = p.settings;
+  const fc = p.flagCondition;
+  return {
+    program: 'fieldline-atlas batch',
+    version: programVersion(),
+    sites: basename(p.sitesPath),
+    siteCount: sites,
+    conditions: p.conditionsPath === null ? 'flags' : basename(p.conditionsPath),
+    ...(fc ? { time: fc.time, pdynNpa: fc.pdynNpa, bzNt: fc.bzNt, byNt: fc.byNt } : {}),
+    shard: `${p.shard.k}/${p.shard.n}`,
+    coefficients: 'IGRF-14',
+    coefficientEpoch: fc ? decimalYear(parseUtc(fc.time)) : 'the decimal year of each row\'s time',
+    internal: s.internal,
+    magnetopause: s.magnetopause,
+    imfEfficiency: s.imfEfficiency,
+    tiltDeg: s.tiltDeg ?? 'from each row\'s time',
+    altKm: s.altKm,
+    conjugateAltKm: s.conjugateAltKm,
+    sourceRe: s.sourceRe,
+    minElevationDeg: s.minElevationDeg,
+    pdynFromDensitySpeed: `${PDYN_NOMINAL_COEFF.toExponential()} * density_cm3 * speed_kms^2 nPa`,
+    order: 'conditions in file order, sites in file order within each condition',
+  };
+}
+
+interface Totals { rows: number; ok: number; skipped: number; failed: number; problems: string[] }
+
+function summary(t: Totals, seconds: number, sites: number, conditions: number): string {
+  const rate = seconds > 0 ? t.rows / seconds : 0;
+  const lines = [
+    `${NAME}: ${t.rows} rows (${sites} sites × ${conditions} conditions) in ${seconds.toFixed(2)} s, ${Math.round(rate)} rows/s: ` +
+      `${t.ok} computed, ${t.skipped} skipped, ${t.failed} failed`,
+  ];
+  if (t.problems.length) {
+    lines.push(...t.problems.map((m) => `  ${m}`));
+    const listed = t.problems.length;
+    if (t.skipped + t.failed > listed) lines.push(`  … see the error and skipped columns for all ${t.skipped + t.failed}`);
+  }
+  return lines.join('\n') + '\n';
+}
+
+/** The batch command as a function: argv after `batch`; returns the exit code and never throws. */
+export async function runBatch(argv: readonly string[], io: BatchIo): Promise<number> {
+  if (argv.includes('--help') || argv.includes('-h')) { io.stdout(batchHelp()); return EXIT_OK; }
+  let runner: JobRunner | null = null;
+  let sink: Sink | null = null;
+  try {
+    const p = plan(argv, io);
+    await requireFile(p.sitesPath, '--sites');
+    if (p.conditionsPath !== null) await requireFile(p.conditionsPath, '--conditions');
+    const sites = await readSites(p.sitesPath);
+    const jobs = await conditionJobs(p);
+    const expected = p.progress && p.conditionsPath !== null ? Math.ceil(Math.max(0, (await countLines(p.conditionsPath)) - 1) / p.shard.n) : 1;
+    sink = p.outPath === null ? stdoutSink((t) => io.stdout(t)) : await fileSink(p.outPath).catch((e: NodeJS.ErrnoException) => {
+      throw new UsageError('--out', `cannot write ${p.outPath} (${e.code ?? e.message})`);
+    });
+    const format = p.settings.format;
+    const sinkRef = sink;
+    await sinkRef.write(outputPrefix(format, metadata(p, sites.length), p.shard.k === 1));
+    runner = p.workers <= 1 ? inProcessRunner(sites, p.settings) : threadRunner(p.workers, sites, p.settings);
+    const totals: Totals = { rows: 0, ok: 0, skipped: 0, failed: 0, problems: [] };
+    const progress = p.progress ? new Progress(io.stderr, expected * sites.length) : null;
+    const t0 = performance.now();
+    let conditions = 0;
+    let wroteRows = false;
+    const sep = chunkSeparator(format);
+    await runOrdered(jobs, runner, Math.max(4, 4 * p.workers), async (r: JobResult) => {
+      conditions++;
+      totals.rows += r.rows; totals.ok += r.ok; totals.skipped += r.skipped; totals.failed += r.failed;
+      for (const m of r.problems) if (totals.problems.length < 20) totals.problems.push(m);
+      if (r.text) {
+        await sinkRef.write(wroteRows ? sep + r.text : r.text);
+        wroteRows = true;
+      }
+      progress?.update(totals.rows);
+    });
+    await sinkRef.write(outputSuffix(format));
+    await sinkRef.end();
+    sink = null;
+    progress?.done();
+    io.stderr(summary(totals, (performance.now() - t0) / 1000, sites.length, conditions));
+    return totals.failed > 0 ? EXIT_ROWS_FAILED : EXIT_OK;
+  } catch (e) {
+    if (e instanceof UsageError) {
+      io.stderr(`${NAME}: ${e.message}\n(see: batch --help)\n`);
+      return EXIT_USAGE;
+    }
+    io.stderr(`${NAME}: failed: ${e instanceof Error ? e.message : String(e)}\n`);
+    return EXIT_FAILURE;
+  } finally {
+    if (runner) await runner.close();
+    if (sink) await sink.end().catch(() => {});
+  }
+}

@@ -2,13 +2,13 @@
  * Spherical-harmonic synthesis of an internal main field from Schmidt
  * semi-normalised coefficients (IGRF/WMM convention, reference radius a = RE):
  *   V = a Σn (a/r)^(n+1) Σm (g cos mφ + h sin mφ) P_n^m(cos θ),  B = −∇V
- * (Langel 1987, "The main field", in Geomagnetism vol. 1, eqs. 4.7–4.9;
- * Chulliat et al. 2020, WMM2020 technical report, eqs. 10–12).
+ * (Langel 1987, "The main field", in Geomagnetism vol. 1, ed. Jacobs, ch. 4;
+ * Chulliat et al. 2020, The US/UK World Magnetic Model for 2020–2025, technical report, §1.2).
  *
  * P_n^m by the fixed-order recurrence
  *   P_n^m = [(2n−1) cos θ P_{n−1}^m − √((n−1)²−m²) P_{n−2}^m] / √(n²−m²),
  *   P_m^m = √((2m−1)/(2m)) sin θ P_{m−1}^{m−1} (m ≥ 2), P_1^1 = sin θ
- * (Schmidt normalisation, Langel 1987 eq. 4.11; derived from the Ferrers recurrences).
+ * (Schmidt normalisation; derived from the standard Ferrers recurrences, Langel 1987 ch. 4).
  * For m ≥ 1 the recurrence runs on R_n^m = P_n^m / sin θ (same linear recurrence,
  * seed R_1^1 = 1), so Bφ = −(1/(r sin θ)) ∂V/∂φ needs no division and stays finite
  * at the poles. cos mφ, sin mφ by the angle-addition recurrence; in GEO Cartesian
@@ -17,6 +17,7 @@
 import { InputError } from '../errors';
 import type { MainFieldCoefficients } from './coefficients';
 import { coefCount, coefIndex } from './layout';
+import { truncationRadii } from './truncation';
 
 export interface MainFieldModel {
   readonly nmax: number;
@@ -193,45 +194,6 @@ class SphericalHarmonicField implements MainFieldModel {
     out[1] += w[1];
     out[2] += w[2];
   }
-}
-
-/**
- * rCut[n] (RE) such that for r ≥ rCut[n] the degrees n..N together contribute at most
- * relTol × B0/r³ (B0/r³ bounds the dipole field from below). Bound per degree:
- * |B_n| ≤ √2 (n+1) Σm √(g²+h²) r^−(n+2), from the Schmidt bounds |P_n^m| ≤ 1 and
- * |dP_n^m/dθ|, |m P_n^m / sin θ| ≤ √(n(n+1)/2) ≤ (n+1)/√2 (derived for m = 0 from
- * dP_n^0/dθ = −√(n(n+1)/2) P_n^1; for m ≥ 1 checked by brute force over θ for n ≤ 13).
- * relTol = 0 gives rCut = ∞ (no truncation).
- */
-function truncationRadii(c: MainFieldCoefficients, relTol: number): Float64Array {
-  const N = c.nmax;
-  const rCut = new Float64Array(N + 2).fill(Number.POSITIVE_INFINITY);
-  if (!(relTol > 0) || N < 2) return rCut;
-  const b0 = Math.hypot(c.g[1], c.g[2], c.h[2]);
-  const K = new Float64Array(N + 1);
-  for (let n = 2; n <= N; n++) {
-    let sum = 0;
-    for (let m = 0; m <= n; m++) sum += Math.hypot(c.g[coefIndex(n, m)], c.h[coefIndex(n, m)]);
-    K[n] = Math.SQRT2 * (n + 1) * sum;
-  }
-  const excess = (n: number, r: number): number => {
-    let e = 0;
-    for (let j = n; j <= N; j++) e += K[j] * Math.pow(r, -(j - 1));
-    return e - relTol * b0;
-  };
-  for (let n = 2; n <= N; n++) {
-    if (excess(n, 1) <= 0) { rCut[n] = 1; continue; }
-    let lo = 1, hi = 2;
-    while (excess(n, hi) > 0 && hi < 1e6) hi *= 2;
-    for (let i = 0; i < 60; i++) {
-      const mid = 0.5 * (lo + hi);
-      if (excess(n, mid) > 0) lo = mid; else hi = mid;
-    }
-    rCut[n] = hi;
-  }
-  // Keep rCut non-increasing in n so dropping degree n implies dropping all above it.
-  for (let n = N - 1; n >= 2; n--) rCut[n] = Math.max(rCut[n], rCut[n + 1]);
-  return rCut;
 }
 
 export interface MainFieldOptions {

@@ -10,7 +10,7 @@ import { DEG } from '../../../src/physics/constants';
 
 // Source: NOAA/BGS World Magnetic Model 2015, 2020, 2025 coefficients and NOAA's test values,
 // as shipped by the npm package `geomagnetism` (data/wmm-*.json, test/values.csv).
-// Procedure: WMM technical report (Chulliat et al. 2020, §1.2 eqs. 7–9, 17): geodetic → geocentric
+// Procedure: WMM2020 technical report (Chulliat et al. 2020, §1.2): geodetic → geocentric
 // point, synthesis in geocentric spherical frame, rotate (X', Z') by ψ = φ' − φ into geodetic X, Z.
 const pkgDir = dirname(createRequire(import.meta.url).resolve('geomagnetism/package.json'));
 

@@ -13,6 +13,8 @@ export interface Figure {
   unit: string;
   /** Target as stated in the project issue, if any. */
   target?: { op: '<=' | '>='; value: number; issue: number };
+  /** The same figure from CPU time instead of wall time (robust to other load on the machine). */
+  cpuValue?: number;
   note?: string;
 }
 
@@ -53,6 +55,31 @@ export function timeRuns(fn: () => void, reps: number, warmup: number): number[]
     out.push(performance.now() - t0);
   }
   return out;
+}
+
+/** CPU time (user + system) of this process so far, ms. */
+export function cpuMs(): number {
+  const u = process.cpuUsage();
+  return (u.user + u.system) / 1000;
+}
+
+/**
+ * Median wall and CPU time (ms) of fn. On a busy machine the wall time grows by
+ * the time the process is descheduled; the CPU time does not, so the two
+ * together show whether a figure is inflated by other load.
+ */
+export function measure(fn: () => void, reps: number, warmup: number): { wallMs: number; cpuMs: number } {
+  for (let i = 0; i < warmup; i++) fn();
+  const wall: number[] = [];
+  const cpu: number[] = [];
+  for (let i = 0; i < reps; i++) {
+    const c0 = cpuMs();
+    const t0 = performance.now();
+    fn();
+    wall.push(performance.now() - t0);
+    cpu.push(cpuMs() - c0);
+  }
+  return { wallMs: median(wall), cpuMs: median(cpu) };
 }
 
 /** Median wall time (ms) of fn. */

@@ -76,6 +76,8 @@ interface SectionReport {
   status: 'ok' | 'missing' | 'error';
   error?: string;
   seconds?: number;
+  /** CPU time / wall time of the section (≈1 on an idle core; GC threads can push it slightly above). */
+  cpuShare?: number;
   /** key → value, the figures for scripts. */
   values?: Record<string, number>;
   figures?: Figure[];
@@ -109,17 +111,18 @@ function printTable(sections: Record<string, SectionReport>, m: Record<string, u
   lines.push(`Fieldline Atlas benchmarks — ${String(m.cpu)} (${String(m.cores)} cores, 1 used), Node ${String(m.node)}, ${String(m.date)}`);
   for (const [name, r] of Object.entries(sections)) {
     lines.push('');
-    lines.push(`[${name}] ${r.title ?? ''}${r.seconds !== undefined ? ` (${r.seconds.toFixed(1)} s)` : ''}`);
+    const share = r.cpuShare !== undefined ? `, on CPU ${(100 * r.cpuShare).toFixed(0)} % of it` : '';
+    lines.push(`[${name}] ${r.title ?? ''}${r.seconds !== undefined ? ` (${r.seconds.toFixed(1)} s${share})` : ''}`);
     if (r.status === 'missing') { lines.push('  not yet implemented (bench file absent)'); continue; }
     if (r.status === 'error') { lines.push(`  ERROR: ${r.error}`); continue; }
     const rows = (r.figures ?? []).map((f) => {
       const met = targetMet(f);
       const target = f.target ? `${f.target.op} ${fmt(f.target.value)} (#${f.target.issue})` : '';
-      return [f.key, fmt(f.value), f.unit, target, met === null ? '' : met ? 'ok' : 'MISSED', f.note ?? ''];
+      return [f.key, fmt(f.value), f.cpuValue === undefined ? '' : fmt(f.cpuValue), f.unit, target, met === null ? '' : met ? 'ok' : 'MISSED', f.note ?? ''];
     });
-    const head = ['key', 'value', 'unit', 'target', '', 'note'];
+    const head = ['key', 'value', 'cpu-time', 'unit', 'target', '', 'note'];
     const w = head.map((h, i) => Math.max(h.length, ...rows.map((row) => row[i].length)));
-    const line = (row: string[]): string => '  ' + row.map((c, i) => (i === 1 ? c.padStart(w[i]) : i === row.length - 1 ? c : c.padEnd(w[i]))).join('  ');
+    const line = (row: string[]): string => '  ' + row.map((c, i) => (i === 1 || i === 2 ? c.padStart(w[i]) : i === row.length - 1 ? c : c.padEnd(w[i]))).join('  ');
     lines.push(line(head));
     for (const row of rows) lines.push(line(row));
   }
@@ -134,6 +137,7 @@ async function main(): Promise<void> {
   for (const entry of SECTIONS) {
     if (args.only !== null && entry.name !== args.only) continue;
     const t0 = performance.now();
+    const c0 = process.cpuUsage();
     try {
       const s = await entry.load();
       if (!s) { sections[entry.name] = { status: 'missing' }; continue; }
@@ -141,7 +145,12 @@ async function main(): Promise<void> {
       const r: SectionResult = await s.run({ quick: args.quick, log });
       const values: Record<string, number> = {};
       for (const f of r.figures) values[f.key] = f.value;
-      sections[entry.name] = { title: s.title, status: 'ok', seconds: (performance.now() - t0) / 1000, values, figures: r.figures, detail: r.detail };
+      const wall = (performance.now() - t0) / 1000;
+      const cu = process.cpuUsage(c0);
+      // Share of the wall time this process was on a CPU: well below 1 means other load inflated the wall-time figures.
+      const cpuShare = (cu.user + cu.system) / 1e6 / wall;
+      if (cpuShare < 0.9) log(`bench: ${entry.name}: the process ran only ${(100 * cpuShare).toFixed(0)} % of the wall time (busy machine): prefer the cpu-time figures`);
+      sections[entry.name] = { title: s.title, status: 'ok', seconds: wall, cpuShare, values, figures: r.figures, detail: r.detail };
     } catch (e) {
       failed = true;
       const err = e instanceof Error ? e.message : String(e);

@@ -88,7 +88,8 @@ export function prepareModel(input: Partial<FieldConditions> & { time: string })
 
   let internal: (out: Float64Array, x: number, y: number, z: number) => void;
   if (c.internal === 'igrf') {
-    const mf: MainFieldModel = prepareMainField(coeffs);
+    // Degrees whose bounded contribution is < 1e-7 of the dipole at the radius are skipped (mainfield/truncation.ts).
+    const mf: MainFieldModel = prepareMainField(coeffs, { truncationRelTol: 1e-7 });
     const m = frames.gsmFromGeo; // row-major GSM ← GEO
     internal = (out, x, y, z) => {
       // GEO position = transpose(M) · GSM position.

@@ -6,7 +6,8 @@
  * Spreadsheet formula injection (OWASP "CSV Injection"): a text cell that
  * begins with = + - @ (or tab / CR) is written with a leading apostrophe so a
  * spreadsheet shows it as text. Numbers are never escaped, so −5 stays numeric.
- * `csvText` undoes the apostrophe when reading back.
+ * Text already made of apostrophes before such a character gets one more, so
+ * `csvText` (which drops exactly one) restores every text exactly.
  *
  * Pure: no Node or DOM APIs; shared by the CLI and the browser app.
  */
@@ -20,7 +21,10 @@ export interface CsvWriteOptions {
   eol?: '\r\n' | '\n';
 }
 
-const FORMULA_START = /^[=+\-@\t\r]/;
+// Text a spreadsheet could run as a formula, possibly behind apostrophes we must keep.
+const ESCAPE_START = /^'*[=+\-@\t\r]/;
+// What the writer produced from such text: one more apostrophe in front.
+const ESCAPED = /^'+[=+\-@\t\r]/;
 const NEEDS_QUOTES = /[",\r\n]/;
 
 /** A number as CSV text; non-finite numbers become an empty cell. */
@@ -36,7 +40,7 @@ export function csvField(v: CsvCell, maxDecimals?: number): string {
   if (v === null || v === undefined) return '';
   if (typeof v === 'number') return csvNumber(v, maxDecimals);
   if (typeof v === 'boolean') return v ? 'true' : 'false';
-  const s = FORMULA_START.test(v) ? `'${v}` : v;
+  const s = ESCAPE_START.test(v) ? `'${v}` : v;
   return NEEDS_QUOTES.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
@@ -102,9 +106,9 @@ export function readCsv(text: string): string[][] {
   return records;
 }
 
-/** The text a writer meant: drops the anti-injection apostrophe before = + - @ tab CR. */
+/** The text a writer meant: drops the one anti-injection apostrophe added by csvField. */
 export function csvText(raw: string): string {
-  return raw.length > 1 && raw[0] === "'" && FORMULA_START.test(raw.slice(1)) ? raw.slice(1) : raw;
+  return ESCAPED.test(raw) ? raw.slice(1) : raw;
 }
 
 export interface CsvTable {

@@ -12,9 +12,18 @@ function replacer(_key: string, value: unknown): unknown {
   return value;
 }
 
-/** JSON text of a result, 2-space indented (0 = compact), with a final newline. */
+// An indented array whose items are only numbers or null (no strings, objects or nested arrays).
+const NUMERIC_ARRAY = /\[\s*\n[\s\d.eE+\-,null]*?\]/g;
+
+/**
+ * JSON text of a result with a final newline: 2-space indented (0 = compact),
+ * arrays of plain numbers kept on one line ([x, y, z] stays readable).
+ */
 export function writeJson(value: unknown, indent = 2): string {
-  return JSON.stringify(value, replacer, indent > 0 ? indent : undefined) + '\n';
+  const text = JSON.stringify(value, replacer, indent > 0 ? indent : undefined);
+  if (text === undefined) throw new RangeError('writeJson: the value has no JSON form');
+  if (indent <= 0) return text + '\n';
+  return text.replace(NUMERIC_ARRAY, (m) => `[${m.slice(1, -1).trim().split(/\s*,\s*/).join(', ')}]`) + '\n';
 }
 
 /** Parse JSON text; the error names what was being read. */

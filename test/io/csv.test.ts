@@ -72,6 +72,8 @@ describe('csv reading', () => {
 
   it("csvText drops only the writer's anti-injection apostrophe", () => {
     expect(csvText("'=x")).toBe('=x');
+    expect(csvText("''=x")).toBe("'=x");
+    expect(readCsvTable(writeCsv(['t'], [["'=x"], ["''-1"], ["'"], ["'a"]])).records.map((r) => r.t)).toEqual(["'=x", "''-1", "'", "'a"]);
     expect(csvText("'quoted'")).toBe("'quoted'");
     expect(csvText("'")).toBe("'");
   });

@@ -23,3 +23,13 @@ describe('json io', () => {
     expect(() => triples([1, 2])).toThrow(/not a multiple of 3/);
   });
 });
+
+describe('json layout', () => {
+  it('keeps numeric arrays on one line and leaves strings alone', () => {
+    const v = { p: [[1, -2.5e-7, null], [3, 4, 5]], s: ['a,\n 1', '2'], e: [] };
+    const t = writeJson(v);
+    expect(t).toContain('[1, -2.5e-7, null]');
+    expect(t).toContain('"a,\\n 1"');
+    expect(readJson(t)).toEqual(v);
+  });
+});

@@ -14,7 +14,7 @@ import { fieldCommand } from './commands/field';
 import { traceCommand } from './commands/trace';
 import { ovalCommand } from './commands/oval';
 import { sweepCommand } from './commands/sweep';
-import { runBatch, BATCH_SUMMARY } from './batch/index';
+import { runBatch, batchHelp, BATCH_SUMMARY } from './batch/index';
 
 export interface CliIo {
   stdout(text: string): void;
@@ -25,6 +25,9 @@ export interface CliIo {
 
 export const PROGRAM = 'fieldline-atlas';
 export const COMMANDS: readonly CommandDef[] = [fieldCommand, traceCommand, ovalCommand, sweepCommand];
+
+/** Every command name, the streamed `batch` included (it parses and prints on its own). */
+export const COMMAND_NAMES: readonly string[] = [...COMMANDS.map((c) => c.name), 'batch'];
 
 export const EXIT_OK = 0;
 export const EXIT_FAILURE = 1;
@@ -93,8 +96,9 @@ export async function run(argv: readonly string[], io: CliIo): Promise<number> {
     return EXIT_USAGE;
   }
   if (name === '--help' || name === '-h' || name === 'help') {
+    if (name === 'help' && rest[0] === 'batch') { io.stdout(batchHelp()); return EXIT_OK; }
     const sub = name === 'help' ? COMMANDS.find((c) => c.name === rest[0]) : undefined;
-    if (name === 'help' && rest.length > 0 && !sub) return report(io, '', new UsageError('', `help: unknown command "${rest[0]}"; expected ${COMMANDS.map((c) => c.name).join(', ')}`));
+    if (name === 'help' && rest.length > 0 && !sub) return report(io, '', new UsageError('', `help: unknown command "${rest[0]}"; expected ${COMMAND_NAMES.join(', ')}`));
     io.stdout(sub ? commandHelp(sub) : topHelp());
     return EXIT_OK;
   }
@@ -106,7 +110,7 @@ export async function run(argv: readonly string[], io: CliIo): Promise<number> {
   const cmd = COMMANDS.find((c) => c.name === name);
   if (!cmd) {
     const what = name.startsWith('-') ? `expected a command before options, got "${name}"` : `unknown command "${name}"`;
-    return report(io, '', new UsageError('', `${what}; commands: ${COMMANDS.map((c) => c.name).join(', ')}`));
+    return report(io, '', new UsageError('', `${what}; commands: ${COMMAND_NAMES.join(', ')}`));
   }
   if (rest.includes('--help') || rest.includes('-h')) {
     io.stdout(commandHelp(cmd));

@@ -177,7 +177,7 @@ describe('bad arguments exit 2 with a message naming the flag', () => {
     ['format not offered', ['sweep', '--vary', 'bz', '--from', '0', '--to', '1', '--steps', '2', '--format', 'geojson'], /--format: expected json or csv, got "geojson"/],
     ['pdyn sweep below zero', ['sweep', '--vary', 'pdyn', '--from', '-1', '--to', '2', '--steps', '2'], /--from: dynamic pressure must be > 0 nPa/],
     ['integer steps', ['sweep', '--vary', 'bz', '--from', '0', '--to', '1', '--steps', '2.5'], /--steps: expected a whole number in 1..1000/],
-    ['unknown command', ['orbit'], /unknown command "orbit"; commands: field, trace, oval, sweep/],
+    ['unknown command', ['orbit'], /unknown command "orbit"; commands: field, trace, oval, sweep, batch/],
     ['no command', [], /a command is required/],
   ];
   for (const [what, argv, re] of cases) {
@@ -208,7 +208,7 @@ describe('a failure that is not an argument error exits 1', () => {
 });
 
 describe('--help', () => {
-  for (const argv of [['--help'], ['help'], ['help', 'oval'], ['field', '--help'], ['trace', '--help'], ['oval', '--help'], ['sweep', '--help'], ['trace', '--lat', 'x', '-h']]) {
+  for (const argv of [['--help'], ['help'], ['help', 'oval'], ['help', 'batch'], ['field', '--help'], ['trace', '--help'], ['oval', '--help'], ['sweep', '--help'], ['trace', '--lat', 'x', '-h']]) {
     it(argv.join(' '), async () => {
       const r = await cli(...argv);
       expect(r.code).toBe(0);

@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { cli, cliJson, spawnCli } from './helpers';
+import { spawnSync } from 'node:child_process';
 import { run } from '../../src/cli/run';
 import { readCsv } from '../../src/io/csv';
 import { geoJsonProblems } from '../../src/io/geojson';
@@ -234,6 +235,11 @@ describe('as a child process (npx tsx src/cli/main.ts)', () => {
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/--hemisphere: expected north, south or both, got "east"/);
     expect(r.out).toBe('');
+  });
+  it('through the package script: npm run --silent cli -- --version', () => {
+    const p = spawnSync('npm', ['run', '--silent', 'cli', '--', '--version'], { encoding: 'utf8', cwd: new URL('../..', import.meta.url).pathname });
+    expect(p.status, p.stderr).toBe(0);
+    expect(p.stdout.trim()).toMatch(/^\d+\.\d+\.\d+$/);
   });
   it('--help exits 0', () => {
     const r = spawnCli('--help');

@@ -83,7 +83,10 @@ export const traceCommand: CommandDef = {
         });
         const feats: Feature[] = [
           lineFeature(track, { kind: 'fieldLine', type: line.type, lengthRe: line.lengthRe, equatorRRe: line.equator?.rRe ?? null, equatorBNt: line.equator?.bNt ?? null }),
-          pointFeature(sd.geoLonDeg, sd.geoLatDeg, { kind: 'site', coords, latDeg: lat, lonDeg: lon, heightKm }, sd.altKm),
+          // A geodetic site is placed exactly as given; a magnetic one at its computed geodetic position.
+          coords === 'geo'
+            ? pointFeature(lon, lat, { kind: 'site', coords, latDeg: lat, lonDeg: lon, heightKm }, heightKm)
+            : pointFeature(sd.geoLonDeg, sd.geoLatDeg, { kind: 'site', coords, latDeg: lat, lonDeg: lon, heightKm }, sd.altKm),
         ];
         for (const fp of footpoints) {
           feats.push(pointFeature(fp.geoLonDeg, fp.geoLatDeg, { kind: 'footpoint', role: fp === line.conjugate ? 'conjugate' : 'near', ...fp }, fp.altKm));

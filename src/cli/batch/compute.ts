@@ -6,7 +6,8 @@
  */
 import { prepareModel, type PreparedModel } from '../../physics/model';
 import { makeTracer, siteGsm } from '../../physics/mapping';
-import { siteReport, type SiteInput, type SiteResult } from '../../physics/site-report';
+import type { SiteInput, SiteResult } from '../../physics/site-report';
+import { siteRow, exactBoundaries, gridBoundaries } from './site-rows';
 import { applyMat3 } from '../../physics/frames';
 import { RAD } from '../../physics/constants';
 import type { Footpoint } from '../../physics/footpoint';
@@ -27,6 +28,8 @@ export interface BatchSettings {
   conjugateAltKm: number;
   sourceRe: number;
   minElevationDeg: number;
+  /** null: the engine's boundary search at each site's exact MLT; else an MLT grid step (h), interpolated (approximation). */
+  boundaryMltStep: number | null;
   format: BatchFormat;
   /** Decimals of numbers in CSV cells (JSON and GeoJSON are lossless). */
   csvDecimals: number;
@@ -199,6 +202,7 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
   }
   const tConj = model ? makeTracer(model, { altKm: st.conjugateAltKm, ellipsoid: true }) : null;
   const tAlt = model ? (st.altKm === st.conjugateAltKm ? tConj : makeTracer(model, { altKm: st.altKm, ellipsoid: true })) : null;
+  const bounds = model ? (st.boundaryMltStep === null ? exactBoundaries(model, tAlt!, st.sourceRe) : gridBoundaries(model, tAlt!, st.sourceRe, st.boundaryMltStep)) : null;
   const warnings = model && model.warnings.length ? model.warnings.join('; ') : null;
   if (condProblem) note(condProblem.error ?? condProblem.skipped!);
   for (const site of sites) {
@@ -217,7 +221,7 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
       if (job.seq === 0) note(site.reason);
     } else {
       r[C.warnings] = warnings;
-      const s = siteReport(model!, tConj!, tAlt!, site.value, { conjugateAltKm: st.conjugateAltKm, altKm: st.altKm, sourceRe: st.sourceRe, minElevationDeg: st.minElevationDeg });
+      const s = siteRow(model!, tConj!, tAlt!, site.value, { conjugateAltKm: st.conjugateAltKm, altKm: st.altKm, sourceRe: st.sourceRe, minElevationDeg: st.minElevationDeg }, bounds!);
       if (s.error) {
         const err = `sites line ${site.line} (${site.value.name}), ${where}: ${s.error}`;
         r[C.error] = err; res.failed++; note(err);

@@ -11,7 +11,7 @@ import { basename } from 'node:path';
 import { UsageError, parseFlags, flagHelp, type FlagSpec, type ParsedFlags } from '../args';
 import { commonFlags, conditionsFromFlags, programVersion, DEFAULT_ALT_KM } from '../common';
 import { CSV_DECIMALS } from '../command';
-import { DEFAULT_SOURCE_RE } from '../../physics/mapping';
+import { DEFAULT_SOURCE_RE, mltGrid } from '../../physics/mapping';
 import { PDYN_NOMINAL_COEFF } from '../../physics/magnetopause';
 import type { SiteInput } from '../../physics/site-report';
 import type { InternalFieldKind } from '../../physics/conditions';
@@ -46,6 +46,7 @@ export const BATCH_FLAGS: FlagSpec[] = [
   { name: 'progress', kind: 'switch', help: 'rows/s and ETA on stderr (on by default when stderr is a terminal)' },
   { name: 'conjugate-alt-km', kind: 'number', meta: '<km>', unit: 'km', min: 0, max: 5000, help: 'altitude of the conjugate point', defaultText: '0 (ground)' },
   { name: 'source-re', kind: 'number', meta: '<RE>', unit: 'RE', min: 1.5, max: 100, help: 'equatorial source distance of the equatorward edge', defaultText: String(DEFAULT_SOURCE_RE) },
+  { name: 'boundary-mlt-step', kind: 'number', meta: '<h>', unit: 'h', min: 0.05, max: 12, help: 'approximation for speed: boundaries on this MLT grid per condition, interpolated to each site\'s MLT', defaultText: 'off (exact search at each site\'s MLT)' },
   { name: 'min-elevation-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'lowest elevation at which the oval counts as visible', defaultText: '10' },
 ];
 
@@ -136,9 +137,13 @@ function plan(argv: readonly string[], io: BatchIo): Plan {
     conjugateAltKm: (flags['conjugate-alt-km'] as number | undefined) ?? 0,
     sourceRe: (flags['source-re'] as number | undefined) ?? DEFAULT_SOURCE_RE,
     minElevationDeg: (flags['min-elevation-deg'] as number | undefined) ?? 10,
+    boundaryMltStep: (flags['boundary-mlt-step'] as number | undefined) ?? null,
     format: ((flags.format as string | undefined) ?? 'csv') as BatchFormat,
     csvDecimals: CSV_DECIMALS,
   };
+  if (settings.boundaryMltStep !== null) {
+    try { mltGrid(settings.boundaryMltStep); } catch (e) { throw new UsageError('--boundary-mlt-step', (e as Error).message.replace(/^mltStep: /, '')); }
+  }
   let flagCondition: Plan['flagCondition'] = null;
   if (conditionsPath === null) {
     try { checkTime(c.time); } catch (e) { throw new UsageError('--time', (e as Error).message.replace(/^time: /, '')); }
@@ -210,6 +215,7 @@ function metadata(p: Plan, sites: number): Record<string, unknown> {
     conjugateAltKm: s.conjugateAltKm,
     sourceRe: s.sourceRe,
     minElevationDeg: s.minElevationDeg,
+    boundaries: s.boundaryMltStep === null ? 'exact search at each site\'s MLT (as oval)' : `interpolated from a ${s.boundaryMltStep} h MLT grid (approximation)`,
     pdynFromDensitySpeed: `${PDYN_NOMINAL_COEFF.toExponential()} * density_cm3 * speed_kms^2 nPa`,
     order: 'conditions in file order, sites in file order within each condition',
   };

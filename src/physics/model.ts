@@ -118,6 +118,9 @@ export function prepareModel(input: Partial<FieldConditions> & { time: string })
     mp = shueMagnetopause(c.pdynNpa, c.bzNt, c.byNt);
     warnings.push(...mp.warnings);
     comp = prepareCompression(mp, internal);
+    if (comp.rmsResidualRel > 0.01) {
+      warnings.push(`the compression field leaves ${(100 * comp.rmsResidualRel).toFixed(1)} % rms normal field on the magnetopause (fit good to < 1 % inside the Shue fitted range)`);
+    }
   }
   const eps = c.imfEfficiency;
   const imf = eps > 0 && (c.byNt !== 0 || c.bzNt !== 0) ? prepareImf(c.byNt, c.bzNt, eps) : null;

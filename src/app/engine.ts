@@ -6,7 +6,7 @@
 import * as Comlink from 'comlink';
 import type { EngineApi, FanSpec, OvalResult, SceneResult, SitesResult, SweepResult } from '../../workers/protocol';
 import { Channel } from './channel';
-import { store, type AppState } from './store';
+import { store, type AnsweredFor, type AppState } from './store';
 
 /** The field-line fan: MLT meridians every 2 h, seeds from 55° to 80° magnetic latitude. */
 export const FAN: FanSpec = {
@@ -38,35 +38,54 @@ export function startEngine(makeWorker?: () => Worker): EngineClient {
   const busy = (ch: keyof AppState['pending']) => (b: boolean) => store.set((s) => ({ pending: { ...s.pending, [ch]: b } }));
   worker.addEventListener('error', (e) => err('engine')(`engine worker failed: ${e.message || 'could not start'}`));
 
-  // Each answer remembers which change it belongs to, for the drawn-time marks.
+  // Each answer remembers which change and which inputs it belongs to.
   const seqOf = new Map<string, number>();
-  const scene = new Channel<SceneResult>((a) => store.set({ scene: a, errors: ok('scene'), sceneSeq: seqOf.get(`scene${a.requestId}`) ?? -1 }), err('scene'), busy('scene'));
-  const oval = new Channel<OvalResult>((a) => store.set({ oval: a, errors: ok('oval'), ovalSeq: seqOf.get(`oval${a.requestId}`) ?? -1 }), err('oval'), busy('oval'));
-  const sites = new Channel<SitesResult>((a) => store.set({ siteResults: a, errors: ok('sites') }), err('sites'), busy('sites'));
-  const sweep = new Channel<SweepResult>((a) => store.set({ sweep: a, errors: ok('sweep') }), err('sweep'), busy('sweep'));
+  const inputsOf = new Map<string, AnsweredFor>();
+  const remember = (key: string) => {
+    const s = store.get();
+    seqOf.set(key, s.perf.seq);
+    inputsOf.set(key, { conditions: s.conditions, products: s.products, sites: s.sites, view: s.view });
+    if (inputsOf.size > 64) { const k = inputsOf.keys().next().value as string; inputsOf.delete(k); seqOf.delete(k); }
+  };
+  const answered = (ch: 'scene' | 'oval' | 'sites' | 'sweep', id: number) => ({ answeredFor: { ...store.get().answeredFor, [ch]: inputsOf.get(`${ch}${id}`) } });
+  const scene = new Channel<SceneResult>((a) => store.set({ scene: a, errors: ok('scene'), sceneSeq: seqOf.get(`scene${a.requestId}`) ?? -1, ...answered('scene', a.requestId) }), err('scene'), busy('scene'));
+  // The sweep (many model preparations) waits until the oval is idle, so the refined oval comes first.
+  let sweepDue = false;
+  const ovalBusy = busy('oval');
+  const oval = new Channel<OvalResult>((a) => store.set({ oval: a, errors: ok('oval'), ovalSeq: seqOf.get(`oval${a.requestId}`) ?? -1, ...answered('oval', a.requestId) }), err('oval'), (b) => {
+    ovalBusy(b);
+    if (!b && sweepDue) {
+      sweepDue = false;
+      askSweep();
+    }
+  });
+  const sites = new Channel<SitesResult>((a) => store.set({ siteResults: a, errors: ok('sites'), ...answered('sites', a.requestId) }), err('sites'), busy('sites'));
+  const sweep = new Channel<SweepResult>((a) => store.set({ sweep: a, errors: ok('sweep'), ...answered('sweep', a.requestId) }), err('sweep'), busy('sweep'));
 
   const productOpts = (s: AppState) => ({ altKm: s.products.altKm, sourceRe: s.products.sourceRe });
 
   const askScene = () =>
     scene.request((id) => {
       const s = store.get();
-      seqOf.set(`scene${id}`, s.perf.seq);
+      remember(`scene${id}`);
       return api.scene(id, s.conditions, FAN);
     });
   const askOval = () =>
     oval.request((id) => {
       const s = store.get();
-      seqOf.set(`oval${id}`, s.perf.seq);
+      remember(`oval${id}`);
       return api.oval(id, s.conditions, { ...productOpts(s), mltStepHours: OVAL_MLT_STEP_H });
     });
   const askSites = () =>
     sites.request((id) => {
       const s = store.get();
+      remember(`sites${id}`);
       return api.sites(id, s.conditions, { ...productOpts(s), conjugateAltKm: 0, minElevationDeg: s.products.minElevationDeg }, s.sites);
     });
   const askSweep = () =>
     sweep.request((id) => {
       const s = store.get();
+      remember(`sweep${id}`);
       const v = s.view.sweepVary;
       return api.sweep(id, s.conditions, { ...productOpts(s), vary: v, ...SWEEP[v], mltHours: s.view.sweepMlt });
     });
@@ -76,10 +95,10 @@ export function startEngine(makeWorker?: () => Worker): EngineClient {
   const refine = (withSweep: boolean) => {
     clearTimeout(settle);
     settle = setTimeout(() => {
+      if (withSweep) sweepDue = true;
       askOval();
       askSites();
-      if (withSweep) askSweep();
-    }, 120);
+    }, 80);
   };
 
   const unsub = store.subscribe((s, prev) => {
@@ -95,9 +114,9 @@ export function startEngine(makeWorker?: () => Worker): EngineClient {
   });
 
   askScene();
+  sweepDue = true;
   askOval();
   askSites();
-  askSweep();
 
   return {
     dispose() {

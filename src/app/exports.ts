@@ -3,6 +3,7 @@ import { version } from '../../package.json';
 import { boundariesCsv, boundariesGeoJson, fullJson, sitesCsv, sitesGeoJson, sweepCsv, type ExportMeta } from '../io/app-export';
 import { store } from './store';
 import { writeJson } from '../io/json';
+import { snapshotPng } from './scene/snapshot';
 
 export function exportMeta(): ExportMeta {
   const s = store.get();
@@ -46,9 +47,9 @@ export function runExport(kind: ExportKind): boolean {
     case 'sweep-csv': return !!s.sweep && (download(`fieldline-atlas-sweep-${s.sweep.vary}.csv`, 'text/csv', sweepCsv(s.sweep)), true);
     case 'all-json': return download('fieldline-atlas.json', 'application/json', json(fullJson(exportMeta(), sites, curves, s.sweep))), true;
     case 'png': {
-      const c = document.querySelector<HTMLCanvasElement>('.scene canvas');
-      if (!c) return false;
-      const bin = atob(c.toDataURL('image/png').split(',')[1]);
+      const url = snapshotPng();
+      if (!url) return false;
+      const bin = atob(url.split(',')[1]);
       const bytes = new Uint8Array(bin.length);
       for (let i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
       download('fieldline-atlas-view.png', 'image/png', new Blob([bytes], { type: 'image/png' }));

@@ -5,7 +5,8 @@ import { App } from './App';
 import { store } from './store';
 import { startEngine } from './engine';
 import { restoreFromUrl, startUrlSync } from './urlSync';
-import { perfRecords } from './perf';
+import { perfRecords, renderStats } from './perf';
+import { snapshotPng } from './scene/snapshot';
 import './styles.css';
 
 restoreFromUrl();
@@ -13,7 +14,7 @@ startEngine();
 startUrlSync();
 
 // Hooks for the e2e tests and the browser benchmark (read-only use).
-(window as unknown as { __atlas: object }).__atlas = { store, perfRecords };
+(window as unknown as { __atlas: object }).__atlas = { store, perfRecords, renderStats, snapshotPng };
 
 createRoot(document.getElementById('root')!).render(
   <StrictMode>

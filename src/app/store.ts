@@ -49,6 +49,15 @@ export interface AppState {
   /** Change sequence that the current scene / oval answers belong to. */
   sceneSeq: number;
   ovalSeq: number;
+  /** The inputs (by reference) each current answer was computed for: lets tests and the UI tell fresh from lagging. */
+  answeredFor: Partial<Record<'scene' | 'oval' | 'sites' | 'sweep', AnsweredFor>>;
+}
+
+export interface AnsweredFor {
+  conditions: FieldConditions;
+  products: ProductSettings;
+  sites: SiteInput[];
+  view: ViewSettings;
 }
 
 export interface Store<T> {
@@ -91,6 +100,7 @@ export function initialState(): AppState {
     perf: { seq: 0, changedAt: 0 },
     sceneSeq: -1,
     ovalSeq: -1,
+    answeredFor: {},
   };
 }
 

@@ -120,9 +120,12 @@ export function ovalBandMesh(c: BoundaryCurve, rRe: number): { positions: Float3
   for (let i = 0; i < n; i++) {
     const a = sphereXyz(c.equatorwardGeoLatDeg[i], c.equatorwardGeoLonDeg[i], rRe);
     const b = sphereXyz(c.openClosedGeoLatDeg[i], c.openClosedGeoLonDeg[i], rRe);
-    positions.set(a, 6 * i);
-    positions.set(b, 6 * i + 3);
     ok[i] = Number.isFinite(a[0] + a[1] + a[2] + b[0] + b[1] + b[2]) ? 1 : 0;
+    // Sectors without a boundary stay at the origin (unindexed), so the bounding sphere stays finite.
+    if (ok[i]) {
+      positions.set(a, 6 * i);
+      positions.set(b, 6 * i + 3);
+    }
   }
   const idx: number[] = [];
   const edges: number[] = [];

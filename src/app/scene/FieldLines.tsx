@@ -1,16 +1,15 @@
 /** The fan of field lines, one draw call, coloured per vertex by line type. */
-import { useEffect, useMemo, useRef } from 'react';
-import { useFrame, useThree } from '@react-three/fiber';
+import { useEffect, useMemo } from 'react';
+import { useThree } from '@react-three/fiber';
 import * as THREE from 'three';
 import { bundleSegments } from '../lib/sphere';
 import { store, useStore } from '../store';
-import { noteDrawn } from '../perf';
+import { awaitDraw } from '../perf';
 
 export function FieldLines() {
   const lines = useStore((s) => s.scene?.lines);
   const show = useStore((s) => s.view.fan);
   const invalidate = useThree((s) => s.invalidate);
-  const pendingSeq = useRef(-1);
   const geom = useMemo(() => {
     if (!lines) return null;
     const { positions, colours, index } = bundleSegments(lines);
@@ -21,16 +20,10 @@ export function FieldLines() {
     return g;
   }, [lines]);
   useEffect(() => {
-    pendingSeq.current = store.get().sceneSeq;
+    awaitDraw('scene', store.get().sceneSeq);
     invalidate();
     return () => geom?.dispose();
   }, [geom, invalidate]);
-  useFrame(() => {
-    if (pendingSeq.current >= 0) {
-      noteDrawn('scene', pendingSeq.current);
-      pendingSeq.current = -1;
-    }
-  });
   if (!geom || !show) return null;
   return (
     <lineSegments geometry={geom} name="field-lines">

@@ -1,18 +1,17 @@
 /** The oval band in both hemispheres at the footpoint altitude, with its two edges. */
-import { useEffect, useMemo, useRef } from 'react';
-import { useFrame, useThree } from '@react-three/fiber';
+import { useEffect, useMemo } from 'react';
+import { useThree } from '@react-three/fiber';
 import * as THREE from 'three';
 import { ovalBandMesh } from '../lib/sphere';
 import { OVAL_COLOURS } from '../lib/palette';
 import { RE_KM } from '../../physics/constants';
 import { store, useStore } from '../store';
-import { noteDrawn } from '../perf';
+import { awaitDraw } from '../perf';
 
 export function OvalBand() {
   const oval = useStore((s) => s.oval);
   const altKm = useStore((s) => s.products.altKm);
   const invalidate = useThree((s) => s.invalidate);
-  const pendingSeq = useRef(-1);
   const parts = useMemo(() => {
     if (!oval) return [];
     const r = 1 + Math.max(altKm, 15) / RE_KM; // lift ground-level bands just clear of the globe
@@ -27,16 +26,10 @@ export function OvalBand() {
     });
   }, [oval, altKm]);
   useEffect(() => {
-    pendingSeq.current = store.get().ovalSeq;
+    awaitDraw('oval', store.get().ovalSeq);
     invalidate();
     return () => parts.forEach((p) => (p.band.dispose(), p.edges.dispose()));
   }, [parts, invalidate]);
-  useFrame(() => {
-    if (pendingSeq.current >= 0) {
-      noteDrawn('oval', pendingSeq.current);
-      pendingSeq.current = -1;
-    }
-  });
   return (
     <group name="oval">
       {parts.map((p) => (

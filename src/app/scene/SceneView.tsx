@@ -1,5 +1,8 @@
 /** The 3D view: GEO frame (Earth fixed, z to the north pole), rendered on demand. */
-import { Canvas } from '@react-three/fiber';
+import { useEffect } from 'react';
+import { Canvas, useFrame, useThree } from '@react-three/fiber';
+import { frameRendered } from '../perf';
+import { setSnapshotter } from './snapshot';
 import { Earth } from './Earth';
 import { Graticules } from './Graticules';
 import { Axes } from './Axes';
@@ -9,16 +12,43 @@ import { OvalBand } from './OvalBand';
 import { Sites3D } from './Sites3D';
 import { CameraRig } from './CameraRig';
 
+/** Takes over rendering (priority 1) so the timing marks land after gl.render. */
+function RenderAndMark() {
+  useFrame(({ gl, scene, camera }) => {
+    const t = performance.now();
+    gl.render(scene, camera);
+    frameRendered(performance.now() - t, gl.info.render.calls, gl.info.render.triangles + gl.info.render.lines);
+  }, 1);
+  return null;
+}
+
+/** Registers render-then-read for the PNG export (no preserveDrawingBuffer needed). */
+function Snapshot() {
+  const gl = useThree((s) => s.gl);
+  const scene = useThree((s) => s.scene);
+  const camera = useThree((s) => s.camera);
+  useEffect(() => {
+    setSnapshotter(() => {
+      gl.render(scene, camera);
+      return gl.domElement.toDataURL('image/png');
+    });
+    return () => setSnapshotter(null);
+  }, [gl, scene, camera]);
+  return null;
+}
+
 export function SceneView() {
   return (
     <Canvas
       frameloop="demand"
-      gl={{ preserveDrawingBuffer: true, antialias: true }}
+      gl={{ antialias: true }}
       camera={{ fov: 40, near: 0.05, far: 1000, position: [-14, 22, 9] }}
       dpr={[1, 2]}
       aria-label="3D view of field lines, oval and magnetopause (GEO frame)"
     >
       <color attach="background" args={['#070b14']} />
+      <RenderAndMark />
+      <Snapshot />
       <CameraRig />
       <Earth />
       <Graticules />

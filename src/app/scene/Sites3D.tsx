@@ -20,6 +20,7 @@ export function Sites3D() {
   const extra = useMemo(() => {
     const out: { line: THREE.Line; conj: THREE.Vector3 | null }[] = [];
     for (const r of results?.sites ?? []) {
+      if (r.lineGeo.length < 6) continue;
       const line = new THREE.BufferGeometry();
       line.setAttribute('position', new THREE.BufferAttribute(new Float32Array(r.lineGeo), 3));
       let conj: THREE.Vector3 | null = null;

@@ -8,7 +8,9 @@
  *  - peakRssMb: the process's peak resident set (all threads), and
  *    rssGrowthMb: resident set at the end minus at a quarter of the run
  *    (flat memory: about 0 however many rows);
- *  - the same with --boundary-mlt-step (interpolated boundaries, an opt-in approximation).
+ *  - the same with --boundary-mlt-step 1 (interpolated boundaries, an opt-in approximation);
+ *  - pipeline*: a million rows that are all skipped (fill values), so the
+ *    reader, pool and ordered writer run alone: their speed and RSS growth.
  */
 import { mkdtempSync, writeFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -30,7 +32,7 @@ export interface BatchBenchResult {
 }
 
 /** Invented inputs: sites spread over both hemispheres (|lat| 40–80°), an hourly series of moderate activity. */
-function writeInputs(dir: string, sites: number, conditions: number): { sitesPath: string; seriesPath: string } {
+function writeInputs(dir: string, sites: number, conditions: number, fill: boolean): { sitesPath: string; seriesPath: string } {
   const rnd = seededRandom(5);
   const s = ['name,lat_deg,lon_deg,height_km'];
   for (let i = 0; i < sites; i++) {
@@ -41,7 +43,7 @@ function writeInputs(dir: string, sites: number, conditions: number): { sitesPat
   const t0 = Date.UTC(2025, 0, 1);
   for (let i = 0; i < conditions; i++) {
     const t = new Date(t0 + i * 3600_000).toISOString().replace('.000Z', 'Z');
-    c.push(`${t},${(0.8 + 5 * rnd()).toFixed(2)},${(-10 + 14 * rnd()).toFixed(2)},${(-6 + 12 * rnd()).toFixed(2)}`);
+    c.push(`${t},${fill ? '9999.99' : (0.8 + 5 * rnd()).toFixed(2)},${(-10 + 14 * rnd()).toFixed(2)},${(-6 + 12 * rnd()).toFixed(2)}`);
   }
   const sitesPath = join(dir, 'sites.csv');
   const seriesPath = join(dir, 'series.csv');
@@ -50,29 +52,31 @@ function writeInputs(dir: string, sites: number, conditions: number): { sitesPat
   return { sitesPath, seriesPath };
 }
 
-/** One batch run with figures. */
-export async function runBatchBench(opts: { sites?: number; conditions?: number; workers?: number; extraArgs?: string[]; log?: (m: string) => void } = {}): Promise<BatchBenchResult> {
+/**
+ * One batch run with figures. `fillOnly` makes every condition a fill value, so
+ * rows are skipped without physics: a run of the streaming pipeline alone
+ * (reader, pool, ordered writer), for the memory check at a million rows.
+ */
+export async function runBatchBench(opts: { sites?: number; conditions?: number; workers?: number; extraArgs?: string[]; fillOnly?: boolean; log?: (m: string) => void } = {}): Promise<BatchBenchResult> {
   const sites = opts.sites ?? 100, conditions = opts.conditions ?? 1000, workers = opts.workers ?? 2;
   const dir = mkdtempSync(join(tmpdir(), 'batch-bench-'));
   try {
-    const { sitesPath, seriesPath } = writeInputs(dir, sites, conditions);
+    const { sitesPath, seriesPath } = writeInputs(dir, sites, conditions, opts.fillOnly === true);
     const rows = sites * conditions;
     let rssAtQuarter = NaN;
-    let stderr = '';
-    const rssTimer = setInterval(() => {
-      // The summary line is not out yet; the progress lines tell how far the run is.
-      const m = /batch: (\d+)\//.exec(stderr.slice(-200));
-      if (Number.isNaN(rssAtQuarter) && m && Number(m[1]) >= rows / 4) rssAtQuarter = process.memoryUsage().rss;
-    }, 200);
+    // Progress lines ("batch: <done>/<total> rows …") tell how far the run is.
+    const watch = (t: string) => {
+      const m = /batch: (\d+)\//.exec(t);
+      if (m && Number.isNaN(rssAtQuarter) && Number(m[1]) >= rows / 4) rssAtQuarter = process.memoryUsage().rss;
+    };
     const cpu0 = process.cpuUsage();
     const t0 = performance.now();
     const code = await runBatch(['--sites', sitesPath, '--conditions', seriesPath, '--out', join(dir, 'out.csv'), '--workers', String(workers), '--progress', ...(opts.extraArgs ?? [])], {
       stdout: () => {},
-      stderr: (t) => { stderr += t; if (stderr.length > 4096) stderr = stderr.slice(-1024); opts.log?.(t.trimEnd()); },
+      stderr: (t) => { watch(t); opts.log?.(t.trimEnd()); },
     });
     const seconds = (performance.now() - t0) / 1000;
     const cpu = process.cpuUsage(cpu0);
-    clearInterval(rssTimer);
     const rssEnd = process.memoryUsage().rss;
     return {
       sites, conditions, workers, rows, seconds,
@@ -91,20 +95,23 @@ export const batchSection: BenchSection = {
   name: 'batch',
   title: 'batch command: 100 sites × hourly series, 2 worker threads, CSV to a file (issue 5)',
   async run(o: RunOptions) {
-    const conditions = o.quick ? 60 : 1000;
-    const log = (m: string) => { if (m.includes('rows/s')) o.log(m); };
-    const exact = await runBatchBench({ conditions, log });
+    let lastLog = 0;
+    const log = (m: string) => { if (m.includes('rows/s') && performance.now() - lastLog > 10_000) { lastLog = performance.now(); o.log(m); } };
+    const exact = await runBatchBench({ conditions: o.quick ? 60 : 1000, log });
     if (exact.exitCode !== 0) throw new Error(`batch run exited ${exact.exitCode}`);
-    const approx = await runBatchBench({ conditions, log, extraArgs: ['--boundary-mlt-step', '0.5'] });
+    const approx = await runBatchBench({ conditions: o.quick ? 30 : 200, log, extraArgs: ['--boundary-mlt-step', '1'] });
+    const pipeline = await runBatchBench({ sites: 5, conditions: o.quick ? 20_000 : 200_000, log, fillOnly: true });
     const target = { op: '>=' as const, value: 5000, issue: 5 };
     const figures: Figure[] = [
       { key: 'siteConditionsPerSecond', value: exact.siteConditionsPerSecond, unit: 'rows/s', target, note: `${exact.sites} sites × ${exact.conditions} conditions, exact boundaries, wall time` },
       { key: 'rowsPerCpuSecond', value: exact.rowsPerCpuSecond, unit: 'rows/cpu-s', note: 'all threads; × cores ≈ wall rate on an idle machine' },
       { key: 'peakRssMb', value: exact.peakRssMb, unit: 'MB', note: 'process peak, all threads' },
       { key: 'rssGrowthMb', value: exact.rssGrowthMb, unit: 'MB', note: 'RSS at the end − at 25 % of the rows' },
-      { key: 'approxSiteConditionsPerSecond', value: approx.siteConditionsPerSecond, unit: 'rows/s', target, note: '--boundary-mlt-step 0.5 (interpolated boundaries)' },
+      { key: 'approxSiteConditionsPerSecond', value: approx.siteConditionsPerSecond, unit: 'rows/s', target, note: `--boundary-mlt-step 1 (interpolated boundaries), ${approx.conditions} conditions` },
       { key: 'approxRowsPerCpuSecond', value: approx.rowsPerCpuSecond, unit: 'rows/cpu-s' },
+      { key: 'pipelineRowsPerSecond', value: pipeline.siteConditionsPerSecond, unit: 'rows/s', note: `${pipeline.rows} skipped rows: reader + pool + writer without physics` },
+      { key: 'pipelineRssGrowthMb', value: pipeline.rssGrowthMb, unit: 'MB', note: `RSS at the end − at 25 % of ${pipeline.rows} rows (flat memory)` },
     ];
-    return { figures, detail: { exact, approx } };
+    return { figures, detail: { exact, approx, pipeline } };
   },
 };

@@ -88,7 +88,7 @@ export function batchHelp(): string {
     '',
     'Formats: csv (# metadata lines, header, CRLF; text cells starting with = + - @ get a',
     "leading '), json (JSON Lines: a metadata line, then one object per row), geojson (one",
-    'FeatureCollection, a Point per row at the conjugate point).',
+    'FeatureCollection, a Point per row at the conjugate point; shards give separate collections).',
     'Exit codes: 0 no row failed, 3 some rows failed, 2 bad arguments or header, 1 run failed.',
     '',
     'Examples:',

@@ -97,8 +97,9 @@ describe('batch: bad rows (issue 5, "Bad input")', () => {
     }
     // density 5 cm⁻³, speed 450 km/s: 2.0e-6·n·v² (CHECKS §3) = 2.025 nPa.
     expectClose(at(14, 2).pdyn_npa as number, 2.0e-6 * 5 * 450 * 450, 1e-12, 'pdyn from density and speed');
-    // A bad row keeps its time text so the table still lines up with the series.
-    expect(at(4, 2).time).toBe('2025-03-20T22:00:00Z');
+    // A bad row keeps its time so the table still lines up with the series (normalised when readable).
+    expect(at(4, 2).time).toBe('2025-03-20T22:00:00.000Z');
+    expect(at(5, 2).time).toBe('yesterday');
     // Summary on stderr: counts, and the problems named.
     expect(r.err).toMatch(/39 rows \(3 sites × 13 conditions\).*: 2 computed, 11 skipped, 26 failed/);
     expect(r.err).toContain('conditions line 3: missing value');

@@ -10,6 +10,7 @@ import type { SiteInput, SiteResult } from '../../physics/site-report';
 import { siteRow, exactBoundaries, gridBoundaries } from './site-rows';
 import { applyMat3 } from '../../physics/frames';
 import { RAD } from '../../physics/constants';
+import { parseUtc } from '../../physics/time';
 import type { Footpoint } from '../../physics/footpoint';
 import type { InternalFieldKind } from '../../physics/conditions';
 import { csvField, type CsvCell } from '../../io/csv';
@@ -89,7 +90,10 @@ function fillSite(r: Row, site: RowOutcome<SiteInput>): void {
 
 function fillCondition(r: Row, line: number | null, c: SeriesCondition | null, m: PreparedModel | null, rawTime: string | undefined): void {
   r[C.conditions_line] = line;
-  if (rawTime !== undefined) r[C.time] = rawTime;
+  if (rawTime !== undefined) {
+    // A bad row's time, normalised like the others when it can be read, else as given.
+    try { r[C.time] = new Date(parseUtc(rawTime)).toISOString(); } catch { r[C.time] = rawTime; }
+  }
   if (c) {
     r[C.time] = c.time;
     r[C.pdyn_npa] = c.pdynNpa;

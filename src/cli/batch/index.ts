@@ -44,9 +44,9 @@ export const BATCH_FLAGS: FlagSpec[] = [
   { name: 'workers', kind: 'integer', meta: '<N>', min: 1, max: 256, help: 'threads computing rows (1 = this thread)', defaultText: 'the number of cores' },
   { name: 'shard', kind: 'string', meta: '<k/n>', help: 'take conditions k, k+n, k+2n, … (1-based) for array jobs; shard outputs concatenate' },
   { name: 'progress', kind: 'switch', help: 'rows/s and ETA on stderr (on by default when stderr is a terminal)' },
-  { name: 'conjugate-alt-km', kind: 'number', meta: '<km>', unit: 'km', min: 0, max: 5000, help: 'altitude of the conjugate point', defaultText: '0 (ground)' },
+  { name: 'conjugate-alt-km', kind: 'number', meta: '<km>', unit: 'km', min: 0, max: 5000, help: 'altitude of the conjugate point', defaultText: '0, the ground' },
   { name: 'source-re', kind: 'number', meta: '<RE>', unit: 'RE', min: 1.5, max: 100, help: 'equatorial source distance of the equatorward edge', defaultText: String(DEFAULT_SOURCE_RE) },
-  { name: 'boundary-mlt-step', kind: 'number', meta: '<h>', unit: 'h', min: 0.05, max: 12, help: 'approximation for speed: boundaries on this MLT grid per condition, interpolated to each site\'s MLT', defaultText: 'off (exact search at each site\'s MLT)' },
+  { name: 'boundary-mlt-step', kind: 'number', meta: '<h>', unit: 'h', min: 0.05, max: 12, help: 'approximation for speed: boundaries on this MLT grid per condition, interpolated to each site\'s MLT', defaultText: 'off: the exact search at each site\'s MLT' },
   { name: 'min-elevation-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'lowest elevation at which the oval counts as visible', defaultText: '10' },
 ];
 

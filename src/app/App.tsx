@@ -28,8 +28,10 @@ export function App() {
           <SceneView />
           <ViewBar />
         </div>
-        <SitesPanel />
       </main>
+      <div className="sites-area">
+        <SitesPanel />
+      </div>
       <aside className="right">
         <PolarMaps />
         <SweepPlot />

@@ -8,10 +8,10 @@ import type { EngineApi, FanSpec, OvalResult, SceneResult, SitesResult, SweepRes
 import { Channel } from './channel';
 import { store, type AnsweredFor, type AppState } from './store';
 
-/** The field-line fan: MLT meridians every 2 h, seeds from 55° to 80° magnetic latitude. */
+/** The field-line fan: MLT meridians every 3 h, seeds from 58° to 82° magnetic latitude. */
 export const FAN: FanSpec = {
-  mltHours: [0, 2, 4, 6, 8, 10, 12, 14, 16, 18, 20, 22],
-  magLatDeg: [55, 60, 64, 67, 70, 73, 76, 80],
+  mltHours: [0, 3, 6, 9, 12, 15, 18, 21],
+  magLatDeg: [58, 63, 67, 70, 73, 76, 79, 82],
 };
 
 /** Sweep ranges: Pdyn 0.3–30 nPa (log spaced), Bz −20..+10 nT. */

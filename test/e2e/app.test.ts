@@ -135,6 +135,20 @@ describe('browser app', () => {
     await waitFresh(b.page);
   });
 
+  it('imports sites from a CSV file and reports bad rows', async () => {
+    const csv = 'name,lat_deg,lon_deg\r\nOrrin Shoal,70.125,-8.5\r\n"=cmd|x",61,5\r\nBroken,abc,4\r\n';
+    await b.page.getByLabel('Import sites (CSV: name, lat_deg, lon_deg)').setInputFiles({ name: 'camp-sites.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+    await expect.poll(() => b.page.getByText('Imported 2 sites from camp-sites.csv.', { exact: false }).count()).toBe(1);
+    expect(await b.page.getByText('line 4: lat_deg', { exact: false }).count()).toBe(1);
+    await waitFresh(b.page);
+    expect(await b.page.locator('table th.name', { hasText: 'Orrin Shoal' }).count()).toBe(1);
+    const exported = readCsvTable((await downloadText(b.page, 'Sites CSV')).text);
+    expect(exported.records.map((r) => r.name)).toEqual(expect.arrayContaining(['Orrin Shoal', '=cmd|x']));
+    await b.page.getByRole('button', { name: 'Remove site Orrin Shoal' }).click();
+    await b.page.getByRole('button', { name: 'Remove site =cmd|x' }).click();
+    await waitFresh(b.page);
+  });
+
   it('keeps a site named like markup inert, in the page and in the SVG export', async () => {
     const evil = '<img src=x onerror=alert(1)>';
     await b.page.getByLabel('Site name').fill(evil);

@@ -17,6 +17,7 @@ function makePlot(el: HTMLElement, vary: 'pdyn' | 'bz', data: uPlot.AlignedData)
     {
       width: Math.max(280, el.clientWidth),
       height: 220,
+      legend: { live: false },
       scales: { x: { time: false, distr: vary === 'pdyn' ? 3 : 1 }, y: { auto: true } },
       axes: [
         { label: vary === 'pdyn' ? 'Pdyn (nPa)' : 'IMF Bz (nT)', stroke: '#c8d3e0', grid: { stroke: '#2a3447' } },

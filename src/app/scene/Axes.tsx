@@ -12,7 +12,7 @@ export function Axes() {
     const a = new THREE.Vector3(frames.axisGeo[0], frames.axisGeo[1], frames.axisGeo[2]).normalize();
     const s = new THREE.Vector3(frames.sunGeo[0], frames.sunGeo[1], frames.sunGeo[2]).normalize();
     const axisGeom = new THREE.BufferGeometry().setFromPoints([a.clone().multiplyScalar(-1.8), a.clone().multiplyScalar(1.8)]);
-    const sun = new THREE.ArrowHelper(s, s.clone().multiplyScalar(1.2), 2.6, 0xffd24a, 0.45, 0.22);
+    const sun = new THREE.ArrowHelper(s, s.clone().multiplyScalar(1.15), 1.7, 0xffd24a, 0.3, 0.14);
     return { a, axisGeom, sun };
   }, [frames]);
   useEffect(() => {

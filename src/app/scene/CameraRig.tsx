@@ -27,11 +27,11 @@ function presetPosition(p: ViewPreset): THREE.Vector3 {
   const z = new THREE.Vector3(0, 0, 1);
   const dusk = new THREE.Vector3().crossVectors(z, sun).normalize();
   switch (p) {
-    case 'dayside': return sun.clone().multiplyScalar(5).addScaledVector(z, 0.8);
-    case 'nightside': return sun.clone().multiplyScalar(-5).addScaledVector(z, 1.2);
+    case 'dayside': return sun.clone().multiplyScalar(7).addScaledVector(dusk, 2.5).addScaledVector(z, 1.2);
+    case 'nightside': return sun.clone().multiplyScalar(-6).addScaledVector(z, 1.5);
     case 'north': return z.clone().multiplyScalar(4.5).addScaledVector(sun, -0.05);
     case 'south': return z.clone().multiplyScalar(-4.5).addScaledVector(sun, -0.05);
-    default: return sun.clone().multiplyScalar(-6).addScaledVector(dusk, 12).addScaledVector(z, 5);
+    default: return sun.clone().multiplyScalar(-11).addScaledVector(dusk, 22).addScaledVector(z, 9);
   }
 }
 

@@ -44,7 +44,8 @@ void main() {
   vec3 c = texture2D(land, uv).rgb;
   float d = dot(n, sun);
   float day = smoothstep(-0.08, 0.08, d);
-  vec3 night = c * 0.22 + vec3(0.0, 0.01, 0.03);
+  // Linear light (the output is sRGB-encoded below): 0.045 reads as a dim night side.
+  vec3 night = c * 0.045 + vec3(0.0, 0.002, 0.008);
   vec3 lit = c * (0.6 + 0.4 * max(d, 0.0));
   gl_FragColor = vec4(mix(night, lit, day), 1.0);
   #include <colorspace_fragment>

@@ -27,7 +27,7 @@ export function FieldLines() {
   if (!geom || !show) return null;
   return (
     <lineSegments geometry={geom} name="field-lines">
-      <lineBasicMaterial vertexColors transparent opacity={0.9} />
+      <lineBasicMaterial vertexColors transparent opacity={0.8} />
     </lineSegments>
   );
 }

@@ -26,7 +26,7 @@ export function Magnetopause() {
   return (
     <group name="magnetopause">
       <mesh geometry={geom} renderOrder={2}>
-        <meshBasicMaterial color="#6fa8ff" transparent opacity={0.07} side={THREE.DoubleSide} depthWrite={false} />
+        <meshBasicMaterial color="#6fa8ff" transparent opacity={0.09} side={THREE.DoubleSide} depthWrite={false} />
       </mesh>
       <mesh geometry={geom} renderOrder={3}>
         <meshBasicMaterial color="#6fa8ff" wireframe transparent opacity={0.035} depthWrite={false} />

@@ -24,6 +24,7 @@ export const SITE_HEADER = [
   'name', 'lat_deg', 'lon_deg', 'line_type', 'conjugate_lat_deg', 'conjugate_lon_deg', 'conjugate_alt_km',
   'equator_distance_re', 'l_shell', 'mlt_h', 'mag_lat_deg', 'oval_relation',
   'sky_elevation_deg', 'sky_azimuth_deg', 'sky_distance_km', 'sky_visible',
+  'open_closed_mag_lat_deg', 'equatorward_mag_lat_deg',
 ];
 
 export function siteRow(s: SiteResult): Cell[] {
@@ -32,6 +33,7 @@ export function siteRow(s: SiteResult): Cell[] {
     s.name, r(s.latDeg, 5), r(s.lonDeg, 5), s.type, r(c?.geoLatDeg, 4), r(c?.geoLonDeg, 4), r(c?.altKm, 1),
     r(s.equatorRe, 3), r(s.lShell, 3), r(s.mltHours, 3), r(s.magLatDeg, 4), s.ovalRelation,
     r(s.sky?.elevationDeg, 2), r(s.sky?.azimuthDeg, 2), r(s.sky?.distanceKm, 1), s.sky ? s.sky.visible : null,
+    r(s.boundaries?.openClosedMagLatDeg, 4), r(s.boundaries?.equatorwardMagLatDeg, 4),
   ];
 }
 

@@ -75,6 +75,10 @@ export function PolarMap({ hemisphere }: { hemisphere: 'north' | 'south' }) {
       {curve && <path d={ring(curve.equatorwardGeoLatDeg, curve.equatorwardGeoLonDeg)} fill="none" stroke={OVAL_COLOURS.equatorward} strokeWidth={1.2} />}
       {vis && <path d={vis} fill="none" stroke={OVAL_COLOURS.visibility} strokeWidth={1} strokeDasharray="4 3" data-layer="visibility" />}
       <path d={static_.rim} fill="none" stroke="#8aa4c0" />
+      {frames && (() => {
+        const p = north ? mark(frames.poleLatDeg, frames.poleLonDeg) : mark(-frames.poleLatDeg, frames.poleLonDeg + 180);
+        return p && <path d={`M${p[0] - 4},${p[1]}h8M${p[0]},${p[1] - 4}v8`} stroke="#ff7b5c" strokeWidth={1.5}><title>dipole pole</title></path>;
+      })()}
       {sites.map((s, i) => {
         const p = mark(s.latDeg, s.lonDeg);
         return p && (

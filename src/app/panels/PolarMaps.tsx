@@ -21,6 +21,7 @@ export function PolarMaps() {
         <li><i style={{ background: OVAL_COLOURS.equatorward }} /> equatorward edge</li>
         <li><i className="dash" style={{ borderColor: OVAL_COLOURS.visibility }} /> seen at ≥ {minEl}° elevation up to here ({visibilityAngleDeg(h, minEl).toFixed(1)}° from the edge, {h} km)</li>
         <li><i style={{ background: SITE_COLOURS.site }} /> site <i style={{ background: SITE_COLOURS.conjugate }} /> conjugate</li>
+        <li><b style={{ color: '#ff7b5c' }}>+</b> dipole pole · shaded: night (terminator at the ground)</li>
       </ul>
     </section>
   );

@@ -24,9 +24,12 @@ export function SiteTable() {
             <th scope="col">L</th>
             <th scope="col">MLT</th>
             <th scope="col">Mag lat (°)</th>
+            <th scope="col" title="open–closed boundary at the site's MLT (magnetic latitude)">OCB (°)</th>
+            <th scope="col" title="equatorward edge at the site's MLT (magnetic latitude)">Eq. edge (°)</th>
             <th scope="col">Oval</th>
             <th scope="col">Sky elev (°)</th>
             <th scope="col">Sky az (°)</th>
+            <th scope="col">Sky dist (km)</th>
             <th scope="col"><span className="sr">Remove</span></th>
           </tr>
         </thead>
@@ -45,9 +48,12 @@ export function SiteTable() {
                 <td>{fmt(r?.lShell, 2)}</td>
                 <td>{fmtMlt(r?.mltHours)}</td>
                 <td>{fmt(r?.magLatDeg, 2)}</td>
+                <td>{fmt(r?.boundaries?.openClosedMagLatDeg, 2)}</td>
+                <td>{fmt(r?.boundaries?.equatorwardMagLatDeg, 2)}</td>
                 <td>{r?.ovalRelation ?? '…'}</td>
                 <td>{r?.sky ? `${fmt(r.sky.elevationDeg, 1)}${r.sky.visible ? '' : ' (low)'}` : '–'}</td>
                 <td>{fmt(r?.sky?.azimuthDeg, 0)}</td>
+                <td>{fmt(r?.sky?.distanceKm, 0)}</td>
                 <td>
                   <button type="button" className="x" aria-label={`Remove site ${s.name}`} onClick={() => removeSite(i)}>×</button>
                 </td>

@@ -21,6 +21,8 @@ export function ViewBar() {
         {legend.map((l) => (
           <li key={l.label}><i style={{ background: l.colour }} /> {l.label}</li>
         ))}
+        <li><i style={{ background: '#ffd24a' }} /> Sun</li>
+        <li><i style={{ background: '#ff7b5c' }} /> dipole axis (N)</li>
       </ul>
       <p className="status" aria-live="off">
         {f ? `tilt ${fmt(f.tiltDeg, 1)}° · B0 ${fmt(f.b0Nt, 0)} nT · pole ${fmt(f.poleLatDeg, 2)}°, ${fmt(f.poleLonDeg, 2)}°` : 'starting engine…'}

@@ -91,7 +91,8 @@ export function graticuleSegments(rRe: number, stepLatDeg: number, stepLonDeg: n
   // Magnetic frame: z along the axis, y = ẑ_geo × axis (MAG convention), x = y × z.
   let ex = [1, 0, 0], ey = [0, 1, 0], ez = [0, 0, 1];
   if (axis) {
-    ez = [axis[0], axis[1], axis[2]];
+    const na = Math.hypot(axis[0], axis[1], axis[2]) || 1;
+    ez = [axis[0] / na, axis[1] / na, axis[2] / na];
     const yy = [-ez[1], ez[0], 0];
     const n = Math.hypot(yy[0], yy[1]) || 1;
     ey = [yy[0] / n, yy[1] / n, 0];

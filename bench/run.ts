@@ -78,6 +78,8 @@ interface SectionReport {
   seconds?: number;
   /** CPU time / wall time of the section (≈1 on an idle core; GC threads can push it slightly above). */
   cpuShare?: number;
+  /** Peak resident set of the process after the section (cumulative over the run), MiB. */
+  maxRssMiB?: number;
   /** key → value, the figures for scripts. */
   values?: Record<string, number>;
   figures?: Figure[];
@@ -136,12 +138,12 @@ async function main(): Promise<void> {
   let failed = false;
   for (const entry of SECTIONS) {
     if (args.only !== null && entry.name !== args.only) continue;
-    const t0 = performance.now();
-    const c0 = process.cpuUsage();
     try {
       const s = await entry.load();
       if (!s) { sections[entry.name] = { status: 'missing' }; continue; }
       log(`bench: running ${entry.name}…`);
+      const t0 = performance.now();
+      const c0 = process.cpuUsage();
       const r: SectionResult = await s.run({ quick: args.quick, log });
       const values: Record<string, number> = {};
       for (const f of r.figures) values[f.key] = f.value;
@@ -150,7 +152,8 @@ async function main(): Promise<void> {
       // Share of the wall time this process was on a CPU: well below 1 means other load inflated the wall-time figures.
       const cpuShare = (cu.user + cu.system) / 1e6 / wall;
       if (cpuShare < 0.9) log(`bench: ${entry.name}: the process ran only ${(100 * cpuShare).toFixed(0)} % of the wall time (busy machine): prefer the cpu-time figures`);
-      sections[entry.name] = { title: s.title, status: 'ok', seconds: wall, cpuShare, values, figures: r.figures, detail: r.detail };
+      const maxRssMiB = process.resourceUsage().maxRSS / 1024;
+      sections[entry.name] = { title: s.title, status: 'ok', seconds: wall, cpuShare, maxRssMiB, values, figures: r.figures, detail: r.detail };
     } catch (e) {
       failed = true;
       const err = e instanceof Error ? e.message : String(e);

@@ -1,10 +1,5 @@
 /** Small display conversions for the controls (no field physics). */
 
-/** Pdyn [nPa] from density n [cm⁻³] and speed v [km/s] when Na/Np is unknown: 2.0e-6 n v² (CHECKS §3; OMNI convention). */
-export function pdynFromDensitySpeed(nCm3: number, vKms: number): number {
-  return 2.0e-6 * nCm3 * vKms * vKms;
-}
-
 /** Log-slider position (0..1000) ↔ value in [lo, hi]. */
 export function logToSlider(v: number, lo: number, hi: number): number {
   const c = Math.min(hi, Math.max(lo, v));

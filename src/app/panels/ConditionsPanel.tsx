@@ -2,7 +2,8 @@
 import { useState } from 'react';
 import { setConditions, setProducts, setView, useStore, type AltPreset } from '../store';
 import { ALT_PRESETS } from '../scenario';
-import { logToSlider, pdynFromDensitySpeed, sliderToLog } from '../lib/units';
+import { logToSlider, sliderToLog } from '../lib/units';
+import { pdynFromPlasmaNominal } from '../../physics/magnetopause';
 import { NumberField } from './NumberField';
 import { TimeControl } from './TimeControl';
 
@@ -14,6 +15,7 @@ export function ConditionsPanel() {
   const p = useStore((s) => s.products);
   const view = useStore((s) => s.view);
   const [nv, setNv] = useState({ n: 5, v: 450 });
+  const pFromNv = Number(pdynFromPlasmaNominal(nv.n, nv.v).toPrecision(3)); // the field bounds keep n, v valid
   return (
     <section className="panel" aria-labelledby="cond-h">
       <h2 id="cond-h">Conditions</h2>
@@ -31,8 +33,8 @@ export function ConditionsPanel() {
         <summary>From density and speed</summary>
         <NumberField label="Proton density (cm⁻³)" value={nv.n} min={0.01} max={500} onCommit={(n) => setNv({ ...nv, n })} />
         <NumberField label="Solar-wind speed (km/s)" value={nv.v} min={100} max={3000} step={10} onCommit={(v) => setNv({ ...nv, v })} />
-        <button type="button" onClick={() => setConditions({ pdynNpa: Number(pdynFromDensitySpeed(nv.n, nv.v).toPrecision(3)) })}>
-          Use {pdynFromDensitySpeed(nv.n, nv.v).toPrecision(3)} nPa
+        <button type="button" onClick={() => setConditions({ pdynNpa: Math.min(P_HI, Math.max(P_LO, pFromNv)) })}>
+          Use {pFromNv} nPa
         </button>
       </details>
       <NumberField label="IMF Bz (nT)" value={c.bzNt} min={-50} max={50} step={0.5} onCommit={(v) => setConditions({ bzNt: v })} />

@@ -25,7 +25,7 @@ export function PolarMap({ hemisphere }: { hemisphere: 'north' | 'south' }) {
     [north],
   );
   const path = useMemo(() => geoPath(proj), [proj]);
-  const static_ = useMemo(() => ({ land: path(landFeature()) ?? '', grat: path(geoGraticule().step([30, 10])()) ?? '', rim: path({ type: 'Sphere' }) ?? '' }), [path]);
+  const base = useMemo(() => ({ land: path(landFeature()) ?? '', grat: path(geoGraticule().step([30, 10])()) ?? '', rim: path({ type: 'Sphere' }) ?? '' }), [path]);
   const curve: BoundaryCurve | undefined = oval?.curves.find((c) => c.hemisphere === hemisphere);
 
   const night = useMemo(() => {
@@ -53,7 +53,6 @@ export function PolarMap({ hemisphere }: { hemisphere: 'north' | 'south' }) {
     const pole = north ? [frames.poleLatDeg, frames.poleLonDeg] : [-frames.poleLatDeg, frames.poleLonDeg + 180];
     const pts = visibilityLimit(curve.equatorwardGeoLatDeg, curve.equatorwardGeoLonDeg, pole[0], pole[1], visibilityAngleDeg(h, minEl));
     return ring(pts.map((p) => p[1]), pts.map((p) => p[0]));
-    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [curve, frames, altKm, minEl, north]);
 
   const onClick = (e: MouseEvent<SVGSVGElement>) => {
@@ -66,15 +65,15 @@ export function PolarMap({ hemisphere }: { hemisphere: 'north' | 'south' }) {
   return (
     <svg viewBox={`0 0 ${SIZE} ${SIZE}`} width={SIZE} height={SIZE} role="img" aria-label={`${north ? 'North' : 'South'} polar map, geographic, poleward of 40°`} onClick={onClick} data-map={hemisphere} xmlns="http://www.w3.org/2000/svg">
       <title>{`${north ? 'North' : 'South'} polar map (GEO, azimuthal equidistant)`}</title>
-      <path d={static_.rim} fill="#123a5c" />
-      <path d={static_.land} fill="#6f8f63" stroke="#d9e6c8" strokeWidth={0.5} />
+      <path d={base.rim} fill="#123a5c" />
+      <path d={base.land} fill="#6f8f63" stroke="#d9e6c8" strokeWidth={0.5} />
       <path d={night} fill="#000010" fillOpacity={0.45} />
-      <path d={static_.grat} fill="none" stroke="#8aa4c0" strokeOpacity={0.35} strokeWidth={0.5} />
+      <path d={base.grat} fill="none" stroke="#8aa4c0" strokeOpacity={0.35} strokeWidth={0.5} />
       {band && <path d={band} fill={OVAL_COLOURS.band} fillOpacity={0.5} fillRule="evenodd" stroke="none" data-layer="oval" />}
       {curve && <path d={ring(curve.openClosedGeoLatDeg, curve.openClosedGeoLonDeg)} fill="none" stroke={OVAL_COLOURS.openClosed} strokeWidth={1.2} />}
       {curve && <path d={ring(curve.equatorwardGeoLatDeg, curve.equatorwardGeoLonDeg)} fill="none" stroke={OVAL_COLOURS.equatorward} strokeWidth={1.2} />}
       {vis && <path d={vis} fill="none" stroke={OVAL_COLOURS.visibility} strokeWidth={1} strokeDasharray="4 3" data-layer="visibility" />}
-      <path d={static_.rim} fill="none" stroke="#8aa4c0" />
+      <path d={base.rim} fill="none" stroke="#8aa4c0" />
       {frames && (() => {
         const p = north ? mark(frames.poleLatDeg, frames.poleLonDeg) : mark(-frames.poleLatDeg, frames.poleLonDeg + 180);
         return p && <path d={`M${p[0] - 4},${p[1]}h8M${p[0]},${p[1] - 4}v8`} stroke="#ff7b5c" strokeWidth={1.5}><title>dipole pole</title></path>;

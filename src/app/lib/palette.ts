@@ -1,7 +1,7 @@
 /**
  * Fieldline Atlas colours (our own palette, documented in DEVELOPERS.md):
  * closed lines teal, open lines amber, unresolved lines grey-violet; the
- * oval band a pale green, its poleward (open–closed) edge amber, its
+ * oval band a bright green (land is a neutral stone so the two never blend), its poleward (open–closed) edge amber, its
  * equatorward edge teal to echo the line types they separate.
  */
 import { LINE_KIND_NAMES, type LineKind } from '../../../workers/protocol';
@@ -12,7 +12,10 @@ export const LINE_COLOURS: Record<(typeof LINE_KIND_NAMES)[number], string> = {
   unresolved: '#9a8fb8',
 };
 
-export const OVAL_COLOURS = { band: '#7ee08a', openClosed: '#f0a030', equatorward: '#2bb5a8', visibility: '#e86a8a' } as const;
+/** Globe and map base colours: land a neutral stone, ocean deep blue, coastlines pale. */
+export const BASE_COLOURS = { land: '#7a776a', ocean: '#123a5c', coast: '#d9dccb' } as const;
+
+export const OVAL_COLOURS = { band: '#5cf07a', openClosed: '#f0a030', equatorward: '#2bb5a8', visibility: '#e86a8a' } as const;
 
 export const SITE_COLOURS = { site: '#ffffff', conjugate: '#ff5fa2' } as const;
 

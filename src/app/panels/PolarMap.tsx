@@ -3,7 +3,7 @@ import { useMemo, type MouseEvent } from 'react';
 import { geoAzimuthalEquidistant, geoCircle, geoGraticule, geoPath } from 'd3-geo';
 import type { BoundaryCurve } from '../../../workers/protocol';
 import { landFeature } from '../lib/atlas';
-import { OVAL_COLOURS, SITE_COLOURS } from '../lib/palette';
+import { BASE_COLOURS, OVAL_COLOURS, SITE_COLOURS } from '../lib/palette';
 import { visibilityAngleDeg, visibilityLimit } from '../lib/visibility';
 import { directionLatLon } from '../lib/units';
 import { useStore } from '../store';
@@ -65,11 +65,11 @@ export function PolarMap({ hemisphere }: { hemisphere: 'north' | 'south' }) {
   return (
     <svg viewBox={`0 0 ${SIZE} ${SIZE}`} width={SIZE} height={SIZE} role="img" aria-label={`${north ? 'North' : 'South'} polar map, geographic, poleward of 40°`} onClick={onClick} data-map={hemisphere} xmlns="http://www.w3.org/2000/svg">
       <title>{`${north ? 'North' : 'South'} polar map (GEO, azimuthal equidistant)`}</title>
-      <path d={base.rim} fill="#123a5c" />
-      <path d={base.land} fill="#6f8f63" stroke="#d9e6c8" strokeWidth={0.5} />
+      <path d={base.rim} fill={BASE_COLOURS.ocean} />
+      <path d={base.land} fill={BASE_COLOURS.land} stroke={BASE_COLOURS.coast} strokeWidth={0.5} />
       <path d={night} fill="#000010" fillOpacity={0.45} />
       <path d={base.grat} fill="none" stroke="#8aa4c0" strokeOpacity={0.35} strokeWidth={0.5} />
-      {band && <path d={band} fill={OVAL_COLOURS.band} fillOpacity={0.5} fillRule="evenodd" stroke="none" data-layer="oval" />}
+      {band && <path d={band} fill={OVAL_COLOURS.band} fillOpacity={0.45} fillRule="evenodd" stroke="none" data-layer="oval" />}
       {curve && <path d={ring(curve.openClosedGeoLatDeg, curve.openClosedGeoLonDeg)} fill="none" stroke={OVAL_COLOURS.openClosed} strokeWidth={1.2} />}
       {curve && <path d={ring(curve.equatorwardGeoLatDeg, curve.equatorwardGeoLonDeg)} fill="none" stroke={OVAL_COLOURS.equatorward} strokeWidth={1.2} />}
       {vis && <path d={vis} fill="none" stroke={OVAL_COLOURS.visibility} strokeWidth={1} strokeDasharray="4 3" data-layer="visibility" />}

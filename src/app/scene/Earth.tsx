@@ -4,6 +4,7 @@ import { useThree, type ThreeEvent } from '@react-three/fiber';
 import * as THREE from 'three';
 import { geoEquirectangular, geoPath } from 'd3-geo';
 import { coastSegments, landFeature } from '../lib/atlas';
+import { BASE_COLOURS } from '../lib/palette';
 import { useStore } from '../store';
 import { addSiteAt } from '../sites';
 import { geodeticFromGeo } from '../../physics/geodesy';
@@ -15,12 +16,12 @@ function landTexture(): THREE.Texture {
   canvas.width = w;
   canvas.height = h;
   const ctx = canvas.getContext('2d')!;
-  ctx.fillStyle = '#123a5c';
+  ctx.fillStyle = BASE_COLOURS.ocean;
   ctx.fillRect(0, 0, w, h);
   const path = geoPath(geoEquirectangular().scale(w / (2 * Math.PI)).translate([w / 2, h / 2]).precision(0.5), ctx);
   ctx.beginPath();
   path(landFeature());
-  ctx.fillStyle = '#6f8f63';
+  ctx.fillStyle = BASE_COLOURS.land;
   ctx.fill();
   const tex = new THREE.CanvasTexture(canvas);
   tex.colorSpace = THREE.SRGBColorSpace;
@@ -83,7 +84,7 @@ export function Earth() {
         <sphereGeometry args={[1, 128, 64]} />
       </mesh>
       <lineSegments geometry={coast}>
-        <lineBasicMaterial color="#d9e6c8" transparent opacity={0.85} />
+        <lineBasicMaterial color={BASE_COLOURS.coast} transparent opacity={0.85} />
       </lineSegments>
     </group>
   );

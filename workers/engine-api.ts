@@ -18,7 +18,18 @@ import type {
 
 type Channel = 'scene' | 'oval' | 'sites' | 'sweep';
 
-const yieldToQueue = (): Promise<void> => new Promise((r) => setTimeout(r, 0));
+/**
+ * Let queued messages (newer requests) run. A MessageChannel round trip is not
+ * clamped like nested setTimeout (≥ 4 ms in browsers). Node has setImmediate.
+ */
+const yieldToQueue: () => Promise<void> = (() => {
+  if (typeof setImmediate === 'function') return () => new Promise<void>((r) => setImmediate(r));
+  if (typeof MessageChannel === 'undefined') return () => new Promise<void>((r) => setTimeout(r, 0));
+  const ch = new MessageChannel();
+  const waiting: (() => void)[] = [];
+  ch.port1.onmessage = () => waiting.shift()?.();
+  return () => new Promise<void>((r) => { waiting.push(r); ch.port2.postMessage(0); });
+})();
 
 export class StaleRequest extends Error {}
 

@@ -23,6 +23,7 @@ export function commonFlags(formats: readonly OutputFormat[]): FlagSpec[] {
     { name: 'tilt-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'dipole tilt, overrides the tilt from --time', defaultText: 'from --time' },
     { name: 'internal', kind: 'enum', meta: 'dipole|igrf', values: ['dipole', 'igrf'], help: 'main field: centred dipole of the date or full IGRF-14', defaultText: DEFAULT_CONDITIONS.internal },
     { name: 'magnetopause', kind: 'enum', meta: 'on|off', values: ['on', 'off'], help: 'off removes both the compression term and the boundary', defaultText: 'on' },
+    { name: 'tail', kind: 'enum', meta: 'on|off', values: ['on', 'off'], help: 'tail current-sheet term (off for the dipole + magnetopause analytic limits)', defaultText: DEFAULT_CONDITIONS.tail ? 'on' : 'off' },
     { name: 'imf-efficiency', kind: 'number', meta: '<0..1>', min: 0, max: 1, help: 'share of the IMF that penetrates the magnetosphere', defaultText: String(DEFAULT_IMF_EFFICIENCY) },
     { name: 'alt-km', kind: 'number', meta: '<km>', unit: 'km', min: 0, max: 5000, help: 'footpoint altitude above the WGS84 ellipsoid', defaultText: String(DEFAULT_ALT_KM) },
     { name: 'format', kind: 'enum', meta: formats.join('|'), values: formats, help: 'output format', defaultText: 'json' },
@@ -41,6 +42,7 @@ export function conditionsFromFlags(f: ParsedFlags, now: Date): FieldConditions 
     internal: ((f.internal as string | undefined) ?? DEFAULT_CONDITIONS.internal) as FieldConditions['internal'],
     magnetopause: f.magnetopause === undefined ? DEFAULT_CONDITIONS.magnetopause : f.magnetopause === 'on',
     imfEfficiency: (f['imf-efficiency'] as number | undefined) ?? DEFAULT_IMF_EFFICIENCY,
+    tail: f.tail === undefined ? DEFAULT_CONDITIONS.tail : f.tail === 'on',
   };
 }
 
@@ -61,7 +63,7 @@ export function programVersion(): string {
 
 /**
  * The conditions block: the keys fixed by issue 3 first, then extras (the
- * tilt's origin, the Shue flaring exponent, the dipole of the date, the
+ * tail switch of issue 6, the tilt's origin, the Shue flaring exponent, the dipole of the date, the
  * coefficient epoch and the program version).
  */
 export function conditionsBlock(model: PreparedModel, altKm: number, warnings: readonly string[]): Record<string, unknown> {
@@ -79,6 +81,7 @@ export function conditionsBlock(model: PreparedModel, altKm: number, warnings: r
     imfEfficiency: c.imfEfficiency,
     altKm,
     warnings: [...warnings],
+    tail: c.tail ?? false,
     tiltSource: c.tiltDeg === null || c.tiltDeg === undefined ? 'time' : 'override',
     flaringAlpha: mp ? mp.alpha : null,
     b0Nt: model.dipole.b0Nt,
@@ -100,6 +103,7 @@ const FLAG_OF_FIELD: Record<string, string> = {
   internal: '--internal',
   magnetopause: '--magnetopause',
   imfEfficiency: '--imf-efficiency',
+  tail: '--tail',
   altKm: '--alt-km',
   lat: '--lat',
   lon: '--lon',

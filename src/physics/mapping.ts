@@ -17,8 +17,11 @@ export type { Footpoint, EquatorCrossing, Hemisphere };
  * Default equatorial source distance of the equatorward precipitation edge, RE:
  * near the inner edge of the plasma sheet, where the diffuse aurora's electrons
  * come from (common practice; ~6–8 RE in quiet to moderate conditions, from memory).
+ * 7 RE (issue 6 calibration, scripts/realism.ts): with the tail sheet on, the edge then
+ * moves equatorward with southward Bz in every sector (at 8 RE the compression of the
+ * dayside by the Bz-dependent Shue standoff outweighs the stretching at noon).
  */
-export const DEFAULT_SOURCE_RE = 8;
+export const DEFAULT_SOURCE_RE = 7;
 
 export interface LineResult {
   type: LineType;

@@ -18,7 +18,7 @@ const radiusRe = (latDeg: number, lonDeg: number) => Math.hypot(...geoFromGeodet
 describe('Dungey polar cap through `oval` (CHECKS §5: Dungey 1961, derived)', () => {
   for (const [b, worked] of [[5, 73.28], [10, 71.17]]) {
     it(`b = ${b} nT: boundary latitude from the formula with the model's B0, and the worked value ${worked}° (B0 = 29,800 nT)`, async () => {
-      const j = await cliJson('oval', ...T, '--magnetopause', 'off', '--imf-efficiency', '1', '--bz', String(-b), '--tilt-deg', '0', '--alt-km', '0', '--internal', 'dipole', '--mlt-step', '6');
+      const j = await cliJson('oval', ...T, '--magnetopause', 'off', '--tail', 'off', '--imf-efficiency', '1', '--bz', String(-b), '--tilt-deg', '0', '--alt-km', '0', '--internal', 'dipole', '--mlt-step', '6');
       const b0 = j.conditions.b0Nt as number;
       let worst = 0;
       for (const h of j.hemispheres)
@@ -99,7 +99,7 @@ describe('the conjugate of the conjugate returns the site (invariant, issue 3)',
 
 describe('dipole geometry through `trace` and `field` (CHECKS §1, derived)', () => {
   it('line from magnetic latitude 60° on r = 1: equator at L = 4, |B|eq = B0/L³; conjugate at the same magnetic longitude', async () => {
-    const j = await cliJson('trace', ...T, '--coords', 'mag', '--lat', '60', '--lon', '40', '--magnetopause', 'off', '--internal', 'dipole');
+    const j = await cliJson('trace', ...T, '--coords', 'mag', '--lat', '60', '--lon', '40', '--magnetopause', 'off', '--tail', 'off', '--internal', 'dipole');
     const b0 = j.conditions.b0Nt;
     // Measured: rRe − 4 = −8.2e-5 RE, |B| + 0.0122 nT (the minimum-|B| point is a parabola through samples).
     expectClose(j.fieldLine.equator.rRe, 4, 1e-4, 'equatorial distance L = 1/cos²60°');
@@ -117,7 +117,7 @@ describe('dipole geometry through `trace` and `field` (CHECKS §1, derived)', ()
   });
 
   it('field at GSM (6.6, 0, 0), zero tilt, magnetopause off: (0, 0, B0/6.6³)', async () => {
-    const j = await cliJson('field', ...T, '--gsm', '6.6,0,0', '--tilt-deg', '0', '--magnetopause', 'off');
+    const j = await cliJson('field', ...T, '--gsm', '6.6,0,0', '--tilt-deg', '0', '--magnetopause', 'off', '--tail', 'off');
     const b0 = j.conditions.b0Nt;
     expectClose(j.bGsmNt[0], 0, 1e-9, 'Bx');
     expectClose(j.bGsmNt[1], 0, 1e-9, 'By');

@@ -1,0 +1,184 @@
+/**
+ * Tail current sheet: a two-dimensional (y-independent) dawn-to-dusk current
+ * sheet on the nightside, hinged so that it follows the dipole equator near
+ * Earth and the GSM equator far down the tail.
+ *
+ * Field from a vector potential A(x, z') ŷ, B = ∇×(A ŷ) = (−∂A/∂z, 0, ∂A/∂x), so B is
+ * divergence-free exactly (derived; also for the hinged coordinate z' = z − z0(x),
+ * since B is still the curl of a potential). Kernel: the line current along ŷ,
+ * A = −(μ0 I/4π) ln(ρ²), regularised ρ² → (x − x')² + z'² + D² (D the sheet's
+ * half-thickness scale), and integrated over x' across a band x_outer < x' < x_inner
+ * in closed form with ∫ ln(u² + s²) du = u ln(u² + s²) − 2u + 2s·atan(u/s), s² = z'² + D²
+ * (derived). Writing b = μ0 K/2 for the lobe field of one band (K its surface current):
+ *   Bx = (b/π)(z'/s)[atan((x − x_o)/s) − atan((x − x_i)/s)],
+ *   Bz = −(b/2π) ln[((x − x_o)² + s²)/((x − x_i)² + s²)] + z0'(x)·Bx.
+ * Far above a wide band Bx → +b (north lobe, earthward) and below → −b (south lobe).
+ *
+ * Current profile: `nBands` nested bands of equal strength share the inner edge and end at
+ * successively larger distances, so the current density falls tailward in steps and the
+ * lobe field falls from nBands·b near Earth to b far out (the observed tailward decrease
+ * of the lobe field, from memory: ~20–30 nT near 20 RE, ~10 nT beyond 60 RE). Equal
+ * strengths let the logarithms combine into one call (derived): an evaluation costs
+ * nBands + 1 atan, one log and two square roots.
+ *
+ * Hinge (our choice; the hinged-sheet idea is common practice, from memory):
+ * z0(x) = −tan ψ · R_H x/√(x² + R_H²): slope −tan ψ at x = 0 (the dipole equator
+ * x sin ψ + z cos ψ = 0, derived), flat at z0 = R_H tan ψ far down the tail.
+ *
+ * Parameters from the solar wind (`tailParameters`, documented at DEFAULT_TAIL_CALIBRATION):
+ * lobe field ∝ √Pdyn (lobe pressure balance B_L²/2μ0 ∝ Pdyn; Coroniti & Kennel, 1972,
+ * J. Geophys. Res. 77, 3361 — from memory), stronger and closer to Earth for southward
+ * Bz (loading of open flux into the tail, common practice), lengths scaled with the
+ * Shue et al. (1998) standoff r0 so the tail shrinks with the magnetopause.
+ */
+import { InputError, requireFinite, requireInRange } from './errors';
+
+/** Geometry and strength of one tail sheet (GSM, RE, nT). */
+export interface TailParameters {
+  /** Lobe field of the whole sheet near its inner edge, nT (μ0 K_total / 2). */
+  lobeNt: number;
+  /** Distance of the inner (earthward) edge down the tail, RE (x_i = −innerRe). */
+  innerRe: number;
+  /** Distances of the outer edges of the nested bands, RE, each > innerRe. */
+  outerRe: readonly number[];
+  /** Half-thickness scale D, RE. */
+  thicknessRe: number;
+  /** Hinge distance R_H, RE. */
+  hingeRe: number;
+  /** Half-width W of the dawn–dusk taper f(y) = (1 + y²/W²)^−p, RE (Infinity: no taper). */
+  widthRe: number;
+  /** Power p of the taper (1 or 2). */
+  taperPower: number;
+}
+
+/**
+ * How the tail follows the solar wind (see `tailParameters`). Values are the
+ * calibration of issue 6 against the oval statistics of CHECKS §8 (scripts/realism.ts).
+ */
+export interface TailCalibration {
+  /** Lobe field at Pdyn 2 nPa, Bz ≥ 0, nT. */
+  lobeNt: number;
+  /** Fractional growth of the lobe field per nT of southward IMF Bz. */
+  lobePerSouthNt: number;
+  /** Largest lobe growth factor from Bz (saturation). */
+  lobeMaxFactor: number;
+  /** Inner edge at the reference standoff (Pdyn 2, Bz 0: 10.25 RE), in RE. */
+  innerRe: number;
+  /** Earthward shift of the inner edge per nT of southward Bz, RE/nT (beyond the r0 scaling). */
+  innerPerSouthNt: number;
+  /** Closest inner edge, RE. */
+  innerMinRe: number;
+  /** Band lengths beyond the inner edge, RE (at the reference standoff). */
+  bandLengthsRe: readonly number[];
+  /** Half-thickness scale D, RE. */
+  thicknessRe: number;
+  /** Hinge distance, RE. */
+  hingeRe: number;
+  /** Taper half-width at the reference standoff, RE. */
+  widthRe: number;
+  taperPower: number;
+}
+
+/**
+ * Default calibration. Justification (issue 6; the realism table in the README is
+ * generated from these by scripts/realism.ts):
+ *  - lobeNt 20 nT: lobe field of ~15–30 nT near 10–30 RE (from memory), the middle;
+ *  - the rest is set so the boundaries fall inside CHECKS §8 (see the realism table).
+ */
+export const DEFAULT_TAIL_CALIBRATION: Readonly<TailCalibration> = Object.freeze({
+  lobeNt: 20,
+  lobePerSouthNt: 0.12,
+  lobeMaxFactor: 2.5,
+  innerRe: 9,
+  innerPerSouthNt: 0.3,
+  innerMinRe: 4,
+  bandLengthsRe: Object.freeze([12, 40, 150]),
+  thicknessRe: 3.5,
+  hingeRe: 8,
+  widthRe: 20,
+  taperPower: 3,
+});
+
+/** Reference standoff: Shue et al. (1998) r0 at Pdyn 2 nPa, Bz 0 (CHECKS §3: 10.2519 RE). */
+const R0_REF_RE = 10.2519;
+
+/** Shue et al. (1998) eq. 10 standoff, RE (the tail's length scale; also used when the magnetopause is off). */
+function shueStandoffRe(pdynNpa: number, bzNt: number): number {
+  return (10.22 + 1.29 * Math.tanh(0.184 * (bzNt + 8.14))) * Math.pow(pdynNpa, -1 / 6.6);
+}
+
+/**
+ * Tail parameters for dynamic pressure (nPa) and IMF Bz (nT):
+ *  lobe = lobeNt · √(Pdyn/2) · min(1 + lobePerSouthNt·max(0, −Bz), lobeMaxFactor),
+ *  lengths scale with r0/r0_ref (Shue et al., 1998),
+ *  inner = max(innerMinRe, innerRe·r0/r0_ref − innerPerSouthNt·max(0, −Bz)).
+ */
+export function tailParameters(pdynNpa: number, bzNt: number, cal: Readonly<TailCalibration> = DEFAULT_TAIL_CALIBRATION): TailParameters {
+  requireInRange('pdynNpa', pdynNpa, Number.MIN_VALUE, 1e4, 'nPa');
+  requireInRange('bzNt', bzNt, -1000, 1000, 'nT');
+  const south = Math.max(0, -bzNt);
+  const scale = shueStandoffRe(pdynNpa, bzNt) / R0_REF_RE;
+  const lobeNt = cal.lobeNt * Math.sqrt(pdynNpa / 2) * Math.min(1 + cal.lobePerSouthNt * south, cal.lobeMaxFactor);
+  const innerRe = Math.max(cal.innerMinRe, cal.innerRe * scale - cal.innerPerSouthNt * south);
+  const outerRe = cal.bandLengthsRe.map((l) => innerRe + l * scale);
+  return { lobeNt, innerRe, outerRe, thicknessRe: cal.thicknessRe, hingeRe: cal.hingeRe, widthRe: cal.widthRe * scale, taperPower: cal.taperPower };
+}
+
+export interface TailField {
+  readonly params: TailParameters;
+  /** ADDS the sheet's field (GSM nT) at the GSM point (RE) into out; allocation-free. */
+  evaluate(out: Float64Array, x: number, y: number, z: number): void;
+}
+
+/** Prepare the sheet for the given parameters and dipole tilt (sin ψ, cos ψ). */
+export function prepareTail(p: TailParameters, sinTilt: number, cosTilt: number): TailField {
+  requireInRange('lobeNt', p.lobeNt, 0, 1e4, 'nT');
+  requireInRange('innerRe', p.innerRe, 0.5, 1e3, 'RE');
+  requireInRange('thicknessRe', p.thicknessRe, 0.01, 100, 'RE');
+  requireInRange('hingeRe', p.hingeRe, 0.1, 1e3, 'RE');
+  requireFinite('sinTilt', sinTilt);
+  requireFinite('cosTilt', cosTilt);
+  if (!(cosTilt > 0)) throw new InputError('cosTilt', `expected a tilt within ±90° (cos ψ > 0), got cos ψ = ${cosTilt}`);
+  const n = p.outerRe.length;
+  if (n < 1 || n > 8) throw new InputError('outerRe', `expected 1..8 band outer edges, got ${n}`);
+  for (const o of p.outerRe) {
+    if (!(o > p.innerRe) || !Number.isFinite(o)) throw new InputError('outerRe', `expected outer edges beyond the inner edge ${p.innerRe} RE, got ${o}`);
+  }
+  const outer = Float64Array.from(p.outerRe);
+  const xi = p.innerRe; // u_i = x − x_i = x + innerRe
+  const kPi = p.lobeNt / n / Math.PI; // b/π per band
+  const k2Pi = 0.5 * kPi; // b/2π per band
+  const d2 = p.thicknessRe * p.thicknessRe;
+  const tanT = sinTilt / cosTilt;
+  const rh = p.hingeRe;
+  const rh2 = rh * rh;
+  const rh3 = rh2 * rh;
+  const nb = n;
+  const iw2 = Number.isFinite(p.widthRe) ? 1 / (p.widthRe * p.widthRe) : 0;
+  const tp = p.taperPower;
+  const evaluate = (out: Float64Array, x: number, y: number, z: number): void => {
+    const g = 1 / (1 + y * y * iw2);
+    let f = g;
+    for (let j = 1; j < tp; j++) f *= g;
+    // Hinge z0(x) = −tan ψ R_H x/√(x² + R_H²), z0' = −tan ψ R_H³/(x² + R_H²)^{3/2} (derived).
+    const q = x * x + rh2;
+    const iq = 1 / Math.sqrt(q);
+    const zp = z + tanT * rh * x * iq;
+    const dz0 = -tanT * rh3 * iq * iq * iq;
+    const s2 = zp * zp + d2;
+    const s = Math.sqrt(s2);
+    const is = 1 / s;
+    const ui = x + xi;
+    let at = -nb * Math.atan(ui * is);
+    let prod = 1;
+    for (let i = 0; i < nb; i++) {
+      const uo = x + outer[i];
+      at += Math.atan(uo * is);
+      prod *= (uo * uo + s2) / (ui * ui + s2);
+    }
+    const bx = f * kPi * zp * is * at;
+    out[0] += bx;
+    out[2] += -f * k2Pi * Math.log(prod) + dz0 * bx;
+  };
+  return { params: p, evaluate };
+}

@@ -1,0 +1,189 @@
+/**
+ * Realism table (project issue 6): the model's boundaries with the default
+ * calibration against published oval statistics (CHECKS §8), and a plot.
+ *
+ *   npx tsx scripts/realism.ts          # writes docs/realism.md, docs/realism.svg, and the README section
+ *   npx tsx scripts/realism.ts --check  # exits 1 if those files differ from a fresh computation
+ *
+ * Conditions: zero dipole tilt (the statistics are averages over seasons),
+ * centred dipole, By = 0, the tail on, northern hemisphere, footpoints at 110 km.
+ * test/physics/realism.test.ts recomputes the rows and checks every target.
+ */
+import { readFileSync, writeFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { prepareModel } from '../src/physics/model';
+import { makeTracer, sectorBoundaries, ovalBoundaries, mltGrid, DEFAULT_SOURCE_RE } from '../src/physics/mapping';
+import { openFluxWb } from '../src/physics/flux';
+import { DEFAULT_IMF_EFFICIENCY } from '../src/physics/imf';
+
+const TIME = '2025-03-20T12:00:00Z';
+
+export interface RealismRow {
+  /** What is compared, e.g. "open–closed boundary, noon". */
+  quantity: string;
+  conditions: string;
+  model: number;
+  unit: string;
+  /** Published range (inclusive); for trends, the sign is what counts. */
+  lo: number;
+  hi: number;
+  source: string;
+  /** An issue-6 target (asserted by the test) or context only. */
+  target: boolean;
+  /** A target the calibration does not meet, with the reason (the test bounds it by `missBound`). */
+  miss?: { reason: string; bound: number };
+}
+
+interface Sample { noonOc: number; midOc: number; noonEq: number; midEq: number }
+
+function sample(pdynNpa: number, bzNt: number): Sample {
+  const m = prepareModel({ time: TIME, tiltDeg: 0, pdynNpa, bzNt, byNt: 0, tail: true });
+  const t = makeTracer(m);
+  const n = sectorBoundaries(m, t, 'north', 12);
+  const d = sectorBoundaries(m, t, 'north', 0);
+  return { noonOc: n.openClosed?.magLatDeg ?? NaN, midOc: d.openClosed?.magLatDeg ?? NaN, noonEq: n.equatorward?.magLatDeg ?? NaN, midEq: d.equatorward?.magLatDeg ?? NaN };
+}
+
+function openFluxGwb(pdynNpa: number, bzNt: number): number {
+  const m = prepareModel({ time: TIME, tiltDeg: 0, pdynNpa, bzNt, byNt: 0, tail: true });
+  const t = makeTracer(m);
+  const [h] = ovalBoundaries(m, t, ['north'], mltGrid(2));
+  return openFluxWb(m, h) / 1e9;
+}
+
+const BOUNDARY_REVIEW = 'review literature, common practice (CHECKS §8): ~78° noon, ~69° midnight';
+const ZHOU = 'Zhou et al. (2000) JGR 105, 245: cusp ~80° (Bz ≥ 0) to ~73° (Bz −10 nT)';
+const BOAKES = 'Boakes et al. (2009) GRL 36: 0.3–0.9 GWb typical';
+const TREND = 'common practice (CHECKS §8): southward Bz and higher pressure move boundaries equatorward';
+
+/** Plot series: boundaries against Bz at Pdyn 2 nPa. */
+export interface RealismCurves { bz: number[]; noonOc: number[]; midOc: number[]; noonEq: number[]; midEq: number[] }
+
+export function realismData(): { rows: RealismRow[]; curves: RealismCurves } {
+  const bzs = [0, -1, -2, -3, -5, -7, -10];
+  const byBz = new Map<number, Sample>();
+  for (const bz of bzs) byBz.set(bz, sample(2, bz));
+  const p1 = sample(1, -2), p5 = sample(5, -2);
+  const s0 = byBz.get(0)!, s2 = byBz.get(-2)!, s5 = byBz.get(-5)!;
+  const rows: RealismRow[] = [];
+  for (const [bz, s] of [[0, s0], [-2, s2]] as const) {
+    const c = `Pdyn 2 nPa, Bz ${bz} nT`;
+    rows.push({ quantity: 'open–closed boundary, noon', conditions: c, model: s.noonOc, unit: '° MLAT', lo: 76, hi: 80, source: `${BOUNDARY_REVIEW}; ${ZHOU}`, target: true });
+    const miss = bz === 0 ? { reason: 'not met: with Bz = 0 no IMF penetrates, so the nightside opens only beyond the 100 RE trace limit; a stronger tail to fix it breaks the 1 % shielding fit', bound: 75 } : undefined;
+    rows.push({ quantity: 'open–closed boundary, midnight', conditions: c, model: s.midOc, unit: '° MLAT', lo: 66, hi: 72, source: BOUNDARY_REVIEW, target: true, miss });
+  }
+  rows.push({ quantity: 'noon boundary shift per nT of southward Bz', conditions: 'Pdyn 2 nPa, Bz 0 → −5 nT', model: (s0.noonOc - s5.noonOc) / 5, unit: '°/nT', lo: 0.5, hi: 0.8, source: ZHOU, target: true });
+  rows.push({ quantity: 'open flux per hemisphere', conditions: 'Pdyn 2 nPa, Bz −5 nT', model: openFluxGwb(2, -5), unit: 'GWb', lo: 0.3, hi: 0.9, source: BOAKES, target: true });
+  rows.push({ quantity: 'open flux per hemisphere', conditions: 'Pdyn 2 nPa, Bz −2 nT', model: openFluxGwb(2, -2), unit: 'GWb', lo: 0.3, hi: 0.9, source: BOAKES, target: false });
+  rows.push({ quantity: 'noon boundary shift, Pdyn 1 → 5 nPa', conditions: 'Bz −2 nT', model: p5.noonOc - p1.noonOc, unit: '°', lo: -Infinity, hi: 0, source: TREND, target: true });
+  rows.push({ quantity: 'midnight boundary shift, Pdyn 1 → 5 nPa', conditions: 'Bz −2 nT', model: p5.midOc - p1.midOc, unit: '°', lo: -Infinity, hi: 0, source: TREND, target: true });
+  rows.push({ quantity: 'equatorward edge shift, noon, Bz 0 → −5 nT', conditions: `Pdyn 2 nPa, source ${DEFAULT_SOURCE_RE} RE`, model: s5.noonEq - s0.noonEq, unit: '°', lo: -Infinity, hi: 0, source: TREND, target: true });
+  rows.push({ quantity: 'equatorward edge shift, midnight, Bz 0 → −5 nT', conditions: `Pdyn 2 nPa, source ${DEFAULT_SOURCE_RE} RE`, model: s5.midEq - s0.midEq, unit: '°', lo: -Infinity, hi: 0, source: TREND, target: true });
+  rows.push({ quantity: 'equatorward edge shift, midnight, Pdyn 1 → 5 nPa', conditions: `Bz −2 nT, source ${DEFAULT_SOURCE_RE} RE`, model: p5.midEq - p1.midEq, unit: '°', lo: -Infinity, hi: 0, source: TREND, target: true });
+  // At a fixed equatorial source distance the dayside compression moves the noon edge poleward with pressure: shown, not a target.
+  rows.push({ quantity: 'equatorward edge shift, noon, Pdyn 1 → 5 nPa', conditions: `Bz −2 nT, source ${DEFAULT_SOURCE_RE} RE`, model: p5.noonEq - p1.noonEq, unit: '°', lo: -Infinity, hi: 0, source: TREND, target: false });
+  const curves: RealismCurves = { bz: bzs, noonOc: [], midOc: [], noonEq: [], midEq: [] };
+  for (const bz of bzs) {
+    const s = byBz.get(bz)!;
+    curves.noonOc.push(s.noonOc); curves.midOc.push(s.midOc); curves.noonEq.push(s.noonEq); curves.midEq.push(s.midEq);
+  }
+  return { rows, curves };
+}
+
+export function inside(r: RealismRow): boolean {
+  return Number.isFinite(r.model) && r.model >= r.lo && r.model <= r.hi;
+}
+
+const fmt = (v: number, unit: string): string => (unit === 'GWb' || unit === '°/nT' ? v.toFixed(2) : v.toFixed(1));
+const rangeText = (r: RealismRow): string => (r.lo === -Infinity ? (r.hi === 0 ? '< 0 (equatorward)' : `≤ ${r.hi}`) : `${r.lo}–${r.hi}`);
+
+export function realismMarkdown(rows: RealismRow[]): string {
+  const lines = [
+    `| Quantity | Conditions | Model | Published | Inside | Source |`,
+    `|---|---|---|---|---|---|`,
+  ];
+  for (const r of rows) {
+    const ok = inside(r) ? 'yes' : r.target ? `**no**${r.miss ? ` (${r.miss.reason})` : ''}` : 'no (context: at a fixed source distance the dayside compression moves the noon edge poleward)';
+    lines.push(`| ${r.quantity} | ${r.conditions} | ${fmt(r.model, r.unit)} ${r.unit} | ${rangeText(r)} ${r.unit} | ${ok} | ${r.source} |`);
+  }
+  lines.push('');
+  lines.push(`Model: centred dipole, zero tilt, By 0, tail on, ε ${DEFAULT_IMF_EFFICIENCY}, equatorward edge from a ${DEFAULT_SOURCE_RE} RE source, northern hemisphere at 110 km. Generated by \`npx tsx scripts/realism.ts\`; checked by test/physics/realism.test.ts.`);
+  return lines.join('\n') + '\n';
+}
+
+/** A small hand-written SVG: boundary latitude against Bz at Pdyn 2 nPa, with the published bands. */
+export function realismSvg(c: RealismCurves): string {
+  const W = 720, H = 400, L = 60, R = 230, T = 30, B = 50;
+  const x0 = -10, x1 = 0, y0 = 62, y1 = 84;
+  const px = (v: number) => L + ((v - x0) / (x1 - x0)) * (W - L - R);
+  const py = (v: number) => T + ((y1 - v) / (y1 - y0)) * (H - T - B);
+  const out: string[] = [];
+  out.push(`<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" font-family="sans-serif" font-size="12">`);
+  out.push(`<rect x="0" y="0" width="${W}" height="${H}" fill="#ffffff"/>`);
+  // Published bands: noon 76–80, midnight 66–72 (CHECKS §8).
+  out.push(`<rect x="${px(-2)}" y="${py(80)}" width="${px(0) - px(-2)}" height="${py(76) - py(80)}" fill="#f4a261" fill-opacity="0.25"/>`);
+  out.push(`<rect x="${px(-2)}" y="${py(72)}" width="${px(0) - px(-2)}" height="${py(66) - py(72)}" fill="#2a9d8f" fill-opacity="0.25"/>`);
+  // Zhou et al. (2000) cusp trend: 80° at Bz 0 to 73° at −10 nT.
+  out.push(`<line x1="${px(0)}" y1="${py(80)}" x2="${px(-10)}" y2="${py(73)}" stroke="#e76f51" stroke-dasharray="5,4" stroke-width="1.5"/>`);
+  for (let v = y0; v <= y1; v += 2) {
+    out.push(`<line x1="${L}" y1="${py(v)}" x2="${W - R}" y2="${py(v)}" stroke="#dddddd"/>`);
+    out.push(`<text x="${L - 6}" y="${py(v) + 4}" text-anchor="end">${v}°</text>`);
+  }
+  for (let v = x0; v <= x1; v += 2) out.push(`<text x="${px(v)}" y="${H - B + 18}" text-anchor="middle">${v}</text>`);
+  out.push(`<text x="${(L + W - R) / 2}" y="${H - 12}" text-anchor="middle">IMF Bz (nT), Pdyn 2 nPa</text>`);
+  out.push(`<text x="14" y="${(T + H - B) / 2}" text-anchor="middle" transform="rotate(-90 14 ${(T + H - B) / 2})">magnetic latitude</text>`);
+  out.push(`<rect x="${L}" y="${T}" width="${W - L - R}" height="${H - T - B}" fill="none" stroke="#333333"/>`);
+  const series: [string, number[], string, string][] = [
+    ['open–closed, noon', c.noonOc, '#e76f51', ''],
+    ['open–closed, midnight', c.midOc, '#264653', ''],
+    ['equatorward edge, noon', c.noonEq, '#e76f51', '2,3'],
+    ['equatorward edge, midnight', c.midEq, '#264653', '2,3'],
+  ];
+  series.forEach(([name, ys, color, dash], k) => {
+    const pts = c.bz.map((b, i) => [b, ys[i]] as const).filter(([, y]) => Number.isFinite(y));
+    out.push(`<polyline fill="none" stroke="${color}" stroke-width="2"${dash ? ` stroke-dasharray="${dash}"` : ''} points="${pts.map(([b, y]) => `${px(b).toFixed(1)},${py(y).toFixed(1)}`).join(' ')}"/>`);
+    for (const [b, y] of pts) out.push(`<circle cx="${px(b).toFixed(1)}" cy="${py(y).toFixed(1)}" r="2.5" fill="${color}"/>`);
+    const ly = T + 14 + 20 * k;
+    out.push(`<line x1="${W - R + 12}" y1="${ly}" x2="${W - R + 36}" y2="${ly}" stroke="${color}" stroke-width="2"${dash ? ` stroke-dasharray="${dash}"` : ''}/>`);
+    out.push(`<text x="${W - R + 42}" y="${ly + 4}">${name}</text>`);
+  });
+  const ly = T + 14 + 20 * series.length;
+  out.push(`<rect x="${W - R + 12}" y="${ly - 6}" width="24" height="10" fill="#f4a261" fill-opacity="0.25"/><text x="${W - R + 42}" y="${ly + 4}">noon 76–80° (§8)</text>`);
+  out.push(`<rect x="${W - R + 12}" y="${ly + 14}" width="24" height="10" fill="#2a9d8f" fill-opacity="0.25"/><text x="${W - R + 42}" y="${ly + 24}">midnight 66–72° (§8)</text>`);
+  out.push(`<line x1="${W - R + 12}" y1="${ly + 40}" x2="${W - R + 36}" y2="${ly + 40}" stroke="#e76f51" stroke-dasharray="5,4"/><text x="${W - R + 42}" y="${ly + 44}">cusp, Zhou et al. 2000</text>`);
+  out.push('</svg>');
+  return out.join('\n') + '\n';
+}
+
+export const README_START = '<!-- realism:start (generated by scripts/realism.ts) -->';
+export const README_END = '<!-- realism:end -->';
+
+/** The README section body between the markers. */
+export function readmeBlock(md: string): string {
+  return `${README_START}\n${md}\n![Boundary latitude against IMF Bz with the published ranges](docs/realism.svg)\n${README_END}`;
+}
+
+function main(): void {
+  const check = process.argv.includes('--check');
+  const root = new URL('../', import.meta.url);
+  const { rows, curves } = realismData();
+  const md = realismMarkdown(rows);
+  const svg = realismSvg(curves);
+  const readmePath = fileURLToPath(new URL('README.md', root));
+  const readme = readFileSync(readmePath, 'utf8');
+  const a = readme.indexOf(README_START), b = readme.indexOf(README_END);
+  if (a < 0 || b < 0) throw new Error('README.md lacks the realism markers');
+  const newReadme = readme.slice(0, a) + readmeBlock(md) + readme.slice(b + README_END.length);
+  const files: [string, string][] = [['docs/realism.md', md], ['docs/realism.svg', svg], ['README.md', newReadme]];
+  if (check) {
+    let bad = 0;
+    for (const [f, text] of files) {
+      if (readFileSync(fileURLToPath(new URL(f, root)), 'utf8') !== text) { process.stderr.write(`${f} is out of date: run npx tsx scripts/realism.ts\n`); bad++; }
+    }
+    process.exit(bad ? 1 : 0);
+  }
+  for (const [f, text] of files) writeFileSync(fileURLToPath(new URL(f, root)), text);
+  process.stdout.write(md);
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) main();

@@ -41,7 +41,7 @@ describe('Dungey polar cap through `oval` (CHECKS §5: Dungey 1961, derived)', (
 
 describe('north/south symmetry at zero tilt with By = 0 (derived: mirror symmetry of the model about the SM equator)', () => {
   it('open–closed and equatorward latitudes mirror at every MLT', async () => {
-    const j = await cliJson('oval', ...T, '--tilt-deg', '0', '--by', '0', '--bz', '-5', '--mlt-step', '3');
+    const j = await cliJson('oval', ...T, '--tilt-deg', '0', '--by', '0', '--bz', '-5', '--mlt-step', '3', '--tail', 'off');
     const [n, s] = j.hemispheres;
     expect([n.hemisphere, s.hemisphere]).toEqual(['north', 'south']);
     let worst = 0;

@@ -196,7 +196,7 @@ export const tracerSection: BenchSection = {
     const overheadRatioCpu = traceM.cpuMs / nLines / (evalsPerTrace * (pathEval.cpuMs / (10 * pathPts)));
 
     // --- Accuracy and odex comparison in the pure tilt-0 dipole.
-    const dip = prepareModel({ time: BENCH_CONDITIONS.time, internal: 'dipole', magnetopause: false, imfEfficiency: 0, tiltDeg: 0 });
+    const dip = prepareModel({ time: BENCH_CONDITIONS.time, internal: 'dipole', magnetopause: false, imfEfficiency: 0, tiltDeg: 0, tail: false });
     const dTracer = new Tracer(dip, { ellipsoid: false, altKm: ALT_KM });
     const dSeeds = equatorSeeds(dip, ls, [0, 6, 12, 18]);
     const acc = dipoleFootError(dip, dTracer, dSeeds);

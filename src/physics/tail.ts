@@ -19,7 +19,7 @@
  * lobe field falls from nBands·b near Earth to b far out (the observed tailward decrease
  * of the lobe field, from memory: ~20–30 nT near 20 RE, ~10 nT beyond 60 RE). Equal
  * strengths let the logarithms combine into one call (derived): an evaluation costs
- * nBands + 1 atan, one log and two square roots.
+ * nBands atan2, one log and two square roots.
  *
  * Hinge (our choice; the hinged-sheet idea is common practice, from memory):
  * z0(x) = −tan ψ · R_H x/√(x² + R_H²): slope −tan ψ at x = 0 (the dipole equator
@@ -169,13 +169,19 @@ export function prepareTail(p: TailParameters, sinTilt: number, cosTilt: number)
     const s = Math.sqrt(s2);
     const is = 1 / s;
     const ui = x + xi;
-    let at = -nb * Math.atan(ui * is);
-    let prod = 1;
+    const bi = ui * is;
+    const di = ui * ui + s2;
+    // atan(a) − atan(b) = atan2(a − b, 1 + ab) exactly (the difference lies in (−π, π); derived): one call per band.
+    let at = 0;
+    let num = 1, den = 1;
     for (let i = 0; i < nb; i++) {
       const uo = x + outer[i];
-      at += Math.atan(uo * is);
-      prod *= (uo * uo + s2) / (ui * ui + s2);
+      const a = uo * is;
+      at += Math.atan2(a - bi, 1 + a * bi);
+      num *= uo * uo + s2;
+      den *= di;
     }
+    const prod = num / den;
     const bx = f * kPi * zp * is * at;
     out[0] += bx;
     out[2] += -f * k2Pi * Math.log(prod) + dz0 * bx;

@@ -21,6 +21,13 @@
  * strengths let the logarithms combine into one call (derived): an evaluation costs
  * nBands atan2, one log and two square roots.
  *
+ * Dawn–dusk taper (our choice): A(x, y, z') = f(y)·A_2D(x, z') with f = (1 + y²/W²)^−p. Any
+ * A(x, y, z) ŷ gives B = (−∂A/∂z, 0, ∂A/∂x), still exactly divergence-free (derived); the
+ * current then has closure parts J_x, J_z ∝ f'(y), flowing round the lobes toward the flanks as
+ * the real tail current closes over the magnetopause. Without it the y-infinite sheet keeps its
+ * full southward Bz at the flanks, where the dipole is weak, and its normal field there cannot be
+ * shielded by the smooth compression basis (rms residual 4 % instead of < 1 %, measured).
+ *
  * Hinge (our choice; the hinged-sheet idea is common practice, from memory):
  * z0(x) = −tan ψ · R_H x/√(x² + R_H²): slope −tan ψ at x = 0 (the dipole equator
  * x sin ψ + z cos ψ = 0, derived), flat at z0 = R_H tan ψ far down the tail.
@@ -80,10 +87,25 @@ export interface TailCalibration {
 }
 
 /**
- * Default calibration. Justification (issue 6; the realism table in the README is
- * generated from these by scripts/realism.ts):
- *  - lobeNt 20 nT: lobe field of ~15–30 nT near 10–30 RE (from memory), the middle;
- *  - the rest is set so the boundaries fall inside CHECKS §8 (see the realism table).
+ * Default calibration (issue 6). Chosen by a scan of these parameters (and ε) for the
+ * boundaries of CHECKS §8 under the constraint that the compression fit still shields
+ * internal + tail to ≈ 1 % rms at zero tilt; the realism table in the README
+ * (scripts/realism.ts) shows the result. Per parameter:
+ *  - lobeNt 20 nT: the near-Earth lobe field, ~15–30 nT at 10–30 RE (from memory), the middle;
+ *  - lobePerSouthNt 0.12, lobeMaxFactor 2.5: the lobe grows with southward Bz (open flux loaded
+ *    into the tail, common practice); sets the midnight boundary's Bz dependence and, through the
+ *    polar-cap size, part of the noon boundary's 0.5–0.8 °/nT (Zhou et al., 2000);
+ *  - innerRe 9, innerPerSouthNt 0.3 RE/nT, innerMinRe 4: the inner edge of the tail current
+ *    near 8–10 RE in quiet times, moving earthward in disturbed times (from memory);
+ *  - bandLengthsRe [12, 40, 150]: the current density falls tailward in three steps, so the
+ *    lobe field falls from 20 to ~7 nT by ~50 RE (from memory: ~10 nT beyond 60 RE) and the
+ *    sheet reaches the 100 RE trace limit (lines beyond it count as open, like the distant
+ *    neutral line near ~100 RE, from memory);
+ *  - thicknessRe 3.5: plasma-sheet half-thickness of a few RE in quiet times (from memory);
+ *    thinner sheets stretch more but the fit residual grows (2 RE: > 1 %);
+ *  - hingeRe 8: hinging distance of order 8–10 RE (from memory);
+ *  - widthRe 20, taperPower 3: the taper falls to 1/8 at y = ±20 RE, the tail's flank radius
+ *    (Shue et al., 1998: ≈ 20 RE at x = −10 RE for 2 nPa), chosen for the fit residual.
  */
 export const DEFAULT_TAIL_CALIBRATION: Readonly<TailCalibration> = Object.freeze({
   lobeNt: 20,

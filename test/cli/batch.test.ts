@@ -12,7 +12,8 @@ import { runBatch } from '../../src/cli/batch/index';
 import { run } from '../../src/cli/run';
 import { readCsv, csvText } from '../../src/io/csv';
 import { prepareModel } from '../../src/physics/model';
-import { makeTracer, sectorBoundaries } from '../../src/physics/mapping';
+import { makeTracer, sectorBoundaries, DEFAULT_SOURCE_RE } from '../../src/physics/mapping';
+import type { FieldConditions } from '../../src/physics/conditions';
 import { geoJsonProblems } from '../../src/io/geojson';
 import { expectClose } from '../helpers';
 
@@ -183,34 +184,39 @@ describe('batch: order, workers and shards (issue 5, "Scale")', () => {
 });
 
 describe('batch: agreement with trace and the boundary search (same engine)', () => {
-  it('a row equals `trace` for the same site and conditions, and the engine boundaries at the row\'s MLT', async () => {
-    const r = await batch(['--sites', sites, '--conditions', series, '--workers', '1', '--format', 'json']);
-    expect(r.code, r.err).toBe(0);
-    const rows = jsonl(r.out).slice(1);
-    const row = rows.find((x) => x.conditions_line === 3 && x.sites_line === 2)!; // Alder Knoll, 21:00, 4.5 nPa, Bz −8, By −2
-    const common = ['--time', '2025-03-20T21:00:00Z', '--pdyn', '4.5', '--bz', '-8', '--by', '-2', '--lat', '66.2', '--lon', '18.4', '--height-km', '0.2'];
-    const traceJson = async (altKm: string) => {
-      let out = '';
-      const code = await run(['trace', ...common, '--alt-km', altKm], { stdout: (t) => { out += t; }, stderr: () => {}, now: () => new Date() });
-      expect(code).toBe(0);
-      return JSON.parse(out) as { conjugate: Record<string, number>; siteFootpoint: Record<string, number>; fieldLine: { type: string; equator: { rRe: number } } };
-    };
-    const ground = await traceJson('0');
-    const at110 = await traceJson('110');
-    expect(row.line_type).toBe(ground.fieldLine.type);
-    expectClose(row.conj_geo_lat_deg as number, ground.conjugate.geoLatDeg, 1e-9, 'conjugate latitude vs trace --alt-km 0');
-    expectClose(row.conj_geo_lon_deg as number, ground.conjugate.geoLonDeg, 1e-9, 'conjugate longitude vs trace --alt-km 0');
-    expectClose(row.conj_mlt_h as number, ground.conjugate.mltHours, 1e-9, 'conjugate MLT vs trace');
-    expectClose(row.equator_r_re as number, ground.fieldLine.equator.rRe, 1e-9, 'equatorial distance vs trace');
-    expectClose(row.foot_geo_lat_deg as number, at110.siteFootpoint.geoLatDeg, 1e-9, 'site-side footpoint at 110 km vs trace --alt-km 110');
-    expectClose(row.foot_geo_lon_deg as number, at110.siteFootpoint.geoLonDeg, 1e-9, 'site-side footpoint longitude vs trace');
-    expectClose(row.mlt_h as number, at110.siteFootpoint.mltHours, 1e-9, 'footpoint MLT vs trace');
-    // Boundaries: the engine's sector search at the row's MLT in the site's hemisphere.
-    const m = prepareModel({ time: '2025-03-20T21:00:00Z', pdynNpa: 4.5, bzNt: -8, byNt: -2 });
-    const b = sectorBoundaries(m, makeTracer(m, { altKm: 110, ellipsoid: true }), 'north', row.mlt_h as number, { sourceRe: 8 });
-    expectClose(row.open_closed_mag_lat_deg as number, b.openClosed!.magLatDeg, 1e-12, 'open–closed boundary vs sectorBoundaries');
-    expectClose(row.equatorward_mag_lat_deg as number, b.equatorward!.magLatDeg, 1e-12, 'equatorward edge vs sectorBoundaries');
-  });
+  for (const extra of [[], ['--tail', 'off', '--imf-efficiency', '0.3', '--internal', 'igrf']]) {
+    it(`a row equals \`trace\` for the same site and conditions, and the engine boundaries at the row's MLT (${extra.join(' ') || 'default model'})`, async () => {
+      const one = file('one-site.csv', 'name,lat_deg,lon_deg,height_km\nAlder Knoll,66.2,18.4,0.2\n');
+      const hour = file('one-hour.csv', 'time,pdyn_npa,bz_nt,by_nt\n2025-03-20T21:00:00Z,4.5,-8.0,-2.0\n');
+      const r = await batch(['--sites', one, '--conditions', hour, '--workers', '1', '--format', 'json', ...extra]);
+      expect(r.code, r.err).toBe(0);
+      const row = jsonl(r.out)[1];
+      const common = ['--time', '2025-03-20T21:00:00Z', '--pdyn', '4.5', '--bz', '-8', '--by', '-2', '--lat', '66.2', '--lon', '18.4', '--height-km', '0.2', ...extra];
+      const traceJson = async (altKm: string) => {
+        let out = '';
+        const code = await run(['trace', ...common, '--alt-km', altKm], { stdout: (t) => { out += t; }, stderr: () => {}, now: () => new Date() });
+        expect(code).toBe(0);
+        return JSON.parse(out) as { conditions: FieldConditions; conjugate: Record<string, number>; siteFootpoint: Record<string, number>; fieldLine: { type: string; equator: { rRe: number } } };
+      };
+      const ground = await traceJson('0');
+      const at110 = await traceJson('110');
+      expect(row.line_type).toBe(ground.fieldLine.type);
+      expectClose(row.conj_geo_lat_deg as number, ground.conjugate.geoLatDeg, 1e-9, 'conjugate latitude vs trace --alt-km 0');
+      expectClose(row.conj_geo_lon_deg as number, ground.conjugate.geoLonDeg, 1e-9, 'conjugate longitude vs trace --alt-km 0');
+      expectClose(row.conj_mlt_h as number, ground.conjugate.mltHours, 1e-9, 'conjugate MLT vs trace');
+      expectClose(row.equator_r_re as number, ground.fieldLine.equator.rRe, 1e-9, 'equatorial distance vs trace');
+      expectClose(row.foot_geo_lat_deg as number, at110.siteFootpoint.geoLatDeg, 1e-9, 'site-side footpoint at 110 km vs trace --alt-km 110');
+      expectClose(row.foot_geo_lon_deg as number, at110.siteFootpoint.geoLonDeg, 1e-9, 'site-side footpoint longitude vs trace');
+      expectClose(row.mlt_h as number, at110.siteFootpoint.mltHours, 1e-9, 'footpoint MLT vs trace');
+      // Boundaries: the engine's sector search at the row's MLT in the site's hemisphere, for trace's conditions.
+      const c = ground.conditions;
+      const m = prepareModel({ time: '2025-03-20T21:00:00Z', pdynNpa: 4.5, bzNt: -8, byNt: -2, internal: c.internal, imfEfficiency: c.imfEfficiency, tail: c.tail, magnetopause: c.magnetopause });
+      const b = sectorBoundaries(m, makeTracer(m, { altKm: 110, ellipsoid: true }), 'north', row.mlt_h as number, { sourceRe: DEFAULT_SOURCE_RE });
+      expect(b.openClosed && b.equatorward, 'both boundaries found').toBeTruthy();
+      expectClose(row.open_closed_mag_lat_deg as number, b.openClosed!.magLatDeg, 1e-12, 'open–closed boundary vs sectorBoundaries');
+      expectClose(row.equatorward_mag_lat_deg as number, b.equatorward!.magLatDeg, 1e-12, 'equatorward edge vs sectorBoundaries');
+    });
+  }
 
   it('writes valid GeoJSON: one Point per row at the conjugate point (RFC 7946), metadata as a foreign member', async () => {
     const r = await batch(['--sites', sites, '--conditions', series, '--workers', '2', '--format', 'geojson', '--shard', '1/2']);

@@ -12,7 +12,7 @@ import { applyMat3 } from '../../physics/frames';
 import { RAD } from '../../physics/constants';
 import { parseUtc } from '../../physics/time';
 import type { Footpoint } from '../../physics/footpoint';
-import type { InternalFieldKind } from '../../physics/conditions';
+import type { FieldConditions } from '../../physics/conditions';
 import { csvField, type CsvCell } from '../../io/csv';
 import { writeJson } from '../../io/json';
 import type { RowOutcome, SeriesCondition } from './inputs';
@@ -21,10 +21,8 @@ export type BatchFormat = 'csv' | 'json' | 'geojson';
 
 /** Everything a row needs besides its condition and site (the same for the whole run). */
 export interface BatchSettings {
-  tiltDeg: number | null;
-  internal: InternalFieldKind;
-  magnetopause: boolean;
-  imfEfficiency: number;
+  /** The model switches of the common flags (tilt, main field, magnetopause, IMF efficiency, tail…): all but the series' own inputs. */
+  model: Omit<FieldConditions, 'time' | 'pdynNpa' | 'bzNt' | 'byNt'>;
   altKm: number;
   conjugateAltKm: number;
   sourceRe: number;
@@ -196,10 +194,7 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
   else if (job.cond.kind === 'skipped') condProblem = { skipped: job.cond.reason };
   else {
     try {
-      model = prepareModel({
-        time: cond!.time, pdynNpa: cond!.pdynNpa, bzNt: cond!.bzNt, byNt: cond!.byNt,
-        tiltDeg: st.tiltDeg, internal: st.internal, magnetopause: st.magnetopause, imfEfficiency: st.imfEfficiency,
-      });
+      model = prepareModel({ ...st.model, time: cond!.time, pdynNpa: cond!.pdynNpa, bzNt: cond!.bzNt, byNt: cond!.byNt });
     } catch (e) {
       condProblem = { error: `${where}: ${message(e)}` };
     }

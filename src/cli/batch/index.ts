@@ -14,7 +14,6 @@ import { CSV_DECIMALS } from '../command';
 import { DEFAULT_SOURCE_RE, mltGrid } from '../../physics/mapping';
 import { PDYN_NOMINAL_COEFF } from '../../physics/magnetopause';
 import type { SiteInput } from '../../physics/site-report';
-import type { InternalFieldKind } from '../../physics/conditions';
 import { decimalYear, parseUtc } from '../../physics/time';
 import { sitesHeader, conditionsHeader, parseSite, parseCondition, checkTime, SITES_EXPECTED, CONDITIONS_EXPECTED, type RowOutcome } from './inputs';
 import { BATCH_COLUMNS, type BatchFormat, type BatchSettings, type ConditionJob, type JobResult } from './compute';
@@ -128,11 +127,9 @@ function plan(argv: readonly string[], io: BatchIo): Plan {
     }
   }
   const c = conditionsFromFlags(flags, io.now ? io.now() : new Date());
+  const { time: _t, pdynNpa: _p, bzNt: _bz, byNt: _by, ...modelSwitches } = c;
   const settings: BatchSettings = {
-    tiltDeg: c.tiltDeg ?? null,
-    internal: c.internal as InternalFieldKind,
-    magnetopause: c.magnetopause,
-    imfEfficiency: c.imfEfficiency,
+    model: { ...modelSwitches, tiltDeg: c.tiltDeg ?? null },
     altKm: (flags['alt-km'] as number | undefined) ?? DEFAULT_ALT_KM,
     conjugateAltKm: (flags['conjugate-alt-km'] as number | undefined) ?? 0,
     sourceRe: (flags['source-re'] as number | undefined) ?? DEFAULT_SOURCE_RE,
@@ -207,10 +204,8 @@ function metadata(p: Plan, sites: number): Record<string, unknown> {
     shard: `${p.shard.k}/${p.shard.n}`,
     coefficients: 'IGRF-14',
     coefficientEpoch: fc ? decimalYear(parseUtc(fc.time)) : 'the decimal year of each row\'s time',
-    internal: s.internal,
-    magnetopause: s.magnetopause,
-    imfEfficiency: s.imfEfficiency,
-    tiltDeg: s.tiltDeg ?? 'from each row\'s time',
+    ...s.model,
+    tiltDeg: s.model.tiltDeg ?? 'from each row\'s time',
     altKm: s.altKm,
     conjugateAltKm: s.conjugateAltKm,
     sourceRe: s.sourceRe,

@@ -160,65 +160,175 @@ function boundaryPoint(model: PreparedModel, t: Tracer, signedLat: number, mltH:
  * poleward edge of the closed region met first when scanning from minLatDeg
  * poleward, refined by bisection to latTolDeg. The equatorward edge is the
  * footprint of the closed line whose minimum-|B| point lies at sourceRe
- * (bisection on the equatorial distance, which grows with latitude); null if
- * the closed region ends before reaching it.
+ * (the equatorial distance grows with latitude: a safeguarded regula falsi,
+ * Illinois variant, on r_eq − sourceRe); null if the closed region ends first.
+ *
+ * `hint` (the neighbouring sector's answer) lets the search start from a
+ * narrow bracket around it; the bracket is verified by tracing both ends and
+ * the full scan runs when it does not hold, so a hint changes the cost, not
+ * the answer beyond latTolDeg.
  */
-export function sectorBoundaries(model: PreparedModel, t: Tracer, hemisphere: Hemisphere, mltH: number, opts: Partial<BoundaryOptions> = {}): SectorBoundaries {
+export function sectorBoundaries(model: PreparedModel, t: Tracer, hemisphere: Hemisphere, mltH: number, opts: Partial<BoundaryOptions> = {}, hint?: BoundaryHint | null): SectorBoundaries {
   const o = { ...DEFAULT_BOUNDARY_OPTIONS, ...opts };
   const sgn = hemisphere === 'north' ? 1 : -1;
-  // Coarse scan poleward for the first line that is not closed.
-  let lo = o.minLatDeg;
-  let first = closedAt(model, t, sgn * lo, mltH);
-  if (!first.closed) return { mltHours: mltH, openClosed: null, equatorward: null };
-  let hi = NaN;
-  let loEq = first.eqR;
-  const scanned: { lat: number; eqR: number }[] = [{ lat: lo, eqR: loEq }];
-  for (let lat = lo + o.scanStepDeg; lat < 90; lat += o.scanStepDeg) {
-    const r = closedAt(model, t, sgn * lat, mltH);
-    if (!r.closed) { hi = lat; break; }
-    lo = lat;
-    scanned.push({ lat, eqR: r.eqR });
+  const probe = (lat: number) => closedAt(model, t, sgn * lat, mltH);
+  const samples: Sample[] = [];
+  let bracket: [number, number] | null = null;
+  let ocFound = true;
+
+  const h = hint?.openClosedLatDeg ?? NaN;
+  if (Number.isFinite(h)) {
+    // Expand a bracket outward from the predicted latitude (at most a few steps).
+    const w = Math.max(HINT_HALF_WIDTH_DEG, hint?.halfWidthDeg ?? 0);
+    let lo = Math.max(o.minLatDeg, h - w), hi = Math.min(89.99, h + w);
+    let a = probe(lo);
+    if (a.closed) {
+      samples.push({ lat: lo, eqR: a.eqR });
+      for (let k = 0; k < 4 && !bracket; k++) {
+        const b = probe(hi);
+        if (!b.closed) bracket = [lo, hi];
+        else {
+          samples.push({ lat: hi, eqR: b.eqR });
+          if (hi >= 89.99) break;
+          lo = hi; hi = Math.min(89.99, hi + 2 * w * (k + 1));
+        }
+      }
+    } else {
+      for (let k = 0; k < 4 && !bracket; k++) {
+        hi = lo; lo = Math.max(o.minLatDeg, lo - 2 * w * (k + 1));
+        a = probe(lo);
+        if (a.closed) { samples.push({ lat: lo, eqR: a.eqR }); bracket = [lo, hi]; }
+        else if (lo <= o.minLatDeg) return { mltHours: mltH, openClosed: null, equatorward: null };
+      }
+    }
   }
-  if (Number.isNaN(hi)) {
-    const r = closedAt(model, t, sgn * 89.99, mltH);
-    if (r.closed) return { mltHours: mltH, openClosed: null, equatorward: equatorwardEdge(model, t, sgn, mltH, scanned, NaN, o) };
-    hi = 89.99;
+  if (!bracket) {
+    // Coarse scan poleward for the first line that is not closed.
+    let lo = o.minLatDeg;
+    const first = probe(lo);
+    if (!first.closed) return { mltHours: mltH, openClosed: null, equatorward: null };
+    samples.push({ lat: lo, eqR: first.eqR });
+    let hi = NaN;
+    for (let lat = lo + o.scanStepDeg; lat < 90; lat += o.scanStepDeg) {
+      const r = probe(lat);
+      if (!r.closed) { hi = lat; break; }
+      lo = lat;
+      samples.push({ lat, eqR: r.eqR });
+    }
+    if (Number.isNaN(hi)) {
+      const r = probe(89.99);
+      if (r.closed) ocFound = false;
+      else hi = 89.99;
+    }
+    if (ocFound) bracket = [lo, hi];
   }
-  while (hi - lo > o.latTolDeg) {
-    const mid = 0.5 * (lo + hi);
-    const r = closedAt(model, t, sgn * mid, mltH);
-    if (r.closed) { lo = mid; scanned.push({ lat: mid, eqR: r.eqR }); }
-    else hi = mid;
+  let ocLat = NaN;
+  if (bracket) {
+    let [lo, hi] = bracket;
+    while (hi - lo > o.latTolDeg) {
+      const mid = 0.5 * (lo + hi);
+      const r = probe(mid);
+      if (r.closed) { lo = mid; samples.push({ lat: mid, eqR: r.eqR }); }
+      else hi = mid;
+    }
+    ocLat = 0.5 * (lo + hi);
   }
-  const ocLat = 0.5 * (lo + hi);
+  const eqHint = hint?.equatorwardLatDeg ?? NaN;
   return {
     mltHours: mltH,
-    openClosed: boundaryPoint(model, t, sgn * ocLat, mltH),
-    equatorward: equatorwardEdge(model, t, sgn, mltH, scanned, ocLat, o),
+    openClosed: ocFound ? boundaryPoint(model, t, sgn * ocLat, mltH) : null,
+    equatorward: equatorwardEdge(model, t, sgn, mltH, samples, ocLat, o, eqHint),
   };
 }
 
-function equatorwardEdge(model: PreparedModel, t: Tracer, sgn: number, mltH: number, scanned: { lat: number; eqR: number }[], ocLat: number, o: BoundaryOptions): BoundaryPoint | null {
-  scanned.sort((a, b) => a.lat - b.lat);
-  if (!(scanned[0].eqR <= o.sourceRe)) return null; // already beyond the source at the lowest latitude
-  let lo = scanned[0].lat;
-  let hi = NaN;
-  for (const s of scanned) {
-    if (s.eqR <= o.sourceRe) lo = s.lat;
-    else { hi = s.lat; break; }
+interface Sample { lat: number; eqR: number }
+
+/** Predicted |magnetic latitudes| (deg) for a sector, e.g. extrapolated from its neighbours. */
+export interface BoundaryHint {
+  openClosedLatDeg?: number;
+  equatorwardLatDeg?: number;
+  /** Half-width of the first bracket, deg (at least 0.75). */
+  halfWidthDeg?: number;
+}
+
+/** Linear prediction from the two previous sectors' answers (the first alone when only one). */
+export function predictHint(prev: SectorBoundaries | null, prev2: SectorBoundaries | null): BoundaryHint | null {
+  if (!prev) return null;
+  const lat = (b: BoundaryPoint | null) => (b ? Math.abs(b.magLatDeg) : NaN);
+  const oc1 = lat(prev.openClosed), oc2 = prev2 ? lat(prev2.openClosed) : NaN;
+  const eq1 = lat(prev.equatorward), eq2 = prev2 ? lat(prev2.equatorward) : NaN;
+  const dOc = Number.isFinite(oc2) ? oc1 - oc2 : 0;
+  const dEq = Number.isFinite(eq2) ? eq1 - eq2 : 0;
+  return {
+    openClosedLatDeg: oc1 + dOc,
+    equatorwardLatDeg: eq1 + dEq,
+    halfWidthDeg: 0.5 * Math.max(Math.abs(dOc), Math.abs(dEq)),
+  };
+}
+
+/** Half-width of the bracket placed around a neighbouring sector's answer, deg. */
+const HINT_HALF_WIDTH_DEG = 0.75;
+
+function equatorwardEdge(model: PreparedModel, t: Tracer, sgn: number, mltH: number, samples: Sample[], ocLat: number, o: BoundaryOptions, hintLat: number): BoundaryPoint | null {
+  const src = o.sourceRe;
+  const probe = (lat: number): number => {
+    const r = closedAt(model, t, sgn * lat, mltH);
+    return r.closed && Number.isFinite(r.eqR) ? r.eqR - src : NaN; // NaN: not closed
+  };
+  // Bracket [lo, hi] with g(lo) ≤ 0 < g(hi) (or hi not closed).
+  let lo = NaN, glo = NaN, hi = NaN, ghi = NaN;
+  if (Number.isFinite(hintLat)) {
+    const a = Math.max(o.minLatDeg, hintLat - HINT_HALF_WIDTH_DEG), b = hintLat + HINT_HALF_WIDTH_DEG;
+    const ga = probe(a);
+    if (ga <= 0) {
+      const gb = probe(b);
+      if (!(gb <= 0)) { lo = a; glo = ga; hi = b; ghi = gb; }
+    }
   }
-  if (Number.isNaN(hi)) {
-    if (Number.isNaN(ocLat)) return null;
-    hi = ocLat; // source distance beyond the last closed line: search up to the boundary
+  if (Number.isNaN(lo)) {
+    samples.sort((p, q) => p.lat - q.lat);
+    if (samples.length === 0 || (!(samples[0].eqR <= src) && samples[0].lat > o.minLatDeg)) {
+      // A hinted search samples only near the boundary: add the lowest latitude.
+      const r = closedAt(model, t, sgn * o.minLatDeg, mltH);
+      if (r.closed) samples.unshift({ lat: o.minLatDeg, eqR: r.eqR });
+    }
+    if (samples.length === 0 || !(samples[0].eqR <= src)) return null; // beyond the source already at the lowest latitude
+    for (const s of samples) {
+      if (s.eqR <= src) { lo = s.lat; glo = s.eqR - src; }
+      else { hi = s.lat; ghi = s.eqR - src; break; }
+    }
+    if (Number.isNaN(hi)) {
+      if (Number.isNaN(ocLat)) return null;
+      hi = ocLat; // the source lies beyond the last closed line sampled: search up to the boundary
+      ghi = NaN;
+    }
   }
-  while (hi - lo > o.latTolDeg) {
-    const mid = 0.5 * (lo + hi);
-    const r = closedAt(model, t, sgn * mid, mltH);
-    if (r.closed && r.eqR <= o.sourceRe) lo = mid;
-    else hi = mid;
+  // Illinois regula falsi, falling back to bisection where the far end is not closed.
+  let side = 0;
+  let root = NaN;
+  for (let it = 0; it < 60 && hi - lo > o.latTolDeg; it++) {
+    let x = Number.isFinite(ghi) && ghi !== glo ? lo + (hi - lo) * (glo / (glo - ghi)) : 0.5 * (lo + hi);
+    const guard = 0.05 * (hi - lo);
+    if (!(x > lo + guard && x < hi - guard)) x = 0.5 * (lo + hi);
+    const g = probe(x);
+    if (g <= 0) {
+      lo = x; glo = g;
+      if (side === -1 && Number.isFinite(ghi)) ghi *= 0.5;
+      side = -1;
+    } else {
+      hi = x; ghi = g; // NaN when not closed
+      if (side === 1) glo *= 0.5;
+      side = 1;
+    }
+    // Converged: the secant step from the newest point is below a quarter of the tolerance.
+    if (Number.isFinite(g) && Number.isFinite(ghi) && Number.isFinite(glo) && ghi !== glo) {
+      const slope = (ghi - glo) / (hi - lo);
+      if (slope > 0 && Math.abs(g / slope) < 0.25 * o.latTolDeg) { root = x - g / slope; break; }
+    }
   }
-  if (!Number.isNaN(ocLat) && hi >= ocLat - o.latTolDeg) return null; // the source lies on open lines here
-  return boundaryPoint(model, t, sgn * 0.5 * (lo + hi), mltH);
+  const lat = Number.isFinite(root) ? root : 0.5 * (lo + hi);
+  if (!Number.isNaN(ocLat) && lat >= ocLat - o.latTolDeg) return null; // the source lies on open lines here
+  return boundaryPoint(model, t, sgn * lat, mltH);
 }
 
 /** MLT grid 0 ≤ h < 24 with the given step (hours). */
@@ -238,7 +348,17 @@ export interface HemisphereBoundaries {
 
 /** Boundaries per MLT for the chosen hemispheres. */
 export function ovalBoundaries(model: PreparedModel, t: Tracer, hemispheres: Hemisphere[], mlts: number[], opts: Partial<BoundaryOptions> = {}): HemisphereBoundaries[] {
-  return hemispheres.map((h) => ({ hemisphere: h, sectors: mlts.map((m) => sectorBoundaries(model, t, h, m, opts)) }));
+  return hemispheres.map((h) => {
+    const sectors: SectorBoundaries[] = [];
+    let prev: SectorBoundaries | null = null, prev2: SectorBoundaries | null = null;
+    for (const m of mlts) {
+      const b = sectorBoundaries(model, t, h, m, opts, predictHint(prev, prev2));
+      sectors.push(b);
+      prev2 = prev;
+      prev = b;
+    }
+    return { hemisphere: h, sectors };
+  });
 }
 
 /**

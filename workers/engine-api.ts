@@ -7,7 +7,7 @@
  */
 import type { FieldConditions } from '../src/physics/conditions';
 import { prepareModel, type PreparedModel } from '../src/physics/model';
-import { makeTracer, sectorBoundaries, mltGrid, DEFAULT_SOURCE_RE } from '../src/physics/mapping';
+import { makeTracer, sectorBoundaries, mltGrid, predictHint, DEFAULT_SOURCE_RE, type SectorBoundaries } from '../src/physics/mapping';
 import { siteReport } from '../src/physics/site-report';
 import { sweepBoundaries } from '../src/physics/sweep';
 import { gsmAtMagneticLatMlt } from '../src/physics/footpoint';
@@ -166,10 +166,13 @@ export function createEngineApi(): EngineApiInternals {
             openClosedMagLatDeg: new Float64Array(n).fill(NaN), openClosedGeoLatDeg: new Float64Array(n).fill(NaN), openClosedGeoLonDeg: new Float64Array(n).fill(NaN),
             equatorwardMagLatDeg: new Float64Array(n).fill(NaN), equatorwardGeoLatDeg: new Float64Array(n).fill(NaN), equatorwardGeoLonDeg: new Float64Array(n).fill(NaN),
           };
+          let prev: SectorBoundaries | null = null, prev2: SectorBoundaries | null = null;
           for (let i = 0; i < n; i++) {
             await yieldToQueue();
             check('oval', requestId);
-            const b = sectorBoundaries(m, t, hemisphere, mlts[i], { sourceRe: o.sourceRe ?? DEFAULT_SOURCE_RE, latTolDeg: o.latTolDeg ?? 0.01 });
+            const b = sectorBoundaries(m, t, hemisphere, mlts[i], { sourceRe: o.sourceRe ?? DEFAULT_SOURCE_RE, latTolDeg: o.latTolDeg ?? 0.01 }, predictHint(prev, prev2));
+            prev2 = prev;
+            prev = b;
             if (b.openClosed) {
               cur.openClosedMagLatDeg[i] = b.openClosed.magLatDeg; cur.openClosedGeoLatDeg[i] = b.openClosed.geoLatDeg; cur.openClosedGeoLonDeg[i] = b.openClosed.geoLonDeg;
             }

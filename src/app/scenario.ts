@@ -4,6 +4,8 @@
  * fictional names placed at arbitrary coordinates (not real stations).
  */
 import type { FieldConditions } from '../physics/conditions';
+import { DEFAULT_IMF_EFFICIENCY } from '../physics/imf';
+import { DEFAULT_SOURCE_RE } from '../physics/mapping';
 import type { SiteInput } from '../../workers/protocol';
 import type { ProductSettings } from './store';
 
@@ -27,9 +29,10 @@ export const DEMO_SCENARIO: Scenario = {
     tiltDeg: null,
     internal: 'dipole',
     magnetopause: true,
-    imfEfficiency: 0.2,
+    imfEfficiency: DEFAULT_IMF_EFFICIENCY,
+    tail: true,
   },
-  products: { altPreset: 'green', altKm: 110, sourceRe: 8, minElevationDeg: 10 },
+  products: { altPreset: 'green', altKm: 110, sourceRe: DEFAULT_SOURCE_RE, minElevationDeg: 10 },
   sites: [
     { name: 'Sollan Moor', latDeg: 66.8, lonDeg: 24.1 },
     { name: 'Quill Lake Camp', latDeg: 58.2, lonDeg: -103.5 },

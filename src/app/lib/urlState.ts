@@ -25,6 +25,7 @@ export function encodeUrlState(s: UrlState): string {
   q.set('int', c.internal);
   q.set('mp', c.magnetopause ? '1' : '0');
   q.set('eps', num(c.imfEfficiency));
+  q.set('tail', c.tail === false ? '0' : '1');
   if (c.tiltDeg != null) q.set('tilt', num(c.tiltDeg));
   q.set('alt', s.products.altPreset === 'custom' ? num(s.products.altKm) : s.products.altPreset);
   q.set('src', num(s.products.sourceRe));
@@ -68,6 +69,7 @@ export function decodeUrlState(query: string, defaults: UrlState): UrlState {
     internal,
     magnetopause: q.has('mp') ? q.get('mp') !== '0' : d.magnetopause,
     imfEfficiency: finiteOr(q.get('eps'), d.imfEfficiency, 0, 1),
+    tail: q.has('tail') ? q.get('tail') !== '0' : d.tail ?? true,
     tiltDeg: tiltRaw === null ? d.tiltDeg ?? null : finiteOr(tiltRaw, 0, -90, 90),
   };
   const altRaw = q.get('alt');

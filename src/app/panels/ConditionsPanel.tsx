@@ -71,6 +71,7 @@ export function ConditionsPanel() {
       <fieldset>
         <legend>Show</legend>
         <label><input type="checkbox" checked={c.magnetopause} onChange={(e) => setConditions({ magnetopause: e.target.checked })} /> magnetopause term</label>
+        <label><input type="checkbox" checked={c.tail !== false} onChange={(e) => setConditions({ tail: e.target.checked })} /> tail current sheet</label>
         <label><input type="checkbox" checked={view.magnetopauseSurface} onChange={(e) => setView({ magnetopauseSurface: e.target.checked })} /> magnetopause surface</label>
         <label><input type="checkbox" checked={view.fan} onChange={(e) => setView({ fan: e.target.checked })} /> field-line fan</label>
         <label><input type="checkbox" checked={view.magGraticule} onChange={(e) => setView({ magGraticule: e.target.checked })} /> magnetic graticule</label>

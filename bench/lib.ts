@@ -28,12 +28,20 @@ export interface BenchSection {
   /** Name used by --only and as the JSON key. */
   name: string;
   title: string;
+  /**
+   * Optional independent parts. run.ts runs each part in its own fresh process
+   * (the JIT's type feedback from one model then cannot slow the measurement of
+   * another) and concatenates their figures in this order.
+   */
+  parts?: readonly string[];
   run(opts: RunOptions): Promise<SectionResult> | SectionResult;
 }
 
 export interface RunOptions {
   /** Fewer points / repetitions (for a quick smoke run). */
   quick: boolean;
+  /** The part to run (one of BenchSection.parts); undefined = all parts. */
+  part?: string;
   /** Progress lines go to stderr, never stdout. */
   log(msg: string): void;
 }

@@ -10,9 +10,14 @@
  * already registered: it loads bench/batch.ts, exporting `batchSection`, once
  * that file exists.
  *
+ * Each section runs in its own Node process, one after the other (one core, no
+ * workers); --in-process runs them all in this process instead (e.g. under
+ * `node --import tsx --cpu-prof bench/run.ts --in-process --only tracer`).
+ *
  * Output: a readable table on stdout; with --json exactly one JSON object on
- * stdout and nothing else (progress goes to stderr). One core, no workers.
+ * stdout and nothing else (progress goes to stderr).
  */
+import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import os from 'node:os';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -46,21 +51,24 @@ export const SECTIONS: SectionEntry[] = [
   optional('batch', 'batch.ts', 'batchSection'), // project issue 5
 ];
 
-interface Args { json: boolean; only: string | null; quick: boolean }
+interface Args { json: boolean; only: string | null; quick: boolean; inProcess: boolean; child: string | null; part: string | null }
 
 function parseArgs(argv: string[]): Args {
-  const a: Args = { json: false, only: null, quick: false };
+  const a: Args = { json: false, only: null, quick: false, inProcess: false, child: null, part: null };
   for (let i = 0; i < argv.length; i++) {
     const s = argv[i];
     if (s === '--json') a.json = true;
     else if (s === '--quick') a.quick = true;
+    else if (s === '--in-process') a.inProcess = true;
+    else if (s === '--child') a.child = argv[++i] ?? null; // internal: run one section, print its report as JSON
+    else if (s === '--part') a.part = argv[++i] ?? null; // internal: with --child, one part of the section
     else if (s === '--only') a.only = argv[++i] ?? null;
     else if (s.startsWith('--only=')) a.only = s.slice(7);
     else if (s === '--help' || s === '-h') {
-      process.stderr.write(`usage: npm run bench -- [--json] [--only <${SECTIONS.map((x) => x.name).join('|')}>] [--quick]\n`);
+      process.stderr.write(`usage: npm run bench -- [--json] [--only <${SECTIONS.map((x) => x.name).join('|')}>] [--quick] [--in-process]\n`);
       process.exit(0);
     } else {
-      process.stderr.write(`bench: unknown argument "${s}" (expected --json, --only <section>, --quick)\n`);
+      process.stderr.write(`bench: unknown argument "${s}" (expected --json, --only <section>, --quick, --in-process)\n`);
       process.exit(2);
     }
   }
@@ -131,36 +139,89 @@ function printTable(sections: Record<string, SectionReport>, m: Record<string, u
   process.stdout.write(lines.join('\n') + '\n');
 }
 
+/** Run one section in this process. */
+async function runHere(entry: SectionEntry, quick: boolean, log: (msg: string) => void, part?: string): Promise<SectionReport> {
+  try {
+    const s = await entry.load();
+    if (!s) return { status: 'missing' };
+    log(`bench: running ${entry.name}${part ? ` (${part})` : ''}…`);
+    const t0 = performance.now();
+    const c0 = process.cpuUsage();
+    const r: SectionResult = await s.run({ quick, log, part });
+    const values: Record<string, number> = {};
+    for (const f of r.figures) values[f.key] = f.value;
+    const wall = (performance.now() - t0) / 1000;
+    const cu = process.cpuUsage(c0);
+    // Share of the wall time this process was on a CPU: well below 1 means other load inflated the wall-time figures.
+    const cpuShare = (cu.user + cu.system) / 1e6 / wall;
+    if (cpuShare < 0.9) log(`bench: ${entry.name}${part ? ` (${part})` : ''}: the process ran only ${(100 * cpuShare).toFixed(0)} % of the wall time (busy machine): prefer the cpu-time figures`);
+    const maxRssMiB = process.resourceUsage().maxRSS / 1024;
+    return { title: s.title, status: 'ok', seconds: wall, cpuShare, maxRssMiB, values, figures: r.figures, detail: r.detail };
+  } catch (e) {
+    const err = e instanceof Error ? e.message : String(e);
+    log(`bench: section ${entry.name} failed: ${e instanceof Error && e.stack ? e.stack : err}`);
+    return { status: 'error', error: err };
+  }
+}
+
+/** One section report from its parts' reports (each from its own process). */
+function mergeParts(reps: SectionReport[], parts: readonly string[]): SectionReport {
+  const bad = reps.find((r) => r.status !== 'ok');
+  if (bad) return bad;
+  const figures = reps.flatMap((r) => r.figures ?? []);
+  const values: Record<string, number> = {};
+  for (const f of figures) values[f.key] = f.value;
+  const detail: Record<string, unknown> = {};
+  reps.forEach((r, i) => { detail[parts[i]] = r.detail; });
+  const seconds = reps.reduce((a, r) => a + (r.seconds ?? 0), 0);
+  const cpuShare = reps.reduce((a, r) => a + (r.cpuShare ?? 0) * (r.seconds ?? 0), 0) / seconds;
+  const maxRssMiB = Math.max(...reps.map((r) => r.maxRssMiB ?? 0));
+  return { title: reps[0].title, status: 'ok', seconds, cpuShare, maxRssMiB, values, figures, detail };
+}
+
+/**
+ * Run one section in a fresh Node process (same loader flags), one after the
+ * other: the JIT's type feedback from one section (other models through the same
+ * call sites) then cannot slow another, figures do not depend on --only, and the
+ * peak RSS is the section's own.
+ */
+function runInChild(entry: SectionEntry, quick: boolean, part?: string): SectionReport {
+  const script = fileURLToPath(import.meta.url);
+  const r = spawnSync(process.execPath, [...process.execArgv, script, '--child', entry.name, ...(part ? ['--part', part] : []), ...(quick ? ['--quick'] : [])], {
+    stdio: ['ignore', 'pipe', 'inherit'],
+    encoding: 'utf8',
+    maxBuffer: 256 * 2 ** 20,
+  });
+  if (r.error) return { status: 'error', error: `could not start the section process: ${r.error.message}` };
+  try {
+    return JSON.parse(r.stdout) as SectionReport;
+  } catch {
+    return { status: 'error', error: `section process exited with ${r.status ?? r.signal} without a report` };
+  }
+}
+
 async function main(): Promise<void> {
   const args = parseArgs(process.argv.slice(2));
   const log = (msg: string): void => void process.stderr.write(`${msg}\n`);
+  if (args.child !== null) {
+    const entry = SECTIONS.find((s) => s.name === args.child);
+    const rep: SectionReport = entry ? await runHere(entry, args.quick, log, args.part ?? undefined) : { status: 'error', error: `unknown section ${args.child}` };
+    process.stdout.write(JSON.stringify(rep) + '\n');
+    return;
+  }
   const sections: Record<string, SectionReport> = {};
-  let failed = false;
   for (const entry of SECTIONS) {
     if (args.only !== null && entry.name !== args.only) continue;
+    if (args.inProcess) { sections[entry.name] = await runHere(entry, args.quick, log); continue; }
+    let parts: readonly string[] | undefined;
     try {
-      const s = await entry.load();
-      if (!s) { sections[entry.name] = { status: 'missing' }; continue; }
-      log(`bench: running ${entry.name}…`);
-      const t0 = performance.now();
-      const c0 = process.cpuUsage();
-      const r: SectionResult = await s.run({ quick: args.quick, log });
-      const values: Record<string, number> = {};
-      for (const f of r.figures) values[f.key] = f.value;
-      const wall = (performance.now() - t0) / 1000;
-      const cu = process.cpuUsage(c0);
-      // Share of the wall time this process was on a CPU: well below 1 means other load inflated the wall-time figures.
-      const cpuShare = (cu.user + cu.system) / 1e6 / wall;
-      if (cpuShare < 0.9) log(`bench: ${entry.name}: the process ran only ${(100 * cpuShare).toFixed(0)} % of the wall time (busy machine): prefer the cpu-time figures`);
-      const maxRssMiB = process.resourceUsage().maxRSS / 1024;
-      sections[entry.name] = { title: s.title, status: 'ok', seconds: wall, cpuShare, maxRssMiB, values, figures: r.figures, detail: r.detail };
-    } catch (e) {
-      failed = true;
-      const err = e instanceof Error ? e.message : String(e);
-      log(`bench: section ${entry.name} failed: ${e instanceof Error && e.stack ? e.stack : err}`);
-      sections[entry.name] = { status: 'error', error: err };
+      parts = (await entry.load())?.parts; // loading only reads the declaration; nothing is measured here
+    } catch {
+      parts = undefined; // the child reports the error
     }
+    sections[entry.name] = parts && parts.length ? mergeParts(parts.map((p) => runInChild(entry, args.quick, p)), parts) : runInChild(entry, args.quick);
   }
+  const failed = Object.values(sections).some((r) => r.status === 'error');
   const m = machine();
   const missed = Object.entries(sections).flatMap(([name, r]) =>
     (r.figures ?? []).filter((f) => targetMet(f) === false).map((f) => `${name}.${f.key}`));

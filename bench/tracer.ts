@@ -18,7 +18,7 @@ import { applyMat3, applyMat3T } from '../src/physics/frames';
 import { gsmAtMagneticLatMlt } from '../src/physics/footpoint';
 import { makeTracer, traceGsm, ovalBoundaries, mltGrid } from '../src/physics/mapping';
 import { RE_KM, RAD } from '../src/physics/constants';
-import { BENCH_CONDITIONS } from './evaluation';
+import { BENCH_CONDITIONS, BENCH_CONDITIONS_TAIL } from './evaluation';
 import { type BenchSection, type Figure, type RunOptions, consume, cpuMs, measure, median, now } from './lib';
 
 // tsconfig maps the bare name 'odex' to its local type declaration (test/types/odex.d.ts),
@@ -141,165 +141,201 @@ function odexRun(model: PreparedModel, seeds: Float64Array, tol: number): OdexRu
   return { maxErrDeg, maxRadialErrRe, evals, ms, cpuMs: cpuMs() - c0 };
 }
 
+interface Speed {
+  nLines: number;
+  nSeeds: number;
+  tracesPerSecond: number;
+  tracesPerCpuSecond: number;
+  evalsPerTrace: number;
+  evalNsOnPath: number;
+  overheadRatio: number;
+  overheadRatioCpu: number;
+}
+
+/** Closed equatorial lines L 2–12 × 8 MLT of one condition: speed, evaluations and overhead. */
+function tracingSpeed(conditions: Parameters<typeof prepareModel>[0], ls: number[], reps: number): Speed {
+  const model = prepareModel(conditions);
+  const tracer = new Tracer(model);
+  const all = equatorSeeds(model, ls, MLTS);
+  const kept: number[] = [];
+  let pathPts = 0;
+  for (let i = 0; i < all.length / 3; i++) {
+    if (tracer.trace(all[3 * i], all[3 * i + 1], all[3 * i + 2]) === LINE_CLOSED) {
+      kept.push(all[3 * i], all[3 * i + 1], all[3 * i + 2]);
+      pathPts += tracer.nPoints;
+    }
+  }
+  const seeds = Float64Array.from(kept);
+  const nLines = seeds.length / 3;
+  // Points along the traced lines, for the evaluation cost where the tracer actually evaluates.
+  const path = new Float64Array(3 * pathPts);
+  let evalsTotal = 0;
+  let k = 0;
+  for (let i = 0; i < nLines; i++) {
+    tracer.trace(seeds[3 * i], seeds[3 * i + 1], seeds[3 * i + 2]);
+    evalsTotal += tracer.evals;
+    path.set(tracer.points.subarray(0, 3 * tracer.nPoints), k);
+    k += 3 * tracer.nPoints;
+  }
+  const evalsPerTrace = evalsTotal / nLines;
+  const traceM = measure(() => void traceAll(tracer, seeds), reps, 3);
+  const out = new Float64Array(3);
+  const pathEval = measure(() => {
+    let acc = 0;
+    for (let rep = 0; rep < 10; rep++) {
+      for (let i = 0; i < pathPts; i++) {
+        model.evaluate(out, path[3 * i], path[3 * i + 1], path[3 * i + 2]);
+        acc += out[0];
+      }
+    }
+    consume(acc);
+  }, reps, 3);
+  const evalNsOnPath = (pathEval.wallMs * 1e6) / (10 * pathPts);
+  const evalCpuNs = (pathEval.cpuMs * 1e6) / (10 * pathPts);
+  return {
+    nLines,
+    nSeeds: all.length / 3,
+    tracesPerSecond: nLines / (traceM.wallMs / 1000),
+    tracesPerCpuSecond: nLines / (traceM.cpuMs / 1000),
+    evalsPerTrace,
+    evalNsOnPath,
+    overheadRatio: (traceM.wallMs * 1e6) / nLines / (evalsPerTrace * evalNsOnPath),
+    overheadRatioCpu: (traceM.cpuMs * 1e6) / nLines / (evalsPerTrace * evalCpuNs),
+  };
+}
+
+interface Scene { ms: number; cpuMs: number; prepareMs: number; linesMs: number; boundariesMs: number; lines: number; boundaryTraces: number }
+
+/**
+ * One scene recompute after a condition change: prepare a fresh model, trace
+ * 200 lines (8 MLTs × 25 northern magnetic latitudes 55°–85°, from 110 km,
+ * points copied out as the scene needs them) and both hemispheres' boundaries
+ * at 1 h MLT steps. Median of reps after 2 warm-ups.
+ */
+function sceneTime(conditions: Parameters<typeof prepareModel>[0], reps: number): Scene {
+  const lats = range(0, 24, 1).map((i) => 55 + 1.25 * i);
+  const mltHours = mltGrid(1);
+  const p = new Float64Array(3);
+  const runs: { total: number; cpu: number; prep: number; lines: number; bnd: number }[] = [];
+  let lines = 0;
+  for (let rep = 0; rep < reps + 2; rep++) {
+    const c0 = cpuMs();
+    const t0 = now();
+    const m = prepareModel(conditions);
+    const t = makeTracer(m);
+    const t1 = now();
+    lines = 0;
+    for (const mlt of MLTS) {
+      for (const lat of lats) {
+        gsmAtMagneticLatMlt(p, m.frames, lat, mlt, ALT_KM, true);
+        consume(traceGsm(m, t, p[0], p[1], p[2], true).lengthRe);
+        lines++;
+      }
+    }
+    const t2 = now();
+    consume(ovalBoundaries(m, t, ['north', 'south'], mltHours).length);
+    const t3 = now();
+    if (rep >= 2) runs.push({ total: t3 - t0, cpu: cpuMs() - c0, prep: t1 - t0, lines: t2 - t1, bnd: t3 - t2 });
+  }
+  // How many traces the boundary searches take (separate, untimed pass).
+  const m = prepareModel(conditions);
+  const counting = new (class extends Tracer { count = 0; override trace(x: number, y: number, z: number): number { this.count++; return super.trace(x, y, z); } })(m);
+  ovalBoundaries(m, counting, ['north', 'south'], mltHours);
+  const med = (k: 'total' | 'cpu' | 'prep' | 'lines' | 'bnd'): number => median(runs.map((r) => r[k]));
+  return { ms: med('total'), cpuMs: med('cpu'), prepareMs: med('prep'), linesMs: med('lines'), boundariesMs: med('bnd'), lines, boundaryTraces: counting.count };
+}
+
+function sceneNote(s: Scene, what: string): string {
+  return `${what}: prepare ${s.prepareMs.toFixed(1)} + ${s.lines} lines ${s.linesMs.toFixed(1)} + boundaries (2 hemispheres × 24 MLT, ${s.boundaryTraces} traces) ${s.boundariesMs.toFixed(1)} ms`;
+}
+
 export const tracerSection: BenchSection = {
   name: 'tracer',
   title: 'Field-line tracer (issue 3)',
+  parts: ['model', 'dipole', 'tail'],
   run(o: RunOptions) {
     const reps = o.quick ? 3 : 7;
+    const sceneReps = o.quick ? 3 : 7;
     const ls = range(2, 12, 0.25);
+    const figures: Figure[] = [];
+    const detail: Record<string, unknown> = {};
 
-    // --- Speed through the real model.
-    const model = prepareModel(BENCH_CONDITIONS);
-    const tracer = new Tracer(model);
-    const all = equatorSeeds(model, ls, MLTS);
-    const kept: number[] = [];
-    let pathPts = 0;
-    for (let i = 0; i < all.length / 3; i++) {
-      if (tracer.trace(all[3 * i], all[3 * i + 1], all[3 * i + 2]) === LINE_CLOSED) {
-        kept.push(all[3 * i], all[3 * i + 1], all[3 * i + 2]);
-        pathPts += tracer.nPoints;
-      }
+    // --- Speed through the issue-3 model (dipole + compression + IMF) and a scene recompute.
+    if (!o.part || o.part === 'model') {
+      const sp = tracingSpeed(BENCH_CONDITIONS, ls, reps);
+      o.log(`tracer: ${sp.nLines} of ${sp.nSeeds} equatorial seeds are closed (dipole + compression + IMF)`);
+      const sc = sceneTime(BENCH_CONDITIONS, sceneReps);
+      figures.push(
+        { key: 'tracesPerSecond', value: sp.tracesPerSecond, cpuValue: sp.tracesPerCpuSecond, unit: 'lines/s', target: { op: '>=', value: 10_000, issue: 3 }, note: `${sp.nLines} closed lines, L 2–12 × 8 MLT, dipole + compression + IMF, one core` },
+        { key: 'evalsPerTrace', value: sp.evalsPerTrace, unit: 'evals/line', note: 'same lines' },
+        { key: 'overheadRatio', value: sp.overheadRatio, cpuValue: sp.overheadRatioCpu, unit: '×', target: { op: '<=', value: 1.3, issue: 3 }, note: `trace time / (evals × ${sp.evalNsOnPath.toFixed(1)} ns per eval on the traced points)` },
+        { key: 'sceneMs', value: sc.ms, cpuValue: sc.cpuMs, unit: 'ms', target: { op: '<=', value: 150, issue: 3 }, note: sceneNote(sc, 'dipole + compression + IMF') },
+      );
+      Object.assign(detail, { speed: sp, scene: sc });
     }
-    const seeds = Float64Array.from(kept);
-    const nLines = seeds.length / 3;
-    o.log(`tracer: ${nLines} of ${all.length / 3} equatorial seeds are closed in the default model`);
-    // Points along the traced lines, for the evaluation cost where the tracer actually evaluates.
-    const path = new Float64Array(3 * pathPts);
-    let evalsTotal = 0;
-    {
-      let k = 0;
-      for (let i = 0; i < nLines; i++) {
-        tracer.trace(seeds[3 * i], seeds[3 * i + 1], seeds[3 * i + 2]);
-        evalsTotal += tracer.evals;
-        path.set(tracer.points.subarray(0, 3 * tracer.nPoints), k);
-        k += 3 * tracer.nPoints;
-      }
-    }
-    const evalsPerTrace = evalsTotal / nLines;
-    const traceM = measure(() => void traceAll(tracer, seeds), reps, 3);
-    const traceMs = traceM.wallMs;
-    const tracesPerSecond = nLines / (traceMs / 1000);
-    const out = new Float64Array(3);
-    const pathEval = measure(() => {
-      let acc = 0;
-      for (let rep = 0; rep < 10; rep++) {
-        for (let i = 0; i < pathPts; i++) {
-          model.evaluate(out, path[3 * i], path[3 * i + 1], path[3 * i + 2]);
-          acc += out[0];
-        }
-      }
-      consume(acc);
-    }, reps, 3);
-    const evalNsOnPath = (pathEval.wallMs * 1e6) / (10 * pathPts);
-    const traceNs = (traceMs * 1e6) / nLines;
-    const overheadRatio = traceNs / (evalsPerTrace * evalNsOnPath);
-    const overheadRatioCpu = traceM.cpuMs / nLines / (evalsPerTrace * (pathEval.cpuMs / (10 * pathPts)));
 
     // --- Accuracy and odex comparison in the pure tilt-0 dipole.
-    const dip = prepareModel({ time: BENCH_CONDITIONS.time, internal: 'dipole', magnetopause: false, imfEfficiency: 0, tiltDeg: 0, tail: false });
-    const dTracer = new Tracer(dip, { ellipsoid: false, altKm: ALT_KM });
-    const dSeeds = equatorSeeds(dip, ls, [0, 6, 12, 18]);
-    const acc = dipoleFootError(dip, dTracer, dSeeds);
-    let dEvals = 0;
-    for (let i = 0; i < dSeeds.length / 3; i++) { dTracer.trace(dSeeds[3 * i], dSeeds[3 * i + 1], dSeeds[3 * i + 2]); dEvals += dTracer.evals; }
-    const oursDipole = measure(() => void traceAll(dTracer, dSeeds), reps, 3);
-    const oursDipoleMs = oursDipole.wallMs;
+    if (!o.part || o.part === 'dipole') {
+      const dip = prepareModel({ time: BENCH_CONDITIONS.time, internal: 'dipole', magnetopause: false, imfEfficiency: 0, tiltDeg: 0, tail: false });
+      const dTracer = new Tracer(dip, { ellipsoid: false, altKm: ALT_KM });
+      const dSeeds = equatorSeeds(dip, ls, [0, 6, 12, 18]);
+      const acc = dipoleFootError(dip, dTracer, dSeeds);
+      let dEvals = 0;
+      for (let i = 0; i < dSeeds.length / 3; i++) { dTracer.trace(dSeeds[3 * i], dSeeds[3 * i + 1], dSeeds[3 * i + 2]); dEvals += dTracer.evals; }
+      const oursDipole = measure(() => void traceAll(dTracer, dSeeds), reps, 3);
+      const oursDipoleMs = oursDipole.wallMs;
 
-    // Loosest tolerance on a 10^(1/4) ladder whose error is ≤ ours.
-    const tols = range(0, 28, 1).map((i) => 1e-5 * 10 ** (-i / 4));
-    const tried: { tol: number; errDeg: number }[] = [];
-    let chosen: { tol: number; run: OdexRun } | null = null;
-    for (const tol of tols) {
-      const r = odexRun(dip, dSeeds, tol);
-      tried.push({ tol, errDeg: r.maxErrDeg });
-      if (r.maxErrDeg <= acc.maxDeg) { chosen = { tol, run: r }; break; }
-    }
-    let odexMs = NaN, odexCpuMs = NaN, odexErr = NaN, odexEvalsPerTrace = NaN, odexRadial = NaN;
-    if (chosen) {
-      odexRun(dip, dSeeds, chosen.tol); // warm-up at the chosen tolerance
-      const runs: OdexRun[] = [];
-      for (let i = 0; i < (o.quick ? 1 : 5); i++) runs.push(odexRun(dip, dSeeds, chosen.tol));
-      odexMs = median(runs.map((r) => r.ms));
-      odexCpuMs = median(runs.map((r) => r.cpuMs));
-      odexErr = runs[0].maxErrDeg;
-      odexRadial = runs[0].maxRadialErrRe;
-      odexEvalsPerTrace = runs[0].evals / (dSeeds.length / 3);
-    }
-    const odexSpeedRatio = odexMs / oursDipoleMs;
-    o.log(`tracer: odex tolerance ${chosen?.tol.toExponential(2) ?? 'none'} (tried ${tried.map((t) => `${t.tol.toExponential(1)}:${t.errDeg.toExponential(2)}°`).join(', ')})`);
-
-    // --- Scene recompute on a fresh model.
-    const lats = range(0, 24, 1).map((i) => 55 + 1.25 * i); // 55°–85° magnetic latitude, north
-    const mltHours = mltGrid(1);
-    const p = new Float64Array(3);
-    let prepMs = 0, linesMs = 0, bndMs = 0, sceneLines = 0, sceneCpu = 0;
-    const scene = (): void => {
-      const c0 = cpuMs();
-      const t0 = now();
-      const m = prepareModel(BENCH_CONDITIONS);
-      const t = makeTracer(m);
-      const t1 = now();
-      let n = 0;
-      for (const mlt of MLTS) {
-        for (const lat of lats) {
-          gsmAtMagneticLatMlt(p, m.frames, lat, mlt, ALT_KM, true);
-          const line = traceGsm(m, t, p[0], p[1], p[2], true);
-          consume(line.lengthRe);
-          n++;
-        }
+      // Loosest tolerance on a 10^(1/4) ladder whose error is ≤ ours.
+      const tols = range(0, 28, 1).map((i) => 1e-5 * 10 ** (-i / 4));
+      const tried: { tol: number; errDeg: number }[] = [];
+      let chosen: number | null = null;
+      for (const tol of tols) {
+        const r = odexRun(dip, dSeeds, tol);
+        tried.push({ tol, errDeg: r.maxErrDeg });
+        if (r.maxErrDeg <= acc.maxDeg) { chosen = tol; break; }
       }
-      const t2 = now();
-      const b = ovalBoundaries(m, t, ['north', 'south'], mltHours);
-      consume(b.length);
-      const t3 = now();
-      prepMs = t1 - t0; linesMs = t2 - t1; bndMs = t3 - t2; sceneLines = n;
-      sceneCpu = cpuMs() - c0;
-    };
-    const sceneRuns: { total: number; cpu: number; prep: number; lines: number; bnd: number }[] = [];
-    for (let i = 0; i < 2; i++) scene();
-    for (let i = 0; i < (o.quick ? 3 : 7); i++) {
-      scene();
-      sceneRuns.push({ total: prepMs + linesMs + bndMs, cpu: sceneCpu, prep: prepMs, lines: linesMs, bnd: bndMs });
+      let odexMs = NaN, odexCpuMs = NaN, odexErr = NaN, odexEvalsPerTrace = NaN, odexRadial = NaN;
+      if (chosen !== null) {
+        odexRun(dip, dSeeds, chosen); // warm-up at the chosen tolerance
+        const runs: OdexRun[] = [];
+        for (let i = 0; i < (o.quick ? 1 : 5); i++) runs.push(odexRun(dip, dSeeds, chosen));
+        odexMs = median(runs.map((r) => r.ms));
+        odexCpuMs = median(runs.map((r) => r.cpuMs));
+        odexErr = runs[0].maxErrDeg;
+        odexRadial = runs[0].maxRadialErrRe;
+        odexEvalsPerTrace = runs[0].evals / (dSeeds.length / 3);
+      }
+      o.log(`tracer: odex tolerance ${chosen?.toExponential(2) ?? 'none'} (tried ${tried.map((t) => `${t.tol.toExponential(1)}:${t.errDeg.toExponential(2)}°`).join(', ')})`);
+      figures.push(
+        { key: 'footpointErrorDeg', value: acc.maxDeg, unit: 'deg', target: { op: '<=', value: 0.001, issue: 3 }, note: 'tilt-0 dipole, 110 km sphere, max over L 2–12 and both ends' },
+        { key: 'odexSpeedRatio', value: odexMs / oursDipoleMs, cpuValue: odexCpuMs / oursDipole.cpuMs, unit: '×', target: { op: '>=', value: 3, issue: 3 }, note: `odex ${odexMs.toFixed(1)} ms (tol ${chosen?.toExponential(2) ?? '—'}, ${odexEvalsPerTrace.toFixed(0)} evals/line) / ours ${oursDipoleMs.toFixed(1)} ms (${(dEvals / (dSeeds.length / 3)).toFixed(0)} evals/line), ${dSeeds.length / 3} lines` },
+        { key: 'odexFootpointErrorDeg', value: odexErr, unit: 'deg', note: 'odex at the chosen tolerance (must be ≤ footpointErrorDeg)' },
+      );
+      detail.dipole = {
+        lines: dSeeds.length / 3,
+        oursMs: oursDipoleMs,
+        oursEvalsPerTrace: dEvals / (dSeeds.length / 3),
+        oursErrorDegPerL: acc.perL,
+        odexTolerance: chosen,
+        odexMs,
+        odexEvalsPerTrace,
+        odexRadialErrorRe: odexRadial,
+        odexTried: tried,
+      };
     }
-    // How many traces the boundary searches take (separate, untimed pass).
-    const counting = new (class extends Tracer { count = 0; override trace(x: number, y: number, z: number): number { this.count++; return super.trace(x, y, z); } })(model);
-    ovalBoundaries(model, counting, ['north', 'south'], mltHours);
 
-    const sceneMed = (k: 'prep' | 'lines' | 'bnd'): string => median(sceneRuns.map((r) => r[k])).toFixed(1);
-    const figures: Figure[] = [
-      { key: 'tracesPerSecond', value: tracesPerSecond, cpuValue: nLines / (traceM.cpuMs / 1000), unit: 'lines/s', target: { op: '>=', value: 10_000, issue: 3 }, note: `${nLines} closed lines, L 2–12 × 8 MLT, default model, one core` },
-      { key: 'footpointErrorDeg', value: acc.maxDeg, unit: 'deg', target: { op: '<=', value: 0.001, issue: 3 }, note: 'tilt-0 dipole, 110 km sphere, max over L 2–12 and both ends' },
-      { key: 'evalsPerTrace', value: evalsPerTrace, unit: 'evals/line', note: 'default model' },
-      { key: 'overheadRatio', value: overheadRatio, cpuValue: overheadRatioCpu, unit: '×', target: { op: '<=', value: 1.3, issue: 3 }, note: `trace time / (evals × ${evalNsOnPath.toFixed(1)} ns per eval on the traced points)` },
-      { key: 'odexSpeedRatio', value: odexSpeedRatio, cpuValue: odexCpuMs / oursDipole.cpuMs, unit: '×', target: { op: '>=', value: 3, issue: 3 }, note: `odex ${odexMs.toFixed(1)} ms (tol ${chosen?.tol.toExponential(2) ?? '—'}, err ${odexErr.toExponential(2)}°) / ours ${oursDipoleMs.toFixed(1)} ms (err ${acc.maxDeg.toExponential(2)}°)` },
-      { key: 'odexFootpointErrorDeg', value: odexErr, unit: 'deg', note: 'odex at the chosen tolerance' },
-      { key: 'sceneMs', value: median(sceneRuns.map((r) => r.total)), cpuValue: median(sceneRuns.map((r) => r.cpu)), unit: 'ms', target: { op: '<=', value: 150, issue: 3 }, note: `prepare ${sceneMed('prep')} + ${sceneLines} lines ${sceneMed('lines')} + boundaries (2 hemispheres × 24 MLT, ${counting.count} traces) ${sceneMed('bnd')} ms, median of ${sceneRuns.length}` },
-    ];
-    return {
-      figures,
-      detail: {
-        closedLines: nLines,
-        seeds: all.length / 3,
-        evalNsOnPath,
-        traceUs: traceNs / 1000,
-        dipole: {
-          lines: dSeeds.length / 3,
-          oursMs: oursDipoleMs,
-          oursEvalsPerTrace: dEvals / (dSeeds.length / 3),
-          oursErrorDegPerL: acc.perL,
-          odexTolerance: chosen?.tol ?? null,
-          odexMs,
-          odexEvalsPerTrace,
-          odexRadialErrorRe: odexRadial,
-          odexTried: tried,
-        },
-        scene: {
-          prepareMs: median(sceneRuns.map((r) => r.prep)),
-          linesMs: median(sceneRuns.map((r) => r.lines)),
-          boundariesMs: median(sceneRuns.map((r) => r.bnd)),
-          boundaryTraces: counting.count,
-        },
-      },
-    };
+    // --- The app default model (tail sheet on), for context.
+    if (!o.part || o.part === 'tail') {
+      const spTail = tracingSpeed(BENCH_CONDITIONS_TAIL, ls, reps);
+      o.log(`tracer: ${spTail.nLines} of ${spTail.nSeeds} equatorial seeds are closed (with the tail)`);
+      const scTail = sceneTime(BENCH_CONDITIONS_TAIL, sceneReps);
+      figures.push(
+        { key: 'tracesPerSecondWithTail', value: spTail.tracesPerSecond, cpuValue: spTail.tracesPerCpuSecond, unit: 'lines/s', note: `${spTail.nLines} closed lines, app default model (tail on), ${spTail.evalsPerTrace.toFixed(0)} evals/line, ${spTail.evalNsOnPath.toFixed(0)} ns/eval` },
+        { key: 'overheadRatioWithTail', value: spTail.overheadRatio, cpuValue: spTail.overheadRatioCpu, unit: '×', note: 'app default model (tail on)' },
+        { key: 'sceneMsWithTail', value: scTail.ms, cpuValue: scTail.cpuMs, unit: 'ms', note: sceneNote(scTail, 'tail on') },
+      );
+      Object.assign(detail, { speedWithTail: spTail, sceneWithTail: scTail });
+    }
+    return { figures, detail };
   },
 };

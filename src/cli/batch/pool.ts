@@ -29,6 +29,7 @@ export function threadRunner(n: number, sites: RowOutcome<SiteInput>[], settings
   const url = new URL('./worker-boot.mjs', import.meta.url);
   const queue: Pending[] = [];
   let failure: Error | null = null;
+  let closing = false;
   const slots = Array.from({ length: n }, () => {
     const w = new Worker(url, { workerData: { sites, settings } });
     const busy = new Map<number, Pending>();
@@ -49,7 +50,6 @@ export function threadRunner(n: number, sites: RowOutcome<SiteInput>[], settings
     w.on('exit', (code) => { if (code !== 0 && !closing) fail(new Error(`a batch worker stopped with exit code ${code}`)); });
     return slot;
   });
-  let closing = false;
   function pump(): void {
     while (queue.length > 0) {
       let best: (typeof slots)[number] | null = null;

@@ -64,7 +64,7 @@ export const DEFAULT_TRACE_OPTIONS: Readonly<TraceOptions> = Object.freeze({
   ellipsoid: true,
   stepFactor: 0.1,
   hMinRe: 1e-3,
-  hMaxRe: 1.0,
+  hMaxRe: 2.0,
   rMaxRe: 100,
   maxSteps: 4000,
   maxLengthRe: 1000,

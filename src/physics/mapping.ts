@@ -179,7 +179,7 @@ export function sectorBoundaries(model: PreparedModel, t: Tracer, hemisphere: He
   const h = hint?.openClosedLatDeg ?? NaN;
   if (Number.isFinite(h)) {
     // Expand a bracket outward from the predicted latitude (at most a few steps).
-    const w = Math.max(HINT_HALF_WIDTH_DEG, hint?.halfWidthDeg ?? 0);
+    const w = hintWidth(hint);
     let lo = Math.max(o.minLatDeg, h - w), hi = Math.min(89.99, h + w);
     let a = probe(lo);
     if (a.closed) {
@@ -237,7 +237,7 @@ export function sectorBoundaries(model: PreparedModel, t: Tracer, hemisphere: He
   return {
     mltHours: mltH,
     openClosed: ocFound ? boundaryPoint(model, t, sgn * ocLat, mltH) : null,
-    equatorward: equatorwardEdge(model, t, sgn, mltH, samples, ocLat, o, eqHint),
+    equatorward: equatorwardEdge(model, t, sgn, mltH, samples, ocLat, o, eqHint, hintWidth(hint)),
   };
 }
 
@@ -247,7 +247,7 @@ interface Sample { lat: number; eqR: number }
 export interface BoundaryHint {
   openClosedLatDeg?: number;
   equatorwardLatDeg?: number;
-  /** Half-width of the first bracket, deg (at least 0.75). */
+  /** Half-width of the first bracket, deg (default 0.75, at least 0.05). */
   halfWidthDeg?: number;
 }
 
@@ -262,14 +262,19 @@ export function predictHint(prev: SectorBoundaries | null, prev2: SectorBoundari
   return {
     openClosedLatDeg: oc1 + dOc,
     equatorwardLatDeg: eq1 + dEq,
-    halfWidthDeg: 0.5 * Math.max(Math.abs(dOc), Math.abs(dEq)),
+    halfWidthDeg: Math.max(HINT_HALF_WIDTH_DEG, 0.5 * Math.max(Math.abs(dOc), Math.abs(dEq))),
   };
 }
 
-/** Half-width of the bracket placed around a neighbouring sector's answer, deg. */
+/** Default half-width of the bracket placed around a predicted latitude, deg. */
 const HINT_HALF_WIDTH_DEG = 0.75;
 
-function equatorwardEdge(model: PreparedModel, t: Tracer, sgn: number, mltH: number, samples: Sample[], ocLat: number, o: BoundaryOptions, hintLat: number): BoundaryPoint | null {
+function hintWidth(hint: BoundaryHint | null | undefined): number {
+  const w = hint?.halfWidthDeg;
+  return w !== undefined && Number.isFinite(w) ? Math.max(0.05, w) : HINT_HALF_WIDTH_DEG;
+}
+
+function equatorwardEdge(model: PreparedModel, t: Tracer, sgn: number, mltH: number, samples: Sample[], ocLat: number, o: BoundaryOptions, hintLat: number, hintW: number): BoundaryPoint | null {
   const src = o.sourceRe;
   const probe = (lat: number): number => {
     const r = closedAt(model, t, sgn * lat, mltH);
@@ -278,7 +283,7 @@ function equatorwardEdge(model: PreparedModel, t: Tracer, sgn: number, mltH: num
   // Bracket [lo, hi] with g(lo) ≤ 0 < g(hi) (or hi not closed).
   let lo = NaN, glo = NaN, hi = NaN, ghi = NaN;
   if (Number.isFinite(hintLat)) {
-    const a = Math.max(o.minLatDeg, hintLat - HINT_HALF_WIDTH_DEG), b = hintLat + HINT_HALF_WIDTH_DEG;
+    const a = Math.max(o.minLatDeg, hintLat - hintW), b = hintLat + hintW;
     const ga = probe(a);
     if (ga <= 0) {
       const gb = probe(b);
@@ -329,6 +334,36 @@ function equatorwardEdge(model: PreparedModel, t: Tracer, sgn: number, mltH: num
   const lat = Number.isFinite(root) ? root : 0.5 * (lo + hi);
   if (!Number.isNaN(ocLat) && lat >= ocLat - o.latTolDeg) return null; // the source lies on open lines here
   return boundaryPoint(model, t, sgn * lat, mltH);
+}
+
+/**
+ * Exact boundaries at arbitrary MLTs for one model, each search started from
+ * the nearest MLT already answered (bracket half-width growing with the MLT
+ * distance). For many sites of one condition; every answer is a full
+ * sectorBoundaries search to latTolDeg, so it agrees with an unhinted one to
+ * that tolerance.
+ */
+export function boundaryFinder(model: PreparedModel, t: Tracer, opts: Partial<BoundaryOptions> = {}): (hemisphere: Hemisphere, mltH: number) => SectorBoundaries {
+  const done: Record<Hemisphere, SectorBoundaries[]> = { north: [], south: [] };
+  return (hemisphere, mltH) => {
+    let best: SectorBoundaries | null = null;
+    let dBest = Infinity;
+    for (const b of done[hemisphere]) {
+      const d = Math.abs(((b.mltHours - mltH + 36) % 24) - 12);
+      if (d < dBest) { dBest = d; best = b; }
+    }
+    if (best && dBest === 0) return best;
+    const hint: BoundaryHint | null = best && dBest <= 3
+      ? {
+        openClosedLatDeg: best.openClosed ? Math.abs(best.openClosed.magLatDeg) : undefined,
+        equatorwardLatDeg: best.equatorward ? Math.abs(best.equatorward.magLatDeg) : undefined,
+        halfWidthDeg: 0.15 + 1.2 * dBest, // boundaries move up to ~1–2° per hour of MLT near noon
+      }
+      : null;
+    const r = sectorBoundaries(model, t, hemisphere, mltH, opts, hint);
+    done[hemisphere].push(r);
+    return r;
+  };
 }
 
 /** MLT grid 0 ≤ h < 24 with the given step (hours). */

@@ -2,13 +2,15 @@
  * The per-site report of the batch command, with the boundary search as a
  * parameter. With `exactBoundaries` it is siteReport (src/physics/site-report.ts)
  * line for line, less the site's line points, which a table does not need
- * (test/cli/batch-rows.test.ts holds the two equal). With `gridBoundaries` the
+ * (test/cli/batch-rows.test.ts holds the two equal); its searches start from the
+ * nearest site already answered for the condition (mapping.ts boundaryFinder),
+ * which changes the cost, not the answer beyond the 0.01° search tolerance. With `gridBoundaries` the
  * boundaries come from an MLT grid computed once per condition and
  * interpolated: an opt-in approximation (--boundary-mlt-step) for speed.
  */
 import type { PreparedModel } from '../../physics/model';
 import type { Tracer } from '../../physics/trace';
-import { traceSite, sectorBoundaries, ovalRelation, mltGrid, type SectorBoundaries, type BoundaryPoint, type Hemisphere } from '../../physics/mapping';
+import { traceSite, sectorBoundaries, boundaryFinder, ovalRelation, mltGrid, type SectorBoundaries, type BoundaryPoint, type Hemisphere } from '../../physics/mapping';
 import { skyPosition } from '../../physics/sky';
 import { describePoint, gsmAtMagneticLatMlt } from '../../physics/footpoint';
 import type { SiteInput, SiteResult, SiteReportOptions } from '../../physics/site-report';
@@ -18,7 +20,7 @@ export type BoundaryProvider = (hemisphere: Hemisphere, mltH: number) => SectorB
 
 /** The engine's search at the exact MLT (what `oval` and the app compute). */
 export function exactBoundaries(m: PreparedModel, tAlt: Tracer, sourceRe: number): BoundaryProvider {
-  return (h, mlt) => sectorBoundaries(m, tAlt, h, mlt, { sourceRe });
+  return boundaryFinder(m, tAlt, { sourceRe });
 }
 
 const tmp = new Float64Array(3);

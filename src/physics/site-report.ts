@@ -4,7 +4,7 @@
  */
 import type { PreparedModel } from './model';
 import type { Tracer } from './trace';
-import { traceSite, sectorBoundaries, ovalRelation, type SectorBoundaries } from './mapping';
+import { traceSite, sectorBoundaries, ovalRelation, type SectorBoundaries, type Hemisphere } from './mapping';
 import { skyPosition } from './sky';
 import { applyMat3T } from './frames';
 import type { Footpoint } from './footpoint';
@@ -55,13 +55,18 @@ export interface SiteReportOptions {
  * its line through the conjugate altitude, footpoints and MLT at the emission
  * altitude, the boundaries at its MLT, where it stands against the oval, and
  * the nearest oval point in its sky. Never throws: a failure comes back in `error`.
+ * `boundaryAt` replaces the search at the site's MLT (the batch passes a finder
+ * that reuses neighbouring answers); `withLine` false leaves lineGeo empty.
  */
-export function siteReport(m: PreparedModel, tConj: Tracer, tAlt: Tracer, site: SiteInput, o: SiteReportOptions): SiteResult {
+/** Boundaries at one MLT in one hemisphere, for the model of the report. */
+export type BoundaryProvider = (hemisphere: Hemisphere, mltH: number) => SectorBoundaries;
+
+export function siteReport(m: PreparedModel, tConj: Tracer, tAlt: Tracer, site: SiteInput, o: SiteReportOptions, boundaryAt?: BoundaryProvider, withLine = true): SiteResult {
   const { altKm, sourceRe, minElevationDeg } = o;
   const base = { name: site.name, latDeg: site.latDeg, lonDeg: site.lonDeg };
   try {
-    const line = traceSite(m, tConj, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', true);
-    const pts = line.points!;
+    const line = traceSite(m, tConj, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', withLine);
+    const pts = line.points ?? new Float64Array(0);
     const g = m.frames.gsmFromGeo;
     const lineGeo = new Float64Array(pts.length);
     const v = new Float64Array(3);
@@ -79,7 +84,7 @@ export function siteReport(m: PreparedModel, tConj: Tracer, tAlt: Tracer, site: 
     let boundaries: SiteResult['boundaries'] = null;
     let sky: SiteResult['sky'] = null;
     if (Number.isFinite(mlt)) {
-      const b: SectorBoundaries = sectorBoundaries(m, tAlt, hemisphere, mlt, { sourceRe });
+      const b: SectorBoundaries = boundaryAt ? boundaryAt(hemisphere, mlt) : sectorBoundaries(m, tAlt, hemisphere, mlt, { sourceRe });
       boundaries = { openClosedMagLatDeg: b.openClosed ? b.openClosed.magLatDeg : null, equatorwardMagLatDeg: b.equatorward ? b.equatorward.magLatDeg : null };
       relation = atAlt.type === 'closed' || atAlt.type === 'open' ? ovalRelation(magLat, b) : 'unknown';
       // Nearest oval edge point at the emission altitude, seen from the site.

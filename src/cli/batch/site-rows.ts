@@ -1,8 +1,7 @@
 /**
  * The per-site report of the batch command, with the boundary search as a
- * parameter. With `exactBoundaries` it is siteReport (src/physics/site-report.ts)
- * line for line, less the site's line points, which a table does not need
- * (test/cli/batch-rows.test.ts holds the two equal); its searches start from the
+ * parameter: siteReport (src/physics/site-report.ts) without the site's line
+ * points, which a table does not need. With `exactBoundaries` its searches start from the
  * nearest site already answered for the condition (mapping.ts boundaryFinder),
  * which changes the cost, not the answer beyond the 0.01° search tolerance. With `gridBoundaries` the
  * boundaries come from an MLT grid computed once per condition and
@@ -10,13 +9,11 @@
  */
 import type { PreparedModel } from '../../physics/model';
 import type { Tracer } from '../../physics/trace';
-import { traceSite, sectorBoundaries, boundaryFinder, ovalRelation, mltGrid, type SectorBoundaries, type BoundaryPoint, type Hemisphere } from '../../physics/mapping';
-import { skyPosition } from '../../physics/sky';
+import { sectorBoundaries, boundaryFinder, mltGrid, type SectorBoundaries, type BoundaryPoint, type Hemisphere } from '../../physics/mapping';
 import { describePoint, gsmAtMagneticLatMlt } from '../../physics/footpoint';
-import type { SiteInput, SiteResult, SiteReportOptions } from '../../physics/site-report';
+import { siteReport, type BoundaryProvider, type SiteInput, type SiteResult, type SiteReportOptions } from '../../physics/site-report';
 
-/** Boundaries at one MLT in one hemisphere, for one prepared model. */
-export type BoundaryProvider = (hemisphere: Hemisphere, mltH: number) => SectorBoundaries;
+export type { BoundaryProvider };
 
 /** The engine's search at the exact MLT (what `oval` and the app compute). */
 export function exactBoundaries(m: PreparedModel, tAlt: Tracer, sourceRe: number): BoundaryProvider {
@@ -58,40 +55,5 @@ export function gridBoundaries(m: PreparedModel, tAlt: Tracer, sourceRe: number,
 
 /** siteReport with the boundaries from `boundaries`; lineGeo is left empty. Never throws. */
 export function siteRow(m: PreparedModel, tConj: Tracer, tAlt: Tracer, site: SiteInput, o: SiteReportOptions, boundaries: BoundaryProvider): SiteResult {
-  const { altKm, minElevationDeg } = o;
-  const base = { name: site.name, latDeg: site.latDeg, lonDeg: site.lonDeg };
-  try {
-    const line = traceSite(m, tConj, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', false);
-    const atAlt = traceSite(m, tAlt, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', false);
-    const near = atAlt.near ?? line.near;
-    const magLat = near ? near.magLatDeg : NaN;
-    const mlt = near ? near.mltHours : NaN;
-    const hemisphere = magLat >= 0 ? 'north' : 'south';
-    let relation: SiteResult['ovalRelation'] = 'unknown';
-    let bounds: SiteResult['boundaries'] = null;
-    let sky: SiteResult['sky'] = null;
-    if (Number.isFinite(mlt)) {
-      const b = boundaries(hemisphere, mlt);
-      bounds = { openClosedMagLatDeg: b.openClosed ? b.openClosed.magLatDeg : null, equatorwardMagLatDeg: b.equatorward ? b.equatorward.magLatDeg : null };
-      relation = atAlt.type === 'closed' || atAlt.type === 'open' ? ovalRelation(magLat, b) : 'unknown';
-      let best: { el: number; az: number; d: number } | null = null;
-      for (const p of [b.openClosed, b.equatorward]) {
-        if (!p) continue;
-        const s = skyPosition(site.latDeg, site.lonDeg, site.heightKm ?? 0, p.geoLatDeg, p.geoLonDeg, altKm);
-        if (!best || s.distanceKm < best.d) best = { el: s.elevationDeg, az: s.azimuthDeg, d: s.distanceKm };
-      }
-      if (relation === 'inside' && near) {
-        const s = skyPosition(site.latDeg, site.lonDeg, site.heightKm ?? 0, near.geoLatDeg, near.geoLonDeg, near.altKm);
-        best = { el: s.elevationDeg, az: s.azimuthDeg, d: s.distanceKm };
-      }
-      if (best) sky = { elevationDeg: best.el, azimuthDeg: best.az, distanceKm: best.d, visible: best.el >= minElevationDeg };
-    }
-    return {
-      ...base, type: line.type, conjugate: line.conjugate, footpoints: atAlt.footpoints,
-      equatorRe: line.equator ? line.equator.rRe : null, lShell: line.type === 'closed' && line.equator ? line.equator.rRe : null,
-      mltHours: mlt, magLatDeg: magLat, ovalRelation: relation, sky, lineGeo: new Float64Array(0), boundaries: bounds,
-    };
-  } catch (e) {
-    return { ...base, type: 'unresolved', conjugate: null, footpoints: [], equatorRe: null, lShell: null, mltHours: NaN, magLatDeg: NaN, ovalRelation: 'unknown', sky: null, boundaries: null, lineGeo: new Float64Array(0), error: e instanceof Error ? e.message : String(e) };
-  }
+  return siteReport(m, tConj, tAlt, site, o, boundaries, false);
 }

@@ -149,10 +149,10 @@ export function prepareModel(input: Partial<FieldConditions> & { time: string },
       warnings.push(`the compression field leaves ${(100 * comp.rmsResidualRel).toFixed(1)} % rms normal field on the magnetopause (fit good to < ${100 * limit} % inside the Shue fitted range)`);
     }
   }
-  const eps = c.imfEfficiency;
-  const imf = eps > 0 && (c.byNt !== 0 || c.bzNt !== 0) ? prepareImf(c.byNt, c.bzNt, eps) : null;
-  const imfBy = imf ? eps * c.byNt : 0;
-  const imfBz = imf ? eps * c.bzNt : 0;
+  // The IMF term is uniform: its penetrated components are folded into the sum below (imf.ts holds the formula).
+  const imf = prepareImf(c.byNt, c.bzNt, c.imfEfficiency);
+  const imfBy = imf.byNt;
+  const imfBz = imf.bzNt;
 
   const geoZRow = new Float64Array([frames.gsmFromGeo[2], frames.gsmFromGeo[5], frames.gsmFromGeo[8]]);
   const shape = mp;

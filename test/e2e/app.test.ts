@@ -5,11 +5,10 @@
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
-import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readCsvTable } from '../../src/io/csv';
 import { geoJsonProblems } from '../../src/io/geojson';
-import { launch, ROOT, serveApp, waitForEngine, type Browser, type Served } from './harness';
+import { CHROMIUM, launch, ROOT, serveApp, waitForEngine, type Browser, type Served } from './harness';
 import { downloadText, setNumber, waitFresh } from './pageHelpers';
 
 let served: Served;
@@ -18,7 +17,16 @@ const consoleErrors: string[] = [];
 const foreignRequests: string[] = [];
 const dialogs: string[] = [];
 
+// Debian's Chromium drives these tests (never a downloaded browser). Without it they are skipped
+// with a notice on a developer machine; under CI (CI=true, which .ci/run installs it for) its absence fails.
+const HAVE_BROWSER = existsSync(CHROMIUM);
+if (!HAVE_BROWSER) {
+  if (process.env.CI) throw new Error(`e2e: ${CHROMIUM} is missing under CI (.ci/run installs Debian's chromium)`);
+  console.warn(`e2e: ${CHROMIUM} not found — browser tests skipped (apt-get install -y chromium)`);
+}
+
 beforeAll(async () => {
+  if (!HAVE_BROWSER) return;
   served = await serveApp();
   b = await launch();
   b.page.on('console', (m) => { if (m.type() === 'error') consoleErrors.push(m.text()); });
@@ -57,7 +65,7 @@ function meanShift(before: string, after: string, hemi: string, col: string, fro
   return { shift: n ? sum / n : NaN, n };
 }
 
-describe('browser app', () => {
+describe.skipIf(!HAVE_BROWSER)('browser app', () => {
   it('loads the demo scenario with no console errors and nothing fetched from outside the origin', async () => {
     await expect.poll(() => b.page.getByText('Demo: moderate storm').count()).toBeGreaterThan(0);
     await expect(b.page.getByLabel('Dynamic pressure (nPa)', { exact: true }).inputValue()).resolves.toBe('3');
@@ -175,7 +183,7 @@ describe('browser app', () => {
     await b.page.getByRole('button', { name: `Remove site ${evil}` }).click();
   });
 
-  it.skipIf(!existsSync(join(ROOT, 'src/cli/main.ts')))('shows the same conjugate for a site added in the page as the CLI trace, to 0.01°', async () => {
+  it('shows the same conjugate for a site added in the page as the CLI trace, to 0.01°', async () => {
     await b.page.getByLabel('Site name').fill('Vellamo Skerry');
     await b.page.getByLabel('Latitude (deg)').fill('65.25');
     await b.page.getByLabel('Longitude (deg, east +)').fill('-21.5');
@@ -187,10 +195,10 @@ describe('browser app', () => {
       return { c: s.conditions, conj: r.conjugate };
     });
     expect(page.conj, 'the page found a conjugate').not.toBeNull();
-    const c = page.c as { time: string; pdynNpa: number; bzNt: number; byNt: number; internal: string; magnetopause: boolean; imfEfficiency: number };
+    const c = page.c as { time: string; pdynNpa: number; bzNt: number; byNt: number; internal: string; magnetopause: boolean; imfEfficiency: number; tail?: boolean };
     const out = execFileSync('npm', ['run', '--silent', 'cli', '--', 'trace', '--lat', '65.25', '--lon', '-21.5', '--alt-km', '0', '--format', 'json',
       '--time', c.time, '--pdyn', String(c.pdynNpa), '--bz', String(c.bzNt), '--by', String(c.byNt), '--internal', c.internal,
-      '--magnetopause', c.magnetopause ? 'on' : 'off', '--imf-efficiency', String(c.imfEfficiency)], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
+      '--magnetopause', c.magnetopause ? 'on' : 'off', '--imf-efficiency', String(c.imfEfficiency), '--tail', c.tail === false ? 'off' : 'on'], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
     const conj = findConjugate(JSON.parse(out));
     expect(conj, `a conjugate in the CLI output: ${out.slice(0, 300)}`).not.toBeNull();
     expect(Math.abs(conj!.geoLatDeg - page.conj!.geoLatDeg), 'conjugate latitude, page vs CLI (deg)').toBeLessThanOrEqual(0.01);

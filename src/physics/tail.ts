@@ -18,8 +18,9 @@
  * successively larger distances, so the current density falls tailward in steps and the
  * lobe field falls from nBands·b near Earth to b far out (the observed tailward decrease
  * of the lobe field, from memory: ~20–30 nT near 20 RE, ~10 nT beyond 60 RE). Equal
- * strengths let the logarithms combine into one call (derived): an evaluation costs
- * nBands atan2, one log and two square roots.
+ * strengths let the logarithms combine into one call (derived), and the band angles are the
+ * arguments of complex factors whose product gives their sum with a single atan2 (derived; see
+ * `evaluate`): an evaluation costs one atan2, one log and two square roots.
  *
  * Dawn–dusk taper (our choice): A(x, y, z') = f(y)·A_2D(x, z') with f = (1 + y²/W²)^−p. Any
  * A(x, y, z) ŷ gives B = (−∂A/∂z, 0, ∂A/∂x), still exactly divergence-free (derived); the
@@ -168,45 +169,60 @@ export function prepareTail(p: TailParameters, sinTilt: number, cosTilt: number)
   }
   const outer = Float64Array.from(p.outerRe);
   const xi = p.innerRe; // u_i = x − x_i = x + innerRe
+  const len = Float64Array.from(p.outerRe, (o) => o - xi); // band lengths u_o − u_i
   const kPi = p.lobeNt / n / Math.PI; // b/π per band
   const k2Pi = 0.5 * kPi; // b/2π per band
   const d2 = p.thicknessRe * p.thicknessRe;
   const tanT = sinTilt / cosTilt;
   const rh = p.hingeRe;
   const rh2 = rh * rh;
-  const rh3 = rh2 * rh;
+  const trh = tanT * rh;
+  const trh3 = tanT * rh2 * rh;
   const nb = n;
   const iw2 = Number.isFinite(p.widthRe) ? 1 / (p.widthRe * p.widthRe) : 0;
   const tp = p.taperPower;
   const evaluate = (out: Float64Array, x: number, y: number, z: number): void => {
-    const g = 1 / (1 + y * y * iw2);
-    let f = g;
-    for (let j = 1; j < tp; j++) f *= g;
+    const g = 1 + y * y * iw2;
+    let gp = g;
+    for (let j = 1; j < tp; j++) gp *= g; // 1/f
     // Hinge z0(x) = −tan ψ R_H x/√(x² + R_H²), z0' = −tan ψ R_H³/(x² + R_H²)^{3/2} (derived).
-    const q = x * x + rh2;
-    const iq = 1 / Math.sqrt(q);
-    const zp = z + tanT * rh * x * iq;
-    const dz0 = -tanT * rh3 * iq * iq * iq;
+    const iq = 1 / Math.sqrt(x * x + rh2);
+    const zp = z + trh * x * iq;
+    const dz0 = -trh3 * iq * iq * iq;
     const s2 = zp * zp + d2;
     const s = Math.sqrt(s2);
-    const is = 1 / s;
     const ui = x + xi;
-    const bi = ui * is;
     const di = ui * ui + s2;
-    // atan(a) − atan(b) = atan2(a − b, 1 + ab) exactly (the difference lies in (−π, π); derived): one call per band.
-    let at = 0;
+    // Band angle θ_k = atan(u_o/s) − atan(u_i/s) = arg(c_k), c_k = (s + i u_o)(s − i u_i)
+    // = s² + u_o u_i + i s (u_o − u_i), θ_k ∈ (0, π) (derived). The sum Σθ_k is the argument of
+    // Π c_k, unwrapped by keeping the running product in the upper half-plane (Im ≥ 0) and counting
+    // the half-turns removed: one atan2 for all bands (derived; the sign test cannot cancel near
+    // the 0 and 2π ends, where both terms of Im(Qc) share a sign).
+    let qr = 1, qi = 0, turns = 0;
     let num = 1, den = 1;
     for (let i = 0; i < nb; i++) {
       const uo = x + outer[i];
-      const a = uo * is;
-      at += Math.atan2(a - bi, 1 + a * bi);
+      const cr = s2 + uo * ui;
+      const ci = s * len[i];
+      const pr = qr * cr - qi * ci;
+      const pi = qr * ci + qi * cr;
+      if (pi >= 0) {
+        qr = pr;
+        qi = pi;
+      } else {
+        qr = -pr;
+        qi = -pi;
+        turns++;
+      }
       num *= uo * uo + s2;
       den *= di;
     }
-    const prod = num / den;
-    const bx = f * kPi * zp * is * at;
+    // + 0 turns a −0 imaginary part into +0, so atan2 stays in [0, π].
+    const at = turns * Math.PI + Math.atan2(qi + 0, qr);
+    const fs = 1 / (gp * s); // f/s: one division for taper and 1/s
+    const bx = kPi * zp * at * fs;
     out[0] += bx;
-    out[2] += -f * k2Pi * Math.log(prod) + dz0 * bx;
+    out[2] += -fs * s * k2Pi * Math.log(num / den) + dz0 * bx;
   };
   return { params: p, evaluate };
 }

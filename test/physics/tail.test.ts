@@ -52,6 +52,31 @@ describe('tail current sheet (2D vector potential, derived)', () => {
     }
   });
 
+  it('nested bands: the single-atan2 angle sum equals the per-band closed form Σ[atan(u_o/s) − atan(u_i/s)], also where it exceeds π and 2π (derived)', () => {
+    // Thin sheet (D = 0.3 RE): inside all three bands each angle is near π, so the sum approaches 3π.
+    const p = straight({ innerRe: 8, outerRe: [20, 45, 300], thicknessRe: 0.3 });
+    const t = prepareTail(p, 0, 1);
+    const o = new Float64Array(3);
+    let turnsSeen = 0;
+    for (const x of [30, 0, -7.9, -8, -8.1, -15, -19.99, -20, -20.01, -30, -44.9, -45.1, -100, -299.9, -300.1, -2000]) {
+      for (const z of [0, 1e-9, -0.01, 0.2, -1, 3, -12, 80]) {
+        const s2 = z * z + 0.09, s = Math.sqrt(s2), ui = x + 8;
+        let sum = 0, logRatio = 0;
+        for (const e of p.outerRe) {
+          sum += Math.atan((x + e) / s) - Math.atan(ui / s);
+          logRatio += Math.log(((x + e) ** 2 + s2) / (ui * ui + s2));
+        }
+        if (sum > Math.PI) turnsSeen++;
+        const b = 20 / 3; // per band
+        o.fill(0); t.evaluate(o, x, 0, z);
+        // Rounding only: the two forms differ by < 1e-13 relative (measured 1e-14).
+        expectClose(o[0], (b / Math.PI) * (z / s) * sum, 1e-12 * (Math.abs(o[0]) + 1e-3), `Bx at (${x}, ${z})`);
+        expectClose(o[2], -(b / (2 * Math.PI)) * logRatio, 1e-12 * (Math.abs(o[2]) + 1e-3), `Bz at (${x}, ${z})`);
+      }
+    }
+    expect(turnsSeen).toBeGreaterThan(10);
+  });
+
   it('is divergence-free with the hinge, taper and several bands (central differences, h = 1e-4 RE; derived: B = ∇×(A ŷ))', () => {
     const p = tailParameters(3, -6);
     const h = 1e-4;

@@ -92,33 +92,37 @@ export interface TailCalibration {
  * boundaries of CHECKS §8 under the constraint that the compression fit still shields
  * internal + tail to ≈ 1 % rms at zero tilt; the realism table in the README
  * (scripts/realism.ts) shows the result. Per parameter:
- *  - lobeNt 20 nT: the near-Earth lobe field, ~15–30 nT at 10–30 RE (from memory), the middle;
- *  - lobePerSouthNt 0.12, lobeMaxFactor 2.5: the lobe grows with southward Bz (open flux loaded
- *    into the tail, common practice); sets the midnight boundary's Bz dependence and, through the
- *    polar-cap size, part of the noon boundary's 0.5–0.8 °/nT (Zhou et al., 2000);
- *  - innerRe 9, innerPerSouthNt 0.3 RE/nT, innerMinRe 4: the inner edge of the tail current
- *    near 8–10 RE in quiet times, moving earthward in disturbed times (from memory);
+ *  - lobeNt 28 nT: the near-Earth lobe field, ~15–30 nT at 10–30 RE (from memory), the upper
+ *    part: it stretches the quiet-time (Bz 0) midnight field lines toward the 66–72° boundary;
+ *  - lobePerSouthNt 0.065, lobeMaxFactor 1.6: the lobe grows with southward Bz (open flux loaded
+ *    into the tail, common practice) to ~45 nT at saturation (the tilted fit residual sets this
+ *    ceiling); sets the midnight boundary's Bz dependence and, through the polar-cap size, part
+ *    of the noon boundary's 0.5–0.8 °/nT (Zhou et al., 2000);
+ *  - innerRe 9, innerPerSouthNt 0.55 RE/nT, innerMinRe 4: the inner edge of the tail current
+ *    near 8–10 RE in quiet times, moving earthward in disturbed times (from memory); the shift
+ *    keeps the noon boundary's Bz dependence above 0.5 °/nT with the smaller lobe growth;
  *  - bandLengthsRe [12, 40, 150]: the current density falls tailward in three steps, so the
- *    lobe field falls from 20 to ~7 nT by ~50 RE (from memory: ~10 nT beyond 60 RE) and the
+ *    lobe field falls from 28 to ~9 nT by ~50 RE (from memory: ~10 nT beyond 60 RE) and the
  *    sheet reaches the 100 RE trace limit (lines beyond it count as open, like the distant
  *    neutral line near ~100 RE, from memory);
  *  - thicknessRe 3.5: plasma-sheet half-thickness of a few RE in quiet times (from memory);
  *    thinner sheets stretch more but the fit residual grows (2 RE: > 1 %);
  *  - hingeRe 8: hinging distance of order 8–10 RE (from memory);
- *  - widthRe 20, taperPower 3: the taper falls to 1/8 at y = ±20 RE, the tail's flank radius
- *    (Shue et al., 1998: ≈ 20 RE at x = −10 RE for 2 nPa), chosen for the fit residual.
+ *  - widthRe 21.5, taperPower 3: the taper falls to 1/8 at y = ±21.5 RE, about the tail's flank
+ *    radius (Shue et al., 1998: ≈ 20 RE at x = −10 RE for 2 nPa), chosen for the fit residual
+ *    (scan 20–22 RE: lowest worst-case rms near 21–22 RE).
  */
 export const DEFAULT_TAIL_CALIBRATION: Readonly<TailCalibration> = Object.freeze({
-  lobeNt: 20,
-  lobePerSouthNt: 0.12,
-  lobeMaxFactor: 2.5,
+  lobeNt: 28,
+  lobePerSouthNt: 0.065,
+  lobeMaxFactor: 1.6,
   innerRe: 9,
-  innerPerSouthNt: 0.3,
+  innerPerSouthNt: 0.55,
   innerMinRe: 4,
   bandLengthsRe: Object.freeze([12, 40, 150]),
   thicknessRe: 3.5,
   hingeRe: 8,
-  widthRe: 20,
+  widthRe: 21.5,
   taperPower: 3,
 });
 

@@ -179,7 +179,7 @@ describe('tail in the model: the compression fit shields internal + tail', () =>
         }
       }
     }
-    // Measured: 0.98 % (tilt 0, worst at 10 nPa), 1.67 % (tilt ±35°, worst at 0.5 nPa, Bz −10).
+    // Measured: 0.97 % (tilt 0), 1.71 % (tilt ±35°, worst at 0.5 nPa, Bz −10).
     expectAtMost(worst0, 0.01, 'worst rms residual at zero tilt');
     expectAtMost(worstTilt, 0.018, 'worst rms residual at tilt ±35°');
   }, 60_000);

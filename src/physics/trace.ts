@@ -241,24 +241,9 @@ export class Tracer {
         const hs = 2 * (r - rStop) + o.hMinRe;
         if (hs < h) h = hs;
       }
-      const s = sign / bmag;
-      // RK4 stage 1 uses the field already at (x, y, z).
-      const k1x = bx * s, k1y = by * s, k1z = bz * s;
-      const hh = 0.5 * h;
-      f.evaluate(b, x + hh * k1x, y + hh * k1y, z + hh * k1z);
-      let m = sign / Math.sqrt(b[0] * b[0] + b[1] * b[1] + b[2] * b[2]);
-      const k2x = b[0] * m, k2y = b[1] * m, k2z = b[2] * m;
-      f.evaluate(b, x + hh * k2x, y + hh * k2y, z + hh * k2z);
-      m = sign / Math.sqrt(b[0] * b[0] + b[1] * b[1] + b[2] * b[2]);
-      const k3x = b[0] * m, k3y = b[1] * m, k3z = b[2] * m;
-      f.evaluate(b, x + h * k3x, y + h * k3y, z + h * k3z);
-      m = sign / Math.sqrt(b[0] * b[0] + b[1] * b[1] + b[2] * b[2]);
-      const k4x = b[0] * m, k4y = b[1] * m, k4z = b[2] * m;
-      const h6 = h / 6;
-      const nx = x + h6 * (k1x + 2 * k2x + 2 * k3x + k4x);
-      const ny = y + h6 * (k1y + 2 * k2y + 2 * k3y + k4y);
-      const nz = z + h6 * (k1z + 2 * k2z + 2 * k3z + k4z);
-      evals += 3;
+      // One RK4 step (stage 1 uses the field already at (x, y, z)).
+      evals += this.rk4Partial(x, y, z, bx, by, bz, bmag, sign, h);
+      const nx = this.landX, ny = this.landY, nz = this.landZ;
       const nr = Math.sqrt(nx * nx + ny * ny + nz * nz);
       const nStop = this.stopRadius(nx, ny, nz);
       if (nr <= nStop && !below) {
@@ -335,7 +320,7 @@ export class Tracer {
     return evals;
   }
 
-  /** One RK4 step of length t from (x, y, z) into land{X,Y,Z}; 3 evaluations. */
+  /** One RK4 step of length t from (x, y, z) (field bx, by, bz there) into land{X,Y,Z}; 3 evaluations. Used for every step and for the partial landing steps. */
   private rk4Partial(x: number, y: number, z: number, bx: number, by: number, bz: number, bmag: number, sign: number, t: number): number {
     const f = this.field;
     const b = this.lb;

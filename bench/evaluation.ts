@@ -7,10 +7,10 @@
  *  - evalNsIgrf13: the degree-13 spherical-harmonic main field alone (GEO);
  *  - prepareMs: prepareModel per condition over 200 varied conditions.
  */
-import { prepareModel, DEFAULT_IMF_EFFICIENCY, type PreparedModel } from '../src/physics/model';
-import { prepareMainField } from '../src/physics/mainfield/synthesis';
-import { igrfCoefficients } from '../src/physics/mainfield/coefficients';
-import type { FieldConditions } from '../src/physics/conditions';
+import { prepareModel, DEFAULT_IMF_EFFICIENCY, type PreparedModel } from '../src/physics/field/model';
+import { prepareMainField } from '../src/physics/field/mainfield/synthesis';
+import { igrfCoefficients } from '../src/physics/field/mainfield/coefficients';
+import type { FieldConditions } from '../src/physics/field/conditions';
 import { type BenchSection, type Figure, type RunOptions, consume, cpuMs, measure, median, now, seededRandom } from './lib';
 
 /**

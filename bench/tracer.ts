@@ -3,20 +3,20 @@
  *  - tracesPerSecond / evalsPerTrace / overheadRatio: closed lines seeded on the
  *    SM equator at L 2–12 (8 MLTs) of the default bench model, default options;
  *  - footpointErrorDeg: pure tilt-0 dipole, sphere at 110 km, against the
- *    analytic footpoint cos²λ = (1 + h/RE)/L (CHECKS.md §1, derived);
+ *    analytic footpoint cos²λ = (1 + h/RE)/L (references §1, derived);
  *  - odexSpeedRatio: the same ODE dr/ds = ±B/|B| integrated by odex (Gragg–
  *    Bulirsch–Stoer extrapolation, Hairer & Wanner's ODEX) to the analytic arc
- *    length of each half-line (CHECKS.md §1), tolerances tightened until its
+ *    length of each half-line (references §1), tolerances tightened until its
  *    footpoint error ≤ ours; wall time odex / ours;
  *  - sceneMs: one scene recompute on a freshly prepared model: 200 lines
  *    (8 MLTs × 25 latitudes) plus both hemispheres' boundaries at 1 h MLT.
  */
 import { createRequire } from 'node:module';
-import { prepareModel, type PreparedModel } from '../src/physics/model';
-import { Tracer, LINE_CLOSED } from '../src/physics/trace';
-import { applyMat3, applyMat3T } from '../src/physics/frames';
-import { gsmAtMagneticLatMlt } from '../src/physics/footpoint';
-import { makeTracer, traceGsm, ovalBoundaries, mltGrid } from '../src/physics/mapping';
+import { prepareModel, type PreparedModel } from '../src/physics/field/model';
+import { Tracer, LINE_CLOSED } from '../src/physics/trace/tracer';
+import { applyMat3, applyMat3T } from '../src/physics/frames/rotations';
+import { gsmAtMagneticLatMlt } from '../src/physics/trace/footpoint';
+import { makeTracer, traceGsm, ovalBoundaries, mltGrid } from '../src/physics/mapping/mapping';
 import { RE_KM, RAD } from '../src/physics/constants';
 import { BENCH_CONDITIONS, BENCH_CONDITIONS_TAIL } from './evaluation';
 import { type BenchSection, type Figure, type RunOptions, consume, cpuMs, measure, median, now } from './lib';
@@ -49,12 +49,12 @@ function range(a: number, b: number, step: number): number[] {
   return out;
 }
 
-/** Analytic footpoint latitude (rad) of the dipole line L at height h on the sphere: cos²λ = (1 + h/RE)/L (CHECKS.md §1). */
+/** Analytic footpoint latitude (rad) of the dipole line L at height h on the sphere: cos²λ = (1 + h/RE)/L (references §1). */
 function analyticFootLat(L: number, altKm: number): number {
   return Math.acos(Math.sqrt((1 + altKm / RE_KM) / L));
 }
 
-/** Dipole arc length (RE) from the equator to latitude λ: L/(2√3)·[x√(1+x²) + asinh x], x = √3 sin λ (CHECKS.md §1). */
+/** Dipole arc length (RE) from the equator to latitude λ: L/(2√3)·[x√(1+x²) + asinh x], x = √3 sin λ (references §1). */
 function arcLength(L: number, latRad: number): number {
   const x = Math.sqrt(3) * Math.sin(latRad);
   return (L / (2 * Math.sqrt(3))) * (x * Math.sqrt(1 + x * x) + Math.asinh(x));

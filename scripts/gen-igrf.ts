@@ -1,18 +1,18 @@
 /**
- * Generates src/physics/mainfield/igrf14-table.ts from data/igrf14coeffs.txt
+ * Generates src/physics/field/mainfield/igrf14-table.ts from data/igrf14coeffs.txt
  * (IGRF-14, IAGA Division V WG V-MOD, 2024), so the engine needs no file access
  * in the browser or Node. Run: npx tsx scripts/gen-igrf.ts
- * test/physics/mainfield/igrf14-table.test.ts checks the two agree value for value.
+ * test/physics/field/mainfield/igrf14-table.test.ts checks the two agree value for value.
  */
 import { readFileSync, writeFileSync } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { fileURLToPath } from 'node:url';
 import { dirname, join } from 'node:path';
-import { parseIgrfTable } from '../src/physics/mainfield/igrf-parse';
+import { parseIgrfTable } from '../src/physics/field/mainfield/igrf-parse';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const srcPath = join(root, 'data/igrf14coeffs.txt');
-const outPath = join(root, 'src/physics/mainfield/igrf14-table.ts');
+const outPath = join(root, 'src/physics/field/mainfield/igrf14-table.ts');
 
 const text = readFileSync(srcPath, 'utf8');
 const sha = createHash('sha256').update(readFileSync(srcPath)).digest('hex');

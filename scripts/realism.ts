@@ -1,6 +1,6 @@
 /**
  * Realism table (project issue 6): the model's boundaries with the default
- * calibration against published oval statistics (CHECKS §8), and a plot.
+ * calibration against published oval statistics (references §8), and a plot.
  *
  *   npx tsx scripts/realism.ts          # writes docs/realism.md, docs/realism.svg, and the README section
  *   npx tsx scripts/realism.ts --check  # exits 1 if those files differ from a fresh computation
@@ -11,10 +11,10 @@
  */
 import { readFileSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { prepareModel } from '../src/physics/model';
-import { makeTracer, sectorBoundaries, ovalBoundaries, mltGrid, DEFAULT_SOURCE_RE } from '../src/physics/mapping';
-import { openFluxWb } from '../src/physics/flux';
-import { DEFAULT_IMF_EFFICIENCY } from '../src/physics/imf';
+import { prepareModel } from '../src/physics/field/model';
+import { makeTracer, sectorBoundaries, ovalBoundaries, mltGrid, DEFAULT_SOURCE_RE } from '../src/physics/mapping/mapping';
+import { openFluxWb } from '../src/physics/mapping/flux';
+import { DEFAULT_IMF_EFFICIENCY } from '../src/physics/field/imf';
 
 const TIME = '2025-03-20T12:00:00Z';
 
@@ -51,10 +51,10 @@ function openFluxGwb(pdynNpa: number, bzNt: number): number {
   return openFluxWb(m, h) / 1e9;
 }
 
-const BOUNDARY_REVIEW = 'review literature, common practice (CHECKS §8): ~78° noon, ~69° midnight';
+const BOUNDARY_REVIEW = 'review literature, common practice (references §8): ~78° noon, ~69° midnight';
 const ZHOU = 'Zhou et al. (2000) JGR 105, 245: cusp ~80° (Bz ≥ 0) to ~73° (Bz −10 nT)';
 const BOAKES = 'Boakes et al. (2009) GRL 36: 0.3–0.9 GWb typical';
-const TREND = 'common practice (CHECKS §8): southward Bz and higher pressure move boundaries equatorward';
+const TREND = 'common practice (references §8): southward Bz and higher pressure move boundaries equatorward';
 
 /** Plot series: boundaries against Bz at Pdyn 2 nPa. */
 export interface RealismCurves { bz: number[]; noonOc: number[]; midOc: number[]; noonEq: number[]; midEq: number[] }
@@ -120,7 +120,7 @@ export function realismSvg(c: RealismCurves): string {
   const out: string[] = [];
   out.push(`<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" font-family="sans-serif" font-size="12">`);
   out.push(`<rect x="0" y="0" width="${W}" height="${H}" fill="#ffffff"/>`);
-  // Published bands: noon 76–80, midnight 66–72 (CHECKS §8).
+  // Published bands: noon 76–80, midnight 66–72 (references §8).
   out.push(`<rect x="${px(-2)}" y="${py(80)}" width="${px(0) - px(-2)}" height="${py(76) - py(80)}" fill="#f4a261" fill-opacity="0.25"/>`);
   out.push(`<rect x="${px(-2)}" y="${py(72)}" width="${px(0) - px(-2)}" height="${py(66) - py(72)}" fill="#2a9d8f" fill-opacity="0.25"/>`);
   // Zhou et al. (2000) cusp trend: 80° at Bz 0 to 73° at −10 nT.

@@ -1,7 +1,7 @@
 import { expect } from 'vitest';
 
 /**
- * The one numerical assertion helper (STYLE.md §7): prints actual, expected,
+ * The one numerical assertion helper (DEVELOPERS.md, "Checks and benchmarks"): prints actual, expected,
  * tolerance and what was checked, so a failure explains itself.
  */
 export function expectClose(actual: number, expected: number, tol: number, what: string): void {

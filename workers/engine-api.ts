@@ -5,13 +5,13 @@
  * long calls yield between pieces of work and answer { stale: true } once a
  * newer request for the same channel has arrived.
  */
-import type { FieldConditions } from '../src/physics/conditions';
-import { prepareModel, type PreparedModel } from '../src/physics/model';
-import { makeTracer, sectorBoundaries, mltGrid, predictHint, DEFAULT_SOURCE_RE, type SectorBoundaries } from '../src/physics/mapping';
-import { siteReport } from '../src/physics/site-report';
-import { sweepBoundaries } from '../src/physics/sweep';
-import { gsmAtMagneticLatMlt } from '../src/physics/footpoint';
-import type { Tracer } from '../src/physics/trace';
+import type { FieldConditions } from '../src/physics/field/conditions';
+import { prepareModel, type PreparedModel } from '../src/physics/field/model';
+import { makeTracer, sectorBoundaries, mltGrid, predictHint, DEFAULT_SOURCE_RE, type SectorBoundaries } from '../src/physics/mapping/mapping';
+import { siteReport } from '../src/physics/mapping/site-report';
+import { sweepBoundaries } from '../src/physics/mapping/sweep';
+import { gsmAtMagneticLatMlt } from '../src/physics/trace/footpoint';
+import type { Tracer } from '../src/physics/trace/tracer';
 import type {
   EngineApi, FanSpec, SceneResult, OvalResult, SitesResult, SweepResult, SiteInput, SiteResult, BoundaryCurve, FrameInfo, LineBundle,
 } from './protocol';

@@ -5,7 +5,7 @@
  * the same channel, and the client drops it. Errors arrive as `{ error }`.
  * Types only: the implementation is workers/engine.worker.ts.
  */
-import type { FieldConditions, ProductOptions } from '../src/physics/conditions';
+import type { FieldConditions, ProductOptions } from '../src/physics/field/conditions';
 
 export type LineKind = 0 | 1 | 2; // 0 closed, 1 open, 2 unresolved
 export const LINE_KIND_NAMES = ['closed', 'open', 'unresolved'] as const;
@@ -76,9 +76,9 @@ export interface OvalResult {
   curves: BoundaryCurve[];
 }
 
-export type { SiteInput, SiteResult } from '../src/physics/site-report';
-export type { Footpoint } from '../src/physics/footpoint';
-import type { SiteInput, SiteResult } from '../src/physics/site-report';
+export type { SiteInput, SiteResult } from '../src/physics/mapping/site-report';
+export type { Footpoint } from '../src/physics/trace/footpoint';
+import type { SiteInput, SiteResult } from '../src/physics/mapping/site-report';
 
 export interface SitesResult {
   requestId: number;

@@ -3,9 +3,9 @@
  * numbers chosen for a moderately disturbed night, and the sites are
  * fictional names placed at arbitrary coordinates (not real stations).
  */
-import type { FieldConditions } from '../physics/conditions';
-import { DEFAULT_IMF_EFFICIENCY } from '../physics/imf';
-import { DEFAULT_SOURCE_RE } from '../physics/mapping';
+import type { FieldConditions } from '../physics/field/conditions';
+import { DEFAULT_IMF_EFFICIENCY } from '../physics/field/imf';
+import { DEFAULT_SOURCE_RE } from '../physics/mapping/mapping';
 import type { SiteInput } from '../../workers/protocol';
 import type { ProductSettings } from './store';
 
@@ -16,7 +16,7 @@ export interface Scenario {
   sites: SiteInput[];
 }
 
-/** Footpoint-altitude presets, km: ground, green 557.7 nm (~110 km) and red 630.0 nm (~250 km) emission (CHECKS §7). */
+/** Footpoint-altitude presets, km: ground, green 557.7 nm (~110 km) and red 630.0 nm (~250 km) emission (references §7). */
 export const ALT_PRESETS = { ground: 0, green: 110, red: 250 } as const;
 
 export const DEMO_SCENARIO: Scenario = {

@@ -3,7 +3,7 @@
  * React hook. Components read slices; the frame loop never touches React state.
  */
 import { useSyncExternalStore } from 'react';
-import type { FieldConditions } from '../physics/conditions';
+import type { FieldConditions } from '../physics/field/conditions';
 import type { OvalResult, SceneResult, SiteInput, SitesResult, SweepResult } from '../../workers/protocol';
 import { DEMO_SCENARIO } from './scenario';
 import { noteChange } from './perf';

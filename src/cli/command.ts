@@ -1,6 +1,6 @@
 /** What a command is: its flags, its help, and how it turns conditions into a result. */
-import type { FieldConditions } from '../physics/conditions';
-import type { PreparedModel } from '../physics/model';
+import type { FieldConditions } from '../physics/field/conditions';
+import type { PreparedModel } from '../physics/field/model';
 import type { FeatureCollection } from '../io/geojson';
 import type { FlagSpec, ParsedFlags } from './args';
 import type { OutputFormat } from './common';

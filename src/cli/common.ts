@@ -3,15 +3,15 @@
  * `conditions` block every result carries.
  */
 import { readFileSync } from 'node:fs';
-import type { FieldConditions } from '../physics/conditions';
-import { DEFAULT_CONDITIONS, DEFAULT_IMF_EFFICIENCY, type PreparedModel } from '../physics/model';
+import type { FieldConditions } from '../physics/field/conditions';
+import { DEFAULT_CONDITIONS, DEFAULT_IMF_EFFICIENCY, type PreparedModel } from '../physics/field/model';
 import { RAD } from '../physics/constants';
 import { InputError } from '../physics/errors';
 import { UsageError, type FlagSpec, type ParsedFlags } from './args';
 
 export type OutputFormat = 'json' | 'csv' | 'geojson';
 
-/** Default footpoint altitude, km (common practice for the auroral emission height, CHECKS §7). */
+/** Default footpoint altitude, km (common practice for the auroral emission height, references §7). */
 export const DEFAULT_ALT_KM = 110;
 
 export function commonFlags(formats: readonly OutputFormat[]): FlagSpec[] {

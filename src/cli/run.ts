@@ -4,7 +4,7 @@
  * warnings and errors go to stderr. Exit codes: 0 success, 2 bad arguments,
  * 1 computation failure.
  */
-import { prepareModel, type PreparedModel } from '../physics/model';
+import { prepareModel, type PreparedModel } from '../physics/field/model';
 import { featureCollection } from '../io/geojson';
 import { writeJson } from '../io/json';
 import { UsageError, parseFlags, flagHelp } from './args';

@@ -4,7 +4,7 @@
  * metadata block. Pure builders: data in, text out.
  */
 import type { BoundaryCurve, SiteResult, SweepResult } from '../../workers/protocol';
-import type { FieldConditions, ProductOptions } from '../physics/conditions';
+import type { FieldConditions, ProductOptions } from '../physics/field/conditions';
 import { writeCsv, type CsvCell as Cell } from './csv';
 import { featureCollection, lineFeature, pointFeature, type Feature } from './geojson';
 

@@ -15,7 +15,7 @@ function rotation(): Float64Array {
 
 describe('display geometry', () => {
   it('magnetopause mesh vertices lie on the Shue et al. (1998) surface r = r0 (2/(1+cos θ))^α about GSM x', () => {
-    // Worked shape of CHECKS §3: Dp = 2 nPa, Bz = 0 → r0 = 10.2519 RE, α = 0.58965 (r(90°) = 15.43 RE).
+    // Worked shape of references §3: Dp = 2 nPa, Bz = 0 → r0 = 10.2519 RE, α = 0.58965 (r(90°) = 15.43 RE).
     const r0 = 10.2519, alpha = 0.58965, m = rotation();
     const { positions, index } = magnetopauseMesh(r0, alpha, m, -40, 24, 16);
     let worst = 0;
@@ -33,7 +33,7 @@ describe('display geometry', () => {
     expectClose(minX, -40, 1e-3, 'tail cut at x = −40 RE');
     // Nose vertex (θ = 0) at r0 along GSM x.
     expectClose(Math.hypot(positions[0], positions[1], positions[2]), r0, 1e-5, 'nose distance, RE');
-    expectClose(r0 * Math.pow(2, alpha), 15.43, 0.005, 'r(90°) of the worked case (CHECKS §3)');
+    expectClose(r0 * Math.pow(2, alpha), 15.43, 0.005, 'r(90°) of the worked case (references §3)');
     expect(Math.max(...index)).toBeLessThan(positions.length / 3);
   });
 

@@ -3,7 +3,7 @@ import { expectClose } from '../helpers';
 import { bearingDeg, centralAngleDeg, destination, visibilityAngleDeg, visibilityDistanceKm, visibilityLimit } from '../../src/app/lib/visibility';
 
 describe('visibility ring geometry', () => {
-  // CHECKS §7 (derived): γ = acos(RE cos e / (RE + h)) − e. The printed values carry 3 decimals (deg) and
+  // references §7 (derived): γ = acos(RE cos e / (RE + h)) − e. The printed values carry 3 decimals (deg) and
   // 1 decimal (km); the largest measured difference from them is 6.0e-4° and 0.062 km, hence the tolerances.
   const cases = [
     { h: 110, e: 0, deg: 10.571, km: 1175.5 },
@@ -12,7 +12,7 @@ describe('visibility ring geometry', () => {
     { h: 250, e: 10, deg: 8.626, km: 959.2 },
   ];
   for (const c of cases) {
-    it(`h = ${c.h} km, e = ${c.e}°: γ = ${c.deg}° (CHECKS §7)`, () => {
+    it(`h = ${c.h} km, e = ${c.e}°: γ = ${c.deg}° (references §7)`, () => {
       expectClose(visibilityAngleDeg(c.h, c.e), c.deg, 7e-4, 'central angle, deg');
       expectClose(visibilityDistanceKm(c.h, c.e), c.km, 0.07, 'ground distance, km');
     });

@@ -1,15 +1,15 @@
 /**
  * The batch command's per-site rows (src/cli/batch/site-rows.ts):
  *  - with the exact boundary search they equal the engine's siteReport
- *    (src/physics/site-report.ts, the app's and worker's report) in every
+ *    (src/physics/mapping/site-report.ts, the app's and worker's report) in every
  *    field but the line points, so the two cannot drift apart;
  *  - the MLT-grid approximation (--boundary-mlt-step) is exact at grid MLTs
  *    and within a measured bound between them.
  */
 import { describe, it, expect } from 'vitest';
-import { prepareModel } from '../../src/physics/model';
-import { makeTracer, sectorBoundaries } from '../../src/physics/mapping';
-import { siteReport, type SiteInput } from '../../src/physics/site-report';
+import { prepareModel } from '../../src/physics/field/model';
+import { makeTracer, sectorBoundaries } from '../../src/physics/mapping/mapping';
+import { siteReport, type SiteInput } from '../../src/physics/mapping/site-report';
 import { siteRow, exactBoundaries, gridBoundaries } from '../../src/cli/batch/site-rows';
 import { expectAtMost } from '../helpers';
 
@@ -22,7 +22,7 @@ const SITES: SiteInput[] = [
   { name: 'low latitude', latDeg: 15.0, lonDeg: -30.0 },
 ];
 
-describe('siteRow with exact boundaries ≡ siteReport (src/physics/site-report.ts)', () => {
+describe('siteRow with exact boundaries ≡ siteReport (src/physics/mapping/site-report.ts)', () => {
   for (const c of [{ pdynNpa: 2, bzNt: -3, byNt: 1 }, { pdynNpa: 6, bzNt: -12, byNt: -5 }]) {
     it(`gives siteReport's result at Pdyn ${c.pdynNpa} nPa, Bz ${c.bzNt} nT (lines of every kind)`, () => {
       const m = prepareModel({ time: '2025-03-20T21:00:00Z', ...c });

@@ -11,9 +11,9 @@ import { join } from 'node:path';
 import { runBatch } from '../../src/cli/batch/index';
 import { run } from '../../src/cli/run';
 import { readCsv, csvText } from '../../src/io/csv';
-import { prepareModel } from '../../src/physics/model';
-import { makeTracer, sectorBoundaries, DEFAULT_SOURCE_RE } from '../../src/physics/mapping';
-import type { FieldConditions } from '../../src/physics/conditions';
+import { prepareModel } from '../../src/physics/field/model';
+import { makeTracer, sectorBoundaries, DEFAULT_SOURCE_RE } from '../../src/physics/mapping/mapping';
+import type { FieldConditions } from '../../src/physics/field/conditions';
 import { geoJsonProblems } from '../../src/io/geojson';
 import { expectClose } from '../helpers';
 
@@ -96,7 +96,7 @@ describe('batch: bad rows (issue 5, "Bad input")', () => {
       expect(at(cl, 3).error).toMatch(/^sites line 3: lat_deg: 95 is outside −90\.\.90/);
       expect(at(cl, 4).skipped).toMatch(/^sites line 4: lat_deg is empty/);
     }
-    // density 5 cm⁻³, speed 450 km/s: 2.0e-6·n·v² (CHECKS §3) = 2.025 nPa.
+    // density 5 cm⁻³, speed 450 km/s: 2.0e-6·n·v² (references §3) = 2.025 nPa.
     expectClose(at(14, 2).pdyn_npa as number, 2.0e-6 * 5 * 450 * 450, 1e-12, 'pdyn from density and speed');
     // A bad row keeps its time so the table still lines up with the series (normalised when readable).
     expect(at(4, 2).time).toBe('2025-03-20T22:00:00.000Z');

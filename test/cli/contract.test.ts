@@ -29,7 +29,7 @@ describe('JSON results carry the fixed keys', () => {
   it('defaults: --time now, pdyn 2, bz 0, by 0, dipole, magnetopause on, alt 110 km', async () => {
     const j = await cliJson('field', '--gsm', '5,0,0');
     expect(j.conditions).toMatchObject({ time: '2025-03-20T12:00:00.000Z', pdynNpa: 2, bzNt: 0, byNt: 0, internal: 'dipole', magnetopause: true, altKm: 110 });
-    // Shue et al. (1998) worked value for Dp = 2 nPa, Bz = 0 (CHECKS §3): r0 = 10.2519 RE.
+    // Shue et al. (1998) worked value for Dp = 2 nPa, Bz = 0 (references §3): r0 = 10.2519 RE.
     expectClose(j.conditions.standoffRe, 10.2519, 1e-4, 'standoff at the default conditions');
   });
 
@@ -65,7 +65,7 @@ describe('JSON results carry the fixed keys', () => {
     expect(j.fieldLine.type).toBe('closed');
     expectKeys(j.fieldLine.equator, ['rRe', 'bNt', 'gsmRe'], 'equator');
     expect(j.fieldLine.footpoints.map((f: { hemisphere: string }) => f.hemisphere)).toEqual(['north', 'south']);
-    // The tracer's stop surface approximates the height above the ellipsoid to < 10 m (src/physics/geodesy.ts).
+    // The tracer's stop surface approximates the height above the ellipsoid to < 10 m (src/physics/frames/geodesy.ts).
     for (const f of j.fieldLine.footpoints) { expectKeys(f, FOOT_KEYS, 'footpoint'); expectClose(f.altKm, 110, 0.01, 'footpoint at --alt-km'); }
     const p = await cliJson('trace', '--lat', '62.5', '--lon', '25.1', ...T, '--points');
     expect(p.fieldLine.points.length).toBeGreaterThan(10);

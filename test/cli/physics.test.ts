@@ -1,12 +1,12 @@
 import { describe, it, expect } from 'vitest';
 import { cliJson } from './helpers';
-import { geoFromGeodetic } from '../../src/physics/geodesy';
+import { geoFromGeodetic } from '../../src/physics/frames/geodesy';
 import { expectClose, expectAtMost } from '../helpers';
 
 // Issue 3 checks run through the command line, each naming its source.
 const T = ['--time', '2025-03-20T22:00:00Z'];
 
-/** Dungey (1961) polar-cap boundary latitude at radius r for a centred dipole B0 plus a uniform southward b (CHECKS §5, derived). */
+/** Dungey (1961) polar-cap boundary latitude at radius r for a centred dipole B0 plus a uniform southward b (references §5, derived). */
 function dungeyBoundaryLatDeg(b0Nt: number, bNt: number, rRe: number): number {
   const rn = Math.cbrt(b0Nt / bNt); // neutral ring r_n = (B0/b)^(1/3)
   const sin2 = 3 / (2 * rn * (1 / rRe + (bNt * rRe * rRe) / (2 * b0Nt))); // sin²θc
@@ -15,7 +15,7 @@ function dungeyBoundaryLatDeg(b0Nt: number, bNt: number, rRe: number): number {
 
 const radiusRe = (latDeg: number, lonDeg: number) => Math.hypot(...geoFromGeodetic(new Float64Array(3), latDeg, lonDeg, 0));
 
-describe('Dungey polar cap through `oval` (CHECKS §5: Dungey 1961, derived)', () => {
+describe('Dungey polar cap through `oval` (references §5: Dungey 1961, derived)', () => {
   for (const [b, worked] of [[5, 73.28], [10, 71.17]]) {
     it(`b = ${b} nT: boundary latitude from the formula with the model's B0, and the worked value ${worked}° (B0 = 29,800 nT)`, async () => {
       const j = await cliJson('oval', ...T, '--magnetopause', 'off', '--tail', 'off', '--imf-efficiency', '1', '--bz', String(-b), '--tilt-deg', '0', '--alt-km', '0', '--internal', 'dipole', '--mlt-step', '6');
@@ -32,7 +32,7 @@ describe('Dungey polar cap through `oval` (CHECKS §5: Dungey 1961, derived)', (
           expectClose(Math.abs(oc.magLatDeg), expected, 0.006, `${h.hemisphere} ${s.mltHours} h open–closed latitude vs Dungey, B0 ${b0.toFixed(1)} nT, r ${r.toFixed(5)} RE`);
           worst = Math.max(worst, Math.abs(Math.abs(oc.magLatDeg) - worked));
         }
-      // Worked value (CHECKS §5) for B0 = 29,800 nT at r = 1: our B0 (~29,733 nT) moves it by < 0.01°, the ellipsoid radius (~0.998 RE) by ~0.015°, and the 0.01° bisection by up to ±0.005°.
+      // Worked value (references §5) for B0 = 29,800 nT at r = 1: our B0 (~29,733 nT) moves it by < 0.01°, the ellipsoid radius (~0.998 RE) by ~0.015°, and the 0.01° bisection by up to ±0.005°.
       // Measured: 0.013–0.019° (b = 5), 0.006° (b = 10).
     expectAtMost(worst, 0.02, `largest departure from the worked ${worked}°`);
     });
@@ -63,7 +63,7 @@ describe('north/south symmetry at zero tilt with By = 0 (derived: mirror symmetr
   });
 });
 
-describe('the open–closed boundary moves equatorward as Bz turns southward (CHECKS §8, common practice; Dungey 1961)', () => {
+describe('the open–closed boundary moves equatorward as Bz turns southward (references §8, common practice; Dungey 1961)', () => {
   it('sweep --vary bz −2 → −10 nT at midnight and noon, both hemispheres', async () => {
     // From −2 nT: at Bz = 0 (By = 0) the IMF term vanishes and the nightside has no open lines.
     const j = await cliJson('sweep', ...T, '--vary', 'bz', '--from', '-2', '--to', '-10', '--steps', '3', '--mlt', '0,12');
@@ -97,7 +97,7 @@ describe('the conjugate of the conjugate returns the site (invariant, issue 3)',
   }
 });
 
-describe('dipole geometry through `trace` and `field` (CHECKS §1, derived)', () => {
+describe('dipole geometry through `trace` and `field` (references §1, derived)', () => {
   it('line from magnetic latitude 60° on r = 1: equator at L = 4, |B|eq = B0/L³; conjugate at the same magnetic longitude', async () => {
     const j = await cliJson('trace', ...T, '--coords', 'mag', '--lat', '60', '--lon', '40', '--magnetopause', 'off', '--tail', 'off', '--internal', 'dipole');
     const b0 = j.conditions.b0Nt;

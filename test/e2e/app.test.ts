@@ -128,7 +128,7 @@ describe.skipIf(!HAVE_BROWSER)('browser app', () => {
 
   it('raising the dynamic pressure moves the open–closed boundary equatorward on the dayside and the nightside, both hemispheres', async () => {
     // Expected direction: a higher Pdyn shrinks the Shue standoff (r0 ∝ Pdyn^(−1/6.6), Shue et al. 1998), so the
-    // last closed dayside lines map to lower latitude (Chapman–Ferraro compression; CHECKS §8, common practice).
+    // last closed dayside lines map to lower latitude (Chapman–Ferraro compression; references §8, common practice).
     const before = (await downloadText(b.page, 'Boundaries CSV')).text;
     await setNumber(b.page, 'Dynamic pressure (nPa)', 12);
     await waitFresh(b.page, ['scene', 'oval']);
@@ -138,7 +138,7 @@ describe.skipIf(!HAVE_BROWSER)('browser app', () => {
       const d = meanShift(before, after, hemi, 'open_closed_mag_lat_deg', 9, 15);
       expect(d.n, `${hemi}: dayside MLT samples with a boundary before and after`).toBeGreaterThan(5);
       expect(d.shift, `${hemi} dayside open–closed boundary, mean change of |mag lat| (deg) for Pdyn 3 → 12 nPa`).toBeLessThan(0);
-      // Nightside: the tail lobe field grows with √Pdyn (src/physics/tail.ts), stretching the lines (realism table).
+      // Nightside: the tail lobe field grows with √Pdyn (src/physics/field/tail.ts), stretching the lines (realism table).
       const e1 = meanShift(before, after, hemi, 'open_closed_mag_lat_deg', 21, 23.99);
       const e2 = meanShift(before, after, hemi, 'open_closed_mag_lat_deg', 0, 3);
       const night = (e1.shift * e1.n + e2.shift * e2.n) / (e1.n + e2.n);

@@ -3,8 +3,8 @@ import { readFileSync } from 'node:fs';
 import { expectAtMost, expectBetween } from '../helpers';
 import { realismData, realismMarkdown, realismSvg, readmeBlock, inside } from '../../scripts/realism';
 
-// Issue 6: the model's boundaries against published oval statistics (CHECKS §8; each row names its source).
-describe('realism table (CHECKS §8: review literature, Zhou et al. 2000, Boakes et al. 2009, common practice)', () => {
+// Issue 6: the model's boundaries against published oval statistics (references §8; each row names its source).
+describe('realism table (references §8: review literature, Zhou et al. 2000, Boakes et al. 2009, common practice)', () => {
   const { rows, curves } = realismData();
 
   it('every issue-6 target row lies inside its published range; known misses stay within their stated bound', () => {
@@ -21,7 +21,7 @@ describe('realism table (CHECKS §8: review literature, Zhou et al. 2000, Boakes
     }
   });
 
-  it('boundaries move equatorward monotonically with southward Bz at noon and midnight (common practice, CHECKS §8)', () => {
+  it('boundaries move equatorward monotonically with southward Bz at noon and midnight (common practice, references §8)', () => {
     for (let i = 1; i < curves.bz.length; i++) {
       expect(curves.noonOc[i], `noon open–closed at Bz ${curves.bz[i]}`).toBeLessThan(curves.noonOc[i - 1]);
       expect(curves.midOc[i], `midnight open–closed at Bz ${curves.bz[i]}`).toBeLessThan(curves.midOc[i - 1]);

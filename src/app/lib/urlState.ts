@@ -3,7 +3,7 @@
  * Pure (no DOM): encode to a query string, decode back. Unknown or malformed
  * parameters fall back to the defaults given, so a hand-edited URL never breaks the page.
  */
-import type { FieldConditions, InternalFieldKind } from '../../physics/conditions';
+import type { FieldConditions, InternalFieldKind } from '../../physics/field/conditions';
 import type { SiteInput } from '../../../workers/protocol';
 import type { AltPreset, ProductSettings } from '../store';
 

@@ -9,7 +9,7 @@ const DEG = Math.PI / 180;
 
 /**
  * Central angle (deg) between a ground site and a point at height h that the
- * site sees at elevation e: γ = acos(RE cos e / (RE + h)) − e (derived; CHECKS §7).
+ * site sees at elevation e: γ = acos(RE cos e / (RE + h)) − e (derived; references §7).
  */
 export function visibilityAngleDeg(heightKm: number, minElevationDeg: number): number {
   const e = minElevationDeg * DEG;

@@ -3,7 +3,7 @@ import { useState } from 'react';
 import { setConditions, setProducts, setView, useStore, type AltPreset } from '../store';
 import { ALT_PRESETS } from '../scenario';
 import { logToSlider, sliderToLog } from '../lib/units';
-import { pdynFromPlasmaNominal } from '../../physics/magnetopause';
+import { pdynFromPlasmaNominal } from '../../physics/field/magnetopause';
 import { NumberField } from './NumberField';
 import { TimeControl } from './TimeControl';
 

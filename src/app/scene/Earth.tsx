@@ -7,7 +7,7 @@ import { coastSegments, landFeature } from '../lib/atlas';
 import { BASE_COLOURS } from '../lib/palette';
 import { useStore } from '../store';
 import { addSiteAt } from '../sites';
-import { geodeticFromGeo } from '../../physics/geodesy';
+import { geodeticFromGeo } from '../../physics/frames/geodesy';
 
 function landTexture(): THREE.Texture {
   const w = 2048;

@@ -2,7 +2,7 @@
 import { useEffect, useMemo } from 'react';
 import { useThree } from '@react-three/fiber';
 import * as THREE from 'three';
-import { geoFromGeodetic } from '../../physics/geodesy';
+import { geoFromGeodetic } from '../../physics/frames/geodesy';
 import { SITE_COLOURS } from '../lib/palette';
 import { useStore } from '../store';
 

@@ -4,15 +4,15 @@
  * altitude) serve all sites. Rows come back already formatted, so the worker
  * threads share the formatting work. Runs the same in a worker or in-process.
  */
-import { prepareModel, type PreparedModel } from '../../physics/model';
-import { makeTracer, siteGsm } from '../../physics/mapping';
-import type { SiteInput, SiteResult } from '../../physics/site-report';
+import { prepareModel, type PreparedModel } from '../../physics/field/model';
+import { makeTracer, siteGsm } from '../../physics/mapping/mapping';
+import type { SiteInput, SiteResult } from '../../physics/mapping/site-report';
 import { siteRow, exactBoundaries, gridBoundaries } from './site-rows';
-import { applyMat3 } from '../../physics/frames';
+import { applyMat3 } from '../../physics/frames/rotations';
 import { RAD } from '../../physics/constants';
-import { parseUtc } from '../../physics/time';
-import type { Footpoint } from '../../physics/footpoint';
-import type { FieldConditions } from '../../physics/conditions';
+import { parseUtc } from '../../physics/frames/time';
+import type { Footpoint } from '../../physics/trace/footpoint';
+import type { FieldConditions } from '../../physics/field/conditions';
 import { csvField, type CsvCell } from '../../io/csv';
 import { writeJson } from '../../io/json';
 import type { RowOutcome, SeriesCondition } from './inputs';

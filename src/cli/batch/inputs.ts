@@ -6,11 +6,11 @@
  */
 import { csvText } from '../../io/csv';
 import { parseNumberText, UsageError } from '../args';
-import { parseUtc, decimalYear } from '../../physics/time';
-import { igrfCoefficients } from '../../physics/mainfield/coefficients';
-import { pdynFromPlasmaNominal } from '../../physics/magnetopause';
+import { parseUtc, decimalYear } from '../../physics/frames/time';
+import { igrfCoefficients } from '../../physics/field/mainfield/coefficients';
+import { pdynFromPlasmaNominal } from '../../physics/field/magnetopause';
 import { InputError } from '../../physics/errors';
-import type { SiteInput } from '../../physics/site-report';
+import type { SiteInput } from '../../physics/mapping/site-report';
 
 export const SITE_COLUMNS = { required: ['name', 'lat_deg', 'lon_deg'], optional: ['height_km'] } as const;
 export const CONDITION_COLUMNS = { required: ['time', 'bz_nt'], pressure: ['pdyn_npa', 'density_cm3', 'speed_kms'], optional: ['by_nt'] } as const;
@@ -162,7 +162,7 @@ export function checkTime(time: string): void {
   }
 }
 
-/** One conditions record. pdyn_npa wins when it holds a value; else density and speed (2.0e-6·n·v², CHECKS §3). */
+/** One conditions record. pdyn_npa wins when it holds a value; else density and speed (2.0e-6·n·v², references §3). */
 export function parseCondition(fields: string[], line: number, idx: HeaderIndex): RowOutcome<SeriesCondition> {
   const o = parseConditionValue(fields, line, idx);
   // Keep the time text of a bad row, so the output still lines up with the series.

@@ -1,7 +1,7 @@
 /** `field`: the model field at one point, given in GSM or geodetic coordinates. */
-import { geoFromGeodetic } from '../../physics/geodesy';
-import { gsmFromGeo, geoFromGsm } from '../../physics/frames';
-import { describePoint } from '../../physics/footpoint';
+import { geoFromGeodetic } from '../../physics/frames/geodesy';
+import { gsmFromGeo, geoFromGsm } from '../../physics/frames/rotations';
+import { describePoint } from '../../physics/trace/footpoint';
 import { writeCsv } from '../../io/csv';
 import { pointFeature } from '../../io/geojson';
 import { UsageError } from '../args';

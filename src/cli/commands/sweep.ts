@@ -1,6 +1,6 @@
 /** `sweep`: boundary latitudes against Pdyn or Bz, other conditions held. */
-import { sweepBoundaries, type SweepRows } from '../../physics/sweep';
-import { DEFAULT_SOURCE_RE, type SectorBoundaries } from '../../physics/mapping';
+import { sweepBoundaries, type SweepRows } from '../../physics/mapping/sweep';
+import { DEFAULT_SOURCE_RE, type SectorBoundaries } from '../../physics/mapping/mapping';
 import { writeCsv, type CsvCell } from '../../io/csv';
 import { CSV_DECIMALS, type CommandDef } from '../command';
 import { hemispheresOf } from './oval';

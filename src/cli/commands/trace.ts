@@ -1,6 +1,6 @@
 /** `trace`: the field line through a site, its footpoints and its conjugate. */
-import { makeTracer, traceSite, type Footpoint } from '../../physics/mapping';
-import { describePoint } from '../../physics/footpoint';
+import { makeTracer, traceSite, type Footpoint } from '../../physics/mapping/mapping';
+import { describePoint } from '../../physics/trace/footpoint';
 import { writeCsv, type CsvCell } from '../../io/csv';
 import { lineFeature, pointFeature, type Feature } from '../../io/geojson';
 import { triples } from '../../io/json';

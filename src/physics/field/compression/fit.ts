@@ -1,0 +1,316 @@
+/**
+ * Magnetopause (Chapman–Ferraro) current field: a curl-free, divergence-free field
+ * B_c = ∇Φ, Φ harmonic inside, whose coefficients are fitted by least squares so
+ * that (B_shielded + B_c)·n ≈ 0 on the boundary (the shielding condition of
+ * Chapman & Ferraro, 1931, Terr. Magn. Atmos. Electr. 36, 77 — citation from memory).
+ *
+ * Basis (GSM, RE; separable solutions of Laplace's equation, derived): a uniform
+ * field plus Cartesian exponential harmonics
+ *   φ = exp(k (x − x0)) · {cos, sin}(a y) · {cos, sin}(b z),  k = √(a² + b²),
+ * a = iκ, b = jκ, 0 ≤ i, j ≤ order (4), κ = 0.35/r0, x0 = the nose distance r0.
+ * Only pairs with k/κ an integer or an integer times √2 are kept (i = 0, j = 0, i = j,
+ * (3,4), (4,3)): every exponential is then a power of exp(κ dx) or exp(√2 κ dx), so an
+ * evaluation costs two exp and four trig calls. κ and the pair set were chosen by a
+ * scan of fits over 0.5–10 nPa, Bz ±10 nT, tilt ±35° (worst rms residual 7e-4).
+ * Every term decays tailward, so the field stays bounded far down the tail (it tends
+ * to the fitted uniform part). Terms odd in y are added only when the shielded field
+ * is not mirror-symmetric in y (e.g. the full main field), detected from the samples.
+ * Sunward of x0 + 4 r0 (well outside the boundary) the exponent is clamped so values
+ * stay finite; the field has no meaning there.
+ *
+ * Fitted region: the surface from the nose to x = −2 r0 (two standoff distances
+ * tailward, ≈ −20 RE at 2 nPa), sampled on rings of equal meridian arc length with
+ * spacing 0.3 r0, each sample weighted by its surface area and by 1/|B| (a second
+ * pass re-weights by the fitted total), so the fit minimises the area-weighted rms
+ * of |B·n|/|B|, the figure reported in `rmsResidualRel`.
+ */
+import { InputError } from '../../errors';
+import { type MagnetopauseShape, shueRadius } from '../magnetopause';
+import { leastSquaresQr } from '../../numeric/lsq';
+import { makeKernel, squareFreePart } from './basis';
+
+/** Writes a field (GSM nT) at a GSM point (RE) into out[0..2]. */
+export type FieldWriter = (out: Float64Array, x: number, y: number, z: number) => void;
+
+/** A boundary symmetric about the x axis, r = r(θ), θ from +x. */
+export interface AxisymmetricSurface {
+  radiusRe(thetaRad: number): number;
+  /** dr/dθ, RE per radian. */
+  radiusSlope(thetaRad: number): number;
+  /** Tailward edge of the fitted region (θ of the last sampled ring), rad. */
+  thetaMaxRad: number;
+  /** Length scale for wavenumbers and sample spacing, RE (the standoff or sphere radius). */
+  scaleRe: number;
+}
+
+export interface CompressionOptions {
+  /** Highest wavenumber index (default 4: 26 terms, 43 with y-odd terms). */
+  order?: number;
+  /** Include terms odd in y: 'auto' (default) when the shielded field is y-asymmetric. */
+  yOdd?: boolean | 'auto';
+  /** Tailward edge of the fitted region on the Shue surface, in r0 (default 2: x ≥ −2 r0). */
+  fitDepthR0?: number;
+  /** Sample spacing along the surface, in units of scaleRe (default 0.3). */
+  spacing?: number;
+  /** Use the hand-unrolled evaluator for the default order (default true; false is for cross-checks). */
+  unrolled?: boolean;
+}
+
+export interface CompressionField {
+  /** ADDS B_c (GSM nT) at the GSM point (RE) into out; allocation-free. */
+  evaluate(out: Float64Array, x: number, y: number, z: number): void;
+  /** Area-weighted rms of |B_total·n| / |B_total| over the fitted samples. */
+  rmsResidualRel: number;
+  maxResidualRel: number;
+  nTerms: number;
+  nSamples: number;
+  /** Condition estimate of the column-scaled least-squares matrix. */
+  conditionEstimate: number;
+  yOdd: boolean;
+  fitRegion: { xMinRe: number; thetaMaxRad: number };
+}
+
+/** Wavenumber step in units of 1/scale (see the header). */
+const KAPPA = 0.35;
+/** Sunward clamp of x − x0, in units of the scale (keeps exp finite far outside; see the header). */
+const CLAMP_SCALES = 4;
+
+/** The Shue et al. (1998) surface as a fit boundary, from the nose to x = −depth·r0. */
+export function shueSurface(mp: MagnetopauseShape, fitDepthR0 = 2): AxisymmetricSurface {
+  const xMin = -fitDepthR0 * mp.r0Re;
+  const xAt = (t: number): number => shueRadius(mp, t) * Math.cos(t);
+  const cap = 0.95 * Math.PI;
+  let thetaMax = cap;
+  if (xAt(cap) < xMin) {
+    let lo = 0;
+    let hi = cap;
+    for (let it = 0; it < 60; it++) {
+      const mid = 0.5 * (lo + hi);
+      if (xAt(mid) > xMin) lo = mid;
+      else hi = mid;
+    }
+    thetaMax = 0.5 * (lo + hi);
+  }
+  return {
+    radiusRe: (t) => shueRadius(mp, t),
+    // dr/dθ = r α tan(θ/2), derived from Shue et al. (1998) eq. 1.
+    radiusSlope: (t) => shueRadius(mp, t) * mp.alpha * Math.tan(0.5 * t),
+    thetaMaxRad: thetaMax,
+    scaleRe: mp.r0Re,
+  };
+}
+
+/** A sphere of radius R centred on Earth (the exact conducting-sphere limit). */
+export function sphereSurface(radiusRe: number): AxisymmetricSurface {
+  if (!(radiusRe > 0) || !Number.isFinite(radiusRe)) throw new InputError('radiusRe', `expected a finite radius > 0 RE, got ${radiusRe}`);
+  return { radiusRe: () => radiusRe, radiusSlope: () => 0, thetaMaxRad: Math.PI, scaleRe: radiusRe };
+}
+
+interface Samples {
+  n: number;
+  p: Float64Array; // x, y, z interleaved
+  nrm: Float64Array; // outward unit normals interleaved
+  area: Float64Array;
+  ringStart: Int32Array; // first sample index of each ring (+ sentinel)
+}
+
+/** Rings of equal meridian arc length; φ_j = (j + ½)·2π/n_φ with n_φ a multiple of 4 (mirror-symmetric in y and z). */
+function sampleSurface(s: AxisymmetricSurface, spacing: number): Samples {
+  const NT = 256;
+  const th = s.thetaMaxRad;
+  const cum = new Float64Array(NT + 1);
+  let prev = Math.hypot(s.radiusRe(0), s.radiusSlope(0));
+  for (let i = 1; i <= NT; i++) {
+    const t = (th * i) / NT;
+    const v = Math.hypot(s.radiusRe(t), s.radiusSlope(t));
+    cum[i] = cum[i - 1] + (0.5 * (prev + v) * th) / NT;
+    prev = v;
+  }
+  const total = cum[NT];
+  const ds0 = spacing * s.scaleRe;
+  const nRings = Math.max(4, Math.ceil(total / ds0));
+  const ds = total / nRings;
+  const thetas = new Float64Array(nRings);
+  const counts = new Int32Array(nRings);
+  let n = 0;
+  let seg = 0;
+  for (let r = 0; r < nRings; r++) {
+    const target = (r + 0.5) * ds;
+    while (seg < NT - 1 && cum[seg + 1] < target) seg++;
+    const f = (target - cum[seg]) / (cum[seg + 1] - cum[seg]);
+    const t = (th * (seg + f)) / NT;
+    thetas[r] = t;
+    const rho = s.radiusRe(t) * Math.sin(t);
+    counts[r] = 4 * Math.max(1, Math.ceil((2 * Math.PI * rho) / (4 * ds)));
+    n += counts[r];
+  }
+  const p = new Float64Array(3 * n);
+  const nrm = new Float64Array(3 * n);
+  const area = new Float64Array(n);
+  const ringStart = new Int32Array(nRings + 1);
+  let k = 0;
+  for (let r = 0; r < nRings; r++) {
+    ringStart[r] = k;
+    const t = thetas[r];
+    const rr = s.radiusRe(t);
+    const rp = s.radiusSlope(t);
+    const ct = Math.cos(t);
+    const st = Math.sin(t);
+    const rho = rr * st;
+    // Outward normal ∝ r r̂ − r' θ̂ (gradient of F = r − r(θ), derived).
+    const nxr = rr * ct + rp * st;
+    const nrr = rr * st - rp * ct;
+    const len = Math.hypot(nxr, nrr);
+    const m = counts[r];
+    const dA = (rho * ds * 2 * Math.PI) / m;
+    for (let j = 0; j < m; j++) {
+      const phi = ((j + 0.5) * 2 * Math.PI) / m;
+      const cp = Math.cos(phi);
+      const sp = Math.sin(phi);
+      p[3 * k] = rr * ct;
+      p[3 * k + 1] = rho * cp;
+      p[3 * k + 2] = rho * sp;
+      nrm[3 * k] = nxr / len;
+      nrm[3 * k + 1] = (nrr / len) * cp;
+      nrm[3 * k + 2] = (nrr / len) * sp;
+      area[k] = dA;
+      k++;
+    }
+  }
+  ringStart[nRings] = k;
+  return { n, p, nrm, area, ringStart };
+}
+
+/** Fit the compression field on the Shue surface `mp` for the field written by `shielded`. */
+export function prepareCompression(mp: MagnetopauseShape, shielded: FieldWriter, options: CompressionOptions = {}): CompressionField {
+  const depth = options.fitDepthR0 ?? 2;
+  if (!(depth > 0 && depth <= 10)) throw new InputError('fitDepthR0', `expected 0 < fitDepthR0 ≤ 10 (in r0), got ${depth}`);
+  return prepareCompressionOnSurface(shueSurface(mp, depth), shielded, options);
+}
+
+/** Fit the compression field on any x-axisymmetric surface (the sphere for the exact limit). */
+export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shielded: FieldWriter, options: CompressionOptions = {}): CompressionField {
+  const order = options.order ?? 4;
+  if (!Number.isInteger(order) || order < 1 || order > 8) throw new InputError('order', `expected an integer 1..8, got ${order}`);
+  const spacing = options.spacing ?? 0.3;
+  if (!(spacing >= 0.05 && spacing <= 1)) throw new InputError('spacing', `expected 0.05..1 (in units of the scale), got ${spacing}`);
+
+  const smp = sampleSurface(surface, spacing);
+  const ns = smp.n;
+  const bs = new Float64Array(3 * ns);
+  const tmp = new Float64Array(3);
+  let bMax = 0;
+  for (let i = 0; i < ns; i++) {
+    tmp[0] = 0; tmp[1] = 0; tmp[2] = 0;
+    shielded(tmp, smp.p[3 * i], smp.p[3 * i + 1], smp.p[3 * i + 2]);
+    bs[3 * i] = tmp[0]; bs[3 * i + 1] = tmp[1]; bs[3 * i + 2] = tmp[2];
+    bMax = Math.max(bMax, Math.hypot(tmp[0], tmp[1], tmp[2]));
+  }
+  let yOdd: boolean;
+  if (options.yOdd === 'auto' || options.yOdd === undefined) yOdd = yAsymmetric(smp, bs, bMax);
+  else yOdd = options.yOdd;
+
+  // Term list: uniform parts, then per (i, j) the parities cc, cs, sc, ss (Y·Z).
+  const N = order;
+  const kappa = KAPPA / surface.scaleRe;
+  // Pairs with k/κ = m·1 or m·√2 only (i = 0, j = 0, i = j, or (3,4)-type triples), so every
+  // exponential is a power of exp(κ dx) or exp(√2 κ dx): two exp calls per evaluation.
+  const pairs: number[] = [];
+  for (let i = 0; i <= N; i++) for (let j = 0; j <= N; j++) if (i + j > 0 && squareFreePart(i * i + j * j) <= 2) pairs.push(i, j);
+  const np = pairs.length / 2;
+  const colPair: number[] = [];
+  const colKind: number[] = [];
+  // Uniform: kind −1 (x), −2 (y), −3 (z).
+  colPair.push(-1, -1); colKind.push(-1, -3);
+  if (yOdd) { colPair.push(-1); colKind.push(-2); }
+  for (let q = 0; q < np; q++) {
+    const i = pairs[2 * q], j = pairs[2 * q + 1];
+    colPair.push(q); colKind.push(0);
+    if (j > 0) { colPair.push(q); colKind.push(1); }
+    if (yOdd && i > 0) { colPair.push(q); colKind.push(2); }
+    if (yOdd && i > 0 && j > 0) { colPair.push(q); colKind.push(3); }
+  }
+  const nc = colPair.length;
+
+  const kern = makeKernel(pairs, N, kappa, surface.radiusRe(0), CLAMP_SCALES * surface.scaleRe, options.unrolled ?? true);
+  // Unweighted normal components of every basis field at every sample (column-major).
+  const an = new Float64Array(ns * nc);
+  for (let s = 0; s < ns; s++) {
+    const x = smp.p[3 * s], y = smp.p[3 * s + 1], z = smp.p[3 * s + 2];
+    const ux = smp.nrm[3 * s], uy = smp.nrm[3 * s + 1], uz = smp.nrm[3 * s + 2];
+    kern.load(x, y, z);
+    for (let c = 0; c < nc; c++) {
+      const kind = colKind[c];
+      let v: number;
+      if (kind === -1) v = ux;
+      else if (kind === -2) v = uy;
+      else if (kind === -3) v = uz;
+      else {
+        kern.grad(tmp, colPair[c], kind);
+        v = tmp[0] * ux + tmp[1] * uy + tmp[2] * uz;
+      }
+      an[c * ns + s] = v;
+    }
+  }
+
+  const coef = new Float64Array(nc);
+  const a = new Float64Array(ns * nc);
+  const rhs = new Float64Array(ns);
+  const wt = new Float64Array(ns);
+  const floor = bMax > 0 ? 1e-9 * bMax : 1;
+  for (let s = 0; s < ns; s++) wt[s] = Math.sqrt(smp.area[s]) / Math.max(floor, Math.hypot(bs[3 * s], bs[3 * s + 1], bs[3 * s + 2]));
+  let field: FieldWriter | null = null;
+  let cond = 0;
+  const bt = new Float64Array(3 * ns);
+  for (let pass = 0; pass < 2; pass++) {
+    for (let s = 0; s < ns; s++) {
+      const w = wt[s];
+      rhs[s] = -w * (bs[3 * s] * smp.nrm[3 * s] + bs[3 * s + 1] * smp.nrm[3 * s + 1] + bs[3 * s + 2] * smp.nrm[3 * s + 2]);
+    }
+    for (let c = 0; c < nc; c++) for (let s = 0; s < ns; s++) a[c * ns + s] = an[c * ns + s] * wt[s];
+    cond = leastSquaresQr(a, rhs, ns, nc, coef).conditionEstimate;
+    field = kern.build(colPair, colKind, coef);
+    for (let s = 0; s < ns; s++) {
+      tmp[0] = bs[3 * s]; tmp[1] = bs[3 * s + 1]; tmp[2] = bs[3 * s + 2];
+      field(tmp, smp.p[3 * s], smp.p[3 * s + 1], smp.p[3 * s + 2]);
+      bt[3 * s] = tmp[0]; bt[3 * s + 1] = tmp[1]; bt[3 * s + 2] = tmp[2];
+      wt[s] = Math.sqrt(smp.area[s]) / Math.max(floor, Math.hypot(tmp[0], tmp[1], tmp[2]));
+    }
+  }
+  let sw = 0, sr = 0, rmax = 0;
+  for (let s = 0; s < ns; s++) {
+    const b = Math.hypot(bt[3 * s], bt[3 * s + 1], bt[3 * s + 2]);
+    const bn = bt[3 * s] * smp.nrm[3 * s] + bt[3 * s + 1] * smp.nrm[3 * s + 1] + bt[3 * s + 2] * smp.nrm[3 * s + 2];
+    const r = b > 0 ? Math.abs(bn) / b : 0;
+    sw += smp.area[s];
+    sr += smp.area[s] * r * r;
+    if (r > rmax) rmax = r;
+  }
+  const tm = surface.thetaMaxRad;
+  return {
+    evaluate: field as FieldWriter,
+    rmsResidualRel: Math.sqrt(sr / sw),
+    maxResidualRel: rmax,
+    nTerms: nc,
+    nSamples: ns,
+    conditionEstimate: cond,
+    yOdd,
+    fitRegion: { xMinRe: surface.radiusRe(tm) * Math.cos(tm), thetaMaxRad: tm },
+  };
+}
+
+/** True when B(x, −y, z) ≠ (Bx, −By, Bz)(x, y, z) on the samples (rings are mirror-symmetric in y). */
+function yAsymmetric(smp: Samples, bs: Float64Array, bMax: number): boolean {
+  const tol = 1e-9 * bMax;
+  const rs = smp.ringStart;
+  for (let r = 0; r + 1 < rs.length; r++) {
+    const m = rs[r + 1] - rs[r];
+    for (let j = 0; j < m; j++) {
+      // φ_j = (j+½)2π/m mirrors to π − φ_j, index m/2 − 1 − j (mod m).
+      const jm = (((m >> 1) - 1 - j) % m + m) % m;
+      const a = 3 * (rs[r] + j), b = 3 * (rs[r] + jm);
+      if (Math.abs(bs[a] - bs[b]) > tol || Math.abs(bs[a + 1] + bs[b + 1]) > tol || Math.abs(bs[a + 2] - bs[b + 2]) > tol) return true;
+    }
+  }
+  return false;
+}

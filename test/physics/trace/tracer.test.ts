@@ -1,0 +1,147 @@
+import { describe, it, expect } from 'vitest';
+import { Tracer, LINE_CLOSED, LINE_OPEN, LINE_UNRESOLVED, type TraceField } from '../../../src/physics/trace/tracer';
+import { dipoleField, addTiltedDipoleField } from '../../../src/physics/field/dipole';
+import { equatorCrossing } from '../../../src/physics/trace/footpoint';
+import { expectClose, expectAtMost, expectBetween } from '../../helpers';
+
+const B0 = 29733; // references §1: the 2025 dipole
+const RE = 6371.2;
+const DEG = 180 / Math.PI;
+
+/** Untilted centred dipole, no boundary: the analytic reference of references §1. */
+function dipoleOnly(b0 = B0): TraceField {
+  return {
+    evaluate(o, x, y, z) { dipoleField(o, x, y, z, b0); },
+    isInside: () => true,
+    boundaryMinRe: Infinity,
+    geoZRow: new Float64Array([0, 0, 1]),
+  };
+}
+
+function latOf(p: Float64Array, i: number): number {
+  return Math.asin(p[3 * i + 2] / Math.hypot(p[3 * i], p[3 * i + 1], p[3 * i + 2])) * DEG;
+}
+
+/** Dipole arc length equator → λ (references §1, derived): s = L/(2√3)[x√(1+x²) + asinh x], x = √3 sin λ. */
+function arcLength(L: number, latRad: number): number {
+  const x = Math.sqrt(3) * Math.sin(latRad);
+  return (L / (2 * Math.sqrt(3))) * (x * Math.sqrt(1 + x * x) + Math.asinh(x));
+}
+
+describe('tracer against the analytic dipole (references §1, derived)', () => {
+  it('footpoint latitude within 0.001° for L 2–12 at 110 km (cos²λ = (1+h/RE)/L)', () => {
+    const t = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 110 });
+    let worst = 0;
+    for (let L = 2; L <= 12; L += 0.25) {
+      expect(t.trace(L, 0, 0)).toBe(LINE_CLOSED);
+      const exact = Math.acos(Math.sqrt((1 + 110 / RE) / L)) * DEG;
+      worst = Math.max(worst, Math.abs(latOf(t.points, t.footPlus) - exact), Math.abs(latOf(t.points, t.footMinus) + exact));
+    }
+    // Measured 2.6e-4° with the default step factor.
+    expectAtMost(worst, 1e-3, 'max footpoint latitude error (deg)');
+  });
+
+  it.each([
+    // references §1 table: L, Λ at h=0, λ at h=110 km, lengths h=0 / 110 km, B_eq
+    [4, 60.0, 59.715, 9.004, 8.968, 464.6],
+    [6.6, 67.092, 66.884, 16.197, 16.162, 103.4],
+    [10, 71.565, 71.401, 25.59, 25.555, 29.73],
+  ])('L = %s: worked values of references §1', (L, lam0, lam110, len0, len110, beq) => {
+    const t0 = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 0 });
+    t0.trace(L, 0, 0);
+    expectClose(latOf(t0.points, t0.footPlus), lam0, 1e-3, `Λ at h = 0, L = ${L}`);
+    expectClose(t0.lengthRe, len0, 1.5e-3, `length h = 0, L = ${L} (table rounded to 1e-3)`);
+    const t = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 110 });
+    t.trace(L, 0, 0);
+    expectClose(latOf(t.points, t.footPlus), lam110, 1e-3, `λ at 110 km, L = ${L}`);
+    expectClose(t.lengthRe, len110, 1.5e-3, `length h = 110 km, L = ${L}`);
+    const eq = equatorCrossing(t.points, t.bMag, t.nPoints)!;
+    expectClose(eq.bNt, beq, beq * 5e-4, `equatorial |B| = B0/L³, L = ${L}`);
+    expectClose(eq.rRe, L, 1e-4 * L, 'minimum-|B| distance equals L');
+  });
+
+  it('length matches the analytic arc length to 4e-4 RE for L 2–12', () => {
+    const t = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 110 });
+    for (let L = 2; L <= 12; L += 1) {
+      t.trace(L, 0, 0);
+      const lam = Math.acos(Math.sqrt((1 + 110 / RE) / L));
+      expectClose(t.lengthRe, 2 * arcLength(L, lam), 4e-4, `length L = ${L} (RE)`);
+    }
+  });
+
+  it('the footpoint lies on the stop surface exactly (interpolated, not the last step)', () => {
+    const t = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 110 });
+    t.trace(5.3, 0, 0);
+    for (const i of [t.footMinus, t.footPlus]) {
+      const p = t.points;
+      expectClose(Math.hypot(p[3 * i], p[3 * i + 1], p[3 * i + 2]), 1 + 110 / RE, 1e-10, 'footpoint radius');
+    }
+  });
+
+  it('RK4 global error falls ~16× when the step halves (derived: 4th order)', () => {
+    const L = 6;
+    const exact = Math.acos(Math.sqrt((1 + 110 / RE) / L)) * DEG;
+    const err = (sf: number) => {
+      const t = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 110, stepFactor: sf, hMaxRe: 10 });
+      t.trace(L, 0, 0);
+      return Math.abs(latOf(t.points, t.footPlus) - exact);
+    };
+    const e1 = err(0.2), e2 = err(0.1), e3 = err(0.05);
+    const order1 = Math.log2(e1 / e2), order2 = Math.log2(e2 / e3);
+    expectBetween(order1, 3.5, 4.6, 'observed order 0.2→0.1');
+    expectBetween(order2, 3.5, 4.6, 'observed order 0.1→0.05');
+  });
+
+  it('a seed below the footpoint surface maps up to it and on to the far end', () => {
+    // Ground seed at 65° on the dipole; footpoints at 110 km: both on the line through the seed.
+    const t = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 110 });
+    const lat = 65 / DEG;
+    const type = t.trace(Math.cos(lat), 0, Math.sin(lat));
+    expect(type).toBe(LINE_CLOSED);
+    const L = 1 / Math.cos(lat) ** 2;
+    const exact = Math.acos(Math.sqrt((1 + 110 / RE) / L)) * DEG;
+    expectClose(latOf(t.points, t.footPlus), exact, 1e-3, 'near footpoint above the seed');
+    expectClose(latOf(t.points, t.footMinus), -exact, 1e-3, 'conjugate footpoint');
+  });
+
+  it('tilted dipole: the conjugate has the same magnetic longitude and opposite latitude (derived)', () => {
+    const tilt = 25 / DEG;
+    const s = Math.sin(tilt), c = Math.cos(tilt);
+    const field: TraceField = {
+      evaluate(o, x, y, z) { o[0] = 0; o[1] = 0; o[2] = 0; addTiltedDipoleField(o, x, y, z, B0, s, c); },
+      isInside: () => true, boundaryMinRe: Infinity, geoZRow: new Float64Array([0, 0, 1]),
+    };
+    const t = new Tracer(field, { ellipsoid: false, altKm: 0 });
+    for (const [lat, lon] of [[62, 30], [55, 140], [70, -100]]) {
+      const la = lat / DEG, lo = lon / DEG;
+      // Seed in SM, rotate to GSM (x_gsm = x_sm cos ψ + z_sm sin ψ, z_gsm = −x_sm sin ψ + z_sm cos ψ).
+      const xs = Math.cos(la) * Math.cos(lo), ys = Math.cos(la) * Math.sin(lo), zs = Math.sin(la);
+      t.trace(xs * c + zs * s, ys, -xs * s + zs * c);
+      const p = t.points, i = t.footMinus;
+      const xg = p[3 * i], yg = p[3 * i + 1], zg = p[3 * i + 2];
+      const xsm = xg * c - zg * s, zsm = xg * s + zg * c;
+      expectClose(Math.asin(zsm / Math.hypot(xsm, yg, zsm)) * DEG, -lat, 3e-4, 'conjugate magnetic latitude (ground footpoint; measured 1.3e-4°)');
+      expectClose(Math.atan2(yg, xsm) * DEG, lon, 3e-4, 'conjugate magnetic longitude');
+    }
+  });
+});
+
+describe('stop rules', () => {
+  it('a line leaving through a boundary is open', () => {
+    const f = dipoleOnly();
+    const field: TraceField = { ...f, isInside: (x, y, z) => Math.hypot(x, y, z) < 8, boundaryMinRe: 8 };
+    const t = new Tracer(field, { ellipsoid: false });
+    expect(t.trace(10, 0, 0)).toBe(LINE_OPEN);
+    expect(t.trace(6, 0, 0)).toBe(LINE_CLOSED);
+  });
+  it('a distance limit makes a line open; a step budget makes it unresolved (reported)', () => {
+    expect(new Tracer(dipoleOnly(), { ellipsoid: false, rMaxRe: 20 }).trace(30, 0, 0)).toBe(LINE_OPEN);
+    const t = new Tracer(dipoleOnly(), { ellipsoid: false, maxSteps: 10 });
+    expect(t.trace(8, 0, 0)).toBe(LINE_UNRESOLVED);
+    expect(t.nPoints).toBeGreaterThan(10);
+  });
+  it('a zero field (a null point) ends the line as unresolved, never NaN', () => {
+    const field: TraceField = { evaluate(o) { o[0] = 0; o[1] = 0; o[2] = 0; }, isInside: () => true, boundaryMinRe: Infinity, geoZRow: new Float64Array([0, 0, 1]) };
+    expect(new Tracer(field).trace(3, 0, 0)).toBe(LINE_UNRESOLVED);
+  });
+});

@@ -20,6 +20,7 @@ import { BATCH_COLUMNS, type BatchFormat, type BatchSettings, type ConditionJob,
 import { inProcessRunner, threadRunner, runOrdered, type JobRunner } from './pool';
 import { fileSink, stdoutSink, outputPrefix, outputSuffix, chunkSeparator, type Sink } from './output';
 import { csvRecords, requireFile, countLines } from './read';
+import type { CsvRecord } from '../../io/batch-csv';
 import { Progress } from './progress';
 
 export interface BatchIo {
@@ -156,12 +157,18 @@ function plan(argv: readonly string[], io: BatchIo): Plan {
   };
 }
 
+/** The header record's fields; a header with malformed quoting is a usage error (nothing can be read without it). */
+function headerFields(rec: CsvRecord, flag: string, path: string): string[] {
+  if (rec.error !== undefined) throw new UsageError(flag, `${path}: ${rec.error}`);
+  return rec.fields;
+}
+
 async function readSites(path: string): Promise<RowOutcome<SiteInput>[]> {
   const out: RowOutcome<SiteInput>[] = [];
   let idx: ReturnType<typeof sitesHeader> | null = null;
-  for await (const rec of csvRecords(path, '--sites')) {
-    if (idx === null) { idx = sitesHeader(rec.fields); continue; }
-    out.push(parseSite(rec.fields, rec.line, idx));
+  for await (const rec of csvRecords(path)) {
+    if (idx === null) { idx = sitesHeader(headerFields(rec, '--sites', path)); continue; }
+    out.push(rec.error !== undefined ? { kind: 'error', line: rec.line, error: `sites ${rec.error.replace(/^csv /, '')}; row not read` } : parseSite(rec.fields, rec.line, idx));
   }
   if (idx === null) throw new UsageError('--sites', `${path} is empty; expected a header with columns ${SITES_EXPECTED}`);
   return out;
@@ -176,17 +183,18 @@ async function conditionJobs(p: Plan): Promise<AsyncIterable<ConditionJob>> {
     })();
   }
   const path = p.conditionsPath;
-  const records = csvRecords(path, '--conditions');
+  const records = csvRecords(path);
   const first = await records.next();
   if (first.done) throw new UsageError('--conditions', `${path} is empty; expected a header with columns ${CONDITIONS_EXPECTED}`);
-  const idx = conditionsHeader(first.value.fields);
+  const idx = conditionsHeader(headerFields(first.value, '--conditions', path));
   const { k, n } = p.shard;
   return (async function* () {
     let i = 0;
     let seq = 0;
     for await (const rec of records) {
       if (i++ % n !== k - 1) continue;
-      yield { seq: seq++, line: rec.line, cond: parseCondition(rec.fields, rec.line, idx) };
+      const cond: ConditionJob['cond'] = rec.error !== undefined ? { kind: 'error', line: rec.line, error: `conditions ${rec.error.replace(/^csv /, '')}; row not read` } : parseCondition(rec.fields, rec.line, idx);
+      yield { seq: seq++, line: rec.line, cond };
     }
   })();
 }

@@ -4,21 +4,16 @@ import { stat } from 'node:fs/promises';
 import { CsvRecordSplitter, type CsvRecord } from '../../io/batch-csv';
 import { UsageError } from '../args';
 
-/** The records of a CSV file, read in 64 KiB chunks (a record may span chunks). */
-export async function* csvRecords(path: string, flag: string): AsyncGenerator<CsvRecord> {
+/**
+ * The records of a CSV file, read in 64 KiB chunks (a record may span chunks).
+ * Malformed quoting gives an error record (see CsvRecordSplitter) and reading goes on.
+ */
+export async function* csvRecords(path: string): AsyncGenerator<CsvRecord> {
   const splitter = new CsvRecordSplitter();
   const stream = createReadStream(path, { encoding: 'utf8', highWaterMark: 1 << 16 });
   try {
-    for await (const chunk of stream) {
-      try {
-        yield* splitter.push(chunk as string);
-      } catch (e) {
-        throw new UsageError(flag, `${path}: ${(e as Error).message}`);
-      }
-    }
-    let tail: CsvRecord[];
-    try { tail = splitter.end(); } catch (e) { throw new UsageError(flag, `${path}: ${(e as Error).message}`); }
-    yield* tail;
+    for await (const chunk of stream) yield* splitter.push(chunk as string);
+    yield* splitter.end();
   } finally {
     stream.destroy();
   }

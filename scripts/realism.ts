@@ -1,5 +1,5 @@
 /**
- * Realism table (project issue 6): the model's boundaries with the default
+ * Realism table (the calibration of references §12): the model's boundaries with the default
  * calibration against published oval statistics (references §8), and a plot.
  *
  *   npx tsx scripts/realism.ts          # writes docs/realism.md, docs/realism.svg, and the README section
@@ -28,7 +28,7 @@ export interface RealismRow {
   lo: number;
   hi: number;
   source: string;
-  /** An issue-6 target (asserted by the test) or context only. */
+  /** A calibration target (references §12, asserted by the test) or context only. */
   target: boolean;
   /** A target the calibration does not meet, with the reason (the test bounds it by `missBound`). */
   miss?: { reason: string; bound: number };

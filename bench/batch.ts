@@ -1,5 +1,5 @@
 /**
- * Section "batch" (project issue 5): the batch command end to end — invented
+ * Section "batch" (throughput and memory of the batch contract, references §13): the batch command end to end — invented
  * sites × an invented hourly series, written to a temporary CSV file — on a
  * pool of worker threads (2 by default: the issue's 2-core machine).
  *  - siteConditionsPerSecond: rows / wall time of the run (exact boundaries);
@@ -94,7 +94,7 @@ export async function runBatchBench(opts: { sites?: number; conditions?: number;
 
 export const batchSection: BenchSection = {
   name: 'batch',
-  title: 'batch command: 100 sites × hourly series, 2 worker threads, CSV to a file (issue 5)',
+  title: 'batch command: 100 sites × hourly series, 2 worker threads, CSV to a file',
   async run(o: RunOptions) {
     let lastLog = 0;
     const log = (m: string) => { if (m.includes('rows/s') && performance.now() - lastLog > 10_000) { lastLog = performance.now(); o.log(m); } };

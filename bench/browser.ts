@@ -1,5 +1,5 @@
 /**
- * Browser benchmark (issue 4): in headless Debian Chromium, the median time
+ * Browser benchmark (the app's responsiveness): in headless Debian Chromium, the median time
  * from a pressure change (typing into "Dynamic pressure (nPa)") to the frame
  * that first draws the new field lines, and to the frame that draws the
  * refined oval. Each change waits for every answer before the next one, so

@@ -1,5 +1,5 @@
 /**
- * Section "field" (project issue 2): cost of one field evaluation and of one
+ * Section "field" (the field engine): cost of one field evaluation and of one
  * model preparation.
  *  - evalNsDipoleCompressionImf: prepared default model (tilted dipole +
  *    compression + IMF), evaluate(out, x, y, z) over ~1e6 GSM points inside the
@@ -14,9 +14,10 @@ import type { FieldConditions } from '../src/physics/field/conditions';
 import { type BenchSection, type Figure, type RunOptions, consume, cpuMs, measure, median, now, seededRandom } from './lib';
 
 /**
- * The bench condition of issues 2 and 3: tilted dipole + compression + IMF. The
- * tail sheet (on by default in the app since issue 6) is off here, as those
- * issues state the model; BENCH_CONDITIONS_TAIL is the app default for context.
+ * The bench condition of the field and tracer sections: tilted dipole + compression + IMF.
+ * The tail sheet (on by default since its calibration, references §12) is off here, so the
+ * figures stay comparable with the earlier runs of the model without it;
+ * BENCH_CONDITIONS_TAIL is the app default for context.
  */
 export const BENCH_CONDITIONS = Object.freeze({
   time: '2025-03-20T22:00:00Z',
@@ -117,7 +118,7 @@ function prepareTiming(conds: (Partial<FieldConditions> & { time: string })[], b
 
 export const fieldSection: BenchSection = {
   name: 'field',
-  title: 'Field evaluation and preparation (issue 2)',
+  title: 'Field evaluation and preparation',
   parts: ['model', 'tail'],
   run(o: RunOptions) {
     const nPts = o.quick ? 100_000 : 1_000_000;

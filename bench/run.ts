@@ -6,7 +6,7 @@
  * section whose engine modules are missing reports an error instead of
  * stopping the others. To add a section, write bench/<name>.ts exporting a
  * `BenchSection` (see bench/lib.ts) and add one line to SECTIONS. The `batch`
- * section (project issue 5: site-conditions per second, peak memory) is
+ * section (site-conditions per second, peak memory) is
  * already registered: it loads bench/batch.ts, exporting `batchSection`, once
  * that file exists.
  *
@@ -48,7 +48,7 @@ function optional(name: string, file: string, exportName: string): SectionEntry 
 export const SECTIONS: SectionEntry[] = [
   { name: 'field', load: async () => (await import('./evaluation')).fieldSection },
   { name: 'tracer', load: async () => (await import('./tracer')).tracerSection },
-  optional('batch', 'batch.ts', 'batchSection'), // project issue 5
+  optional('batch', 'batch.ts', 'batchSection'), // batch throughput (references §13)
 ];
 
 interface Args { json: boolean; only: string | null; quick: boolean; inProcess: boolean; child: string | null; part: string | null }

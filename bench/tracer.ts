@@ -1,5 +1,5 @@
 /**
- * Section "tracer" (project issue 3): tracing speed and accuracy on one core.
+ * Section "tracer": tracing speed and accuracy on one core.
  *  - tracesPerSecond / evalsPerTrace / overheadRatio: closed lines seeded on the
  *    SM equator at L 2–12 (8 MLTs) of the default bench model, default options;
  *  - footpointErrorDeg: pure tilt-0 dipole, sphere at 110 km, against the
@@ -251,7 +251,7 @@ function sceneNote(s: Scene, what: string): string {
 
 export const tracerSection: BenchSection = {
   name: 'tracer',
-  title: 'Field-line tracer (issue 3)',
+  title: 'Field-line tracer',
   parts: ['model', 'dipole', 'tail'],
   run(o: RunOptions) {
     const reps = o.quick ? 3 : 7;
@@ -260,7 +260,7 @@ export const tracerSection: BenchSection = {
     const figures: Figure[] = [];
     const detail: Record<string, unknown> = {};
 
-    // --- Speed through the issue-3 model (dipole + compression + IMF) and a scene recompute.
+    // --- Speed through the model without the tail (dipole + compression + IMF) and a scene recompute.
     if (!o.part || o.part === 'model') {
       const sp = tracingSpeed(BENCH_CONDITIONS, ls, reps);
       o.log(`tracer: ${sp.nLines} of ${sp.nSeeds} equatorial seeds are closed (dipole + compression + IMF)`);

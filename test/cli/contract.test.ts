@@ -6,7 +6,7 @@ import { readCsv } from '../../src/io/csv';
 import { geoJsonProblems } from '../../src/io/geojson';
 import { expectClose } from '../helpers';
 
-// Source of every expectation here: the CLI contract of issue 3 item 4 (flag names, JSON keys,
+// Source of every expectation here: the CLI contract, references §13 (flag names, JSON keys,
 // exit codes 0/2/1, stdout = result only) and RFC 4180 / RFC 7946 for the file formats.
 const T = ['--time', '2025-03-20T22:00:00Z'];
 const CONDITION_KEYS = ['time', 'pdynNpa', 'bzNt', 'byNt', 'tiltDeg', 'standoffRe', 'internal', 'magnetopause', 'imfEfficiency', 'altKm', 'warnings'];

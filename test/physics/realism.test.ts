@@ -3,11 +3,11 @@ import { readFileSync } from 'node:fs';
 import { expectAtMost, expectBetween } from '../helpers';
 import { realismData, realismMarkdown, realismSvg, readmeBlock, inside } from '../../scripts/realism';
 
-// Issue 6: the model's boundaries against published oval statistics (references §8; each row names its source).
+// The calibration (references §12): the model's boundaries against published oval statistics (references §8; each row names its source).
 describe('realism table (references §8: review literature, Zhou et al. 2000, Boakes et al. 2009, common practice)', () => {
   const { rows, curves } = realismData();
 
-  it('every issue-6 target row lies inside its published range; known misses stay within their stated bound', () => {
+  it('every calibration target row lies inside its published range; known misses stay within their stated bound', () => {
     expect(rows.length).toBeGreaterThan(8);
     for (const r of rows) {
       if (!r.target) continue;

@@ -21,7 +21,7 @@ export interface FieldConditions {
   magnetopause: boolean;
   /** IMF penetration efficiency ε in [0, 1]. */
   imfEfficiency: number;
-  /** Tail current-sheet term on/off (issue 6). */
+  /** Tail current-sheet term on/off (calibrated with it on: references §12). */
   tail?: boolean;
 }
 

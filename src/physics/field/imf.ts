@@ -9,7 +9,7 @@
 import { InputError } from '../errors';
 
 /**
- * Default penetration efficiency ε: a calibration constant of this model (issue 6), not a
+ * Default penetration efficiency ε: a calibration constant of this model (references §12), not a
  * measured penetration fraction. With the tail sheet on (src/physics/field/tail.ts), ε = 0.7 makes
  * the noon open–closed boundary move equatorward by ≈ 0.54 ° per nT of southward Bz at
  * Pdyn 2 nPa, inside the 0.5–0.8 °/nT of the cusp statistics (Zhou et al., 2000,
@@ -17,7 +17,7 @@ import { InputError } from '../errors';
  * of ≈ 0.54 GWb at Bz −5 nT, inside the typical 0.3–0.9 GWb of Boakes et al. (2009) GRL 36
  * (the realism table in the README, scripts/realism.ts). The fractions of IMF By seen in the
  * plasma sheet and of the solar-wind potential seen across the polar cap are smaller,
- * roughly 0.1–0.3 (from memory): the larger ε here stands in for the dayside merging and
+ * roughly 0.1–0.3 (from memory, references §12): the larger ε here stands in for the dayside merging and
  * the Region 1 currents the model leaves out. Derived check (references §5 formulas, B0 = 29,800 nT,
  * no magnetopause): Bz = −5 nT, ε·b = 3.5 nT gives r_n = 20.4 RE, a polar-cap boundary at
  * 74.3° and 0.56 GWb per hemisphere.

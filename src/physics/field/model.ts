@@ -30,7 +30,7 @@ export const DEFAULT_CONDITIONS: Readonly<Omit<FieldConditions, 'time'>> = Objec
   internal: 'dipole' as InternalFieldKind,
   magnetopause: true,
   imfEfficiency: DEFAULT_IMF_EFFICIENCY,
-  // On by default: the calibrated defaults of issue 6 assume the tail sheet (src/physics/field/tail.ts).
+  // On by default: the calibrated defaults (references §12) assume the tail sheet (src/physics/field/tail.ts).
   tail: true,
 });
 

@@ -17,7 +17,7 @@
  * Current profile: `nBands` nested bands of equal strength share the inner edge and end at
  * successively larger distances, so the current density falls tailward in steps and the
  * lobe field falls from nBands·b near Earth to b far out (the observed tailward decrease
- * of the lobe field, from memory: ~20–30 nT near 20 RE, ~10 nT beyond 60 RE). Equal
+ * of the lobe field, from memory, references §12: ~20–30 nT near 20 RE, ~10 nT beyond 60 RE). Equal
  * strengths let the logarithms combine into one call (derived), and the band angles are the
  * arguments of complex factors whose product gives their sum with a single atan2 (derived; see
  * `evaluate`): an evaluation costs one atan2, one log and two square roots.
@@ -29,13 +29,13 @@
  * full southward Bz at the flanks, where the dipole is weak, and its normal field there cannot be
  * shielded by the smooth compression basis (rms residual 4 % instead of < 1 %, measured).
  *
- * Hinge (our choice; the hinged-sheet idea is common practice, from memory):
+ * Hinge (our choice; the hinged-sheet idea is common practice, references §12):
  * z0(x) = −tan ψ · R_H x/√(x² + R_H²): slope −tan ψ at x = 0 (the dipole equator
  * x sin ψ + z cos ψ = 0, derived), flat at z0 = R_H tan ψ far down the tail.
  *
  * Parameters from the solar wind (`tailParameters`, documented at DEFAULT_TAIL_CALIBRATION):
  * lobe field ∝ √Pdyn (lobe pressure balance B_L²/2μ0 ∝ Pdyn; Coroniti & Kennel, 1972,
- * J. Geophys. Res. 77, 3361 — from memory), stronger and closer to Earth for southward
+ * J. Geophys. Res. 77, 3361; references §12, citation from memory), stronger and closer to Earth for southward
  * Bz (loading of open flux into the tail, common practice), lengths scaled with the
  * Shue et al. (1998) standoff r0 so the tail shrinks with the magnetopause.
  */
@@ -61,7 +61,7 @@ export interface TailParameters {
 
 /**
  * How the tail follows the solar wind (see `tailParameters`). Values are the
- * calibration of issue 6 against the oval statistics of references §8 (scripts/realism.ts).
+ * calibration (references §12) against the oval statistics of references §8 (scripts/realism.ts).
  */
 export interface TailCalibration {
   /** Lobe field at Pdyn 2 nPa, Bz ≥ 0, nT. */
@@ -88,26 +88,26 @@ export interface TailCalibration {
 }
 
 /**
- * Default calibration (issue 6). Chosen by a scan of these parameters (and ε) for the
+ * Default calibration (references §12). Chosen by a scan of these parameters (and ε) for the
  * boundaries of references §8 under the constraint that the compression fit still shields
  * internal + tail to ≈ 1 % rms at zero tilt; the realism table in the README
  * (scripts/realism.ts) shows the result. Per parameter:
- *  - lobeNt 28 nT: the near-Earth lobe field, ~15–30 nT at 10–30 RE (from memory), the upper
+ *  - lobeNt 28 nT: the near-Earth lobe field, ~15–30 nT at 10–30 RE (from memory, references §12), the upper
  *    part: it stretches the quiet-time (Bz 0) midnight field lines toward the 66–72° boundary;
  *  - lobePerSouthNt 0.065, lobeMaxFactor 1.6: the lobe grows with southward Bz (open flux loaded
  *    into the tail, common practice) to ~45 nT at saturation (the tilted fit residual sets this
  *    ceiling); sets the midnight boundary's Bz dependence and, through the polar-cap size, part
  *    of the noon boundary's 0.5–0.8 °/nT (Zhou et al., 2000);
  *  - innerRe 9, innerPerSouthNt 0.55 RE/nT, innerMinRe 4: the inner edge of the tail current
- *    near 8–10 RE in quiet times, moving earthward in disturbed times (from memory); the shift
+ *    near 8–10 RE in quiet times, moving earthward in disturbed times (from memory, references §12); the shift
  *    keeps the noon boundary's Bz dependence above 0.5 °/nT with the smaller lobe growth;
  *  - bandLengthsRe [12, 40, 150]: the current density falls tailward in three steps, so the
- *    lobe field falls from 28 to ~9 nT by ~50 RE (from memory: ~10 nT beyond 60 RE) and the
+ *    lobe field falls from 28 to ~9 nT by ~50 RE (from memory, references §12: ~10 nT beyond 60 RE) and the
  *    sheet reaches the 100 RE trace limit (lines beyond it count as open, like the distant
- *    neutral line near ~100 RE, from memory);
- *  - thicknessRe 3.5: plasma-sheet half-thickness of a few RE in quiet times (from memory);
+ *    neutral line near ~100 RE, from memory, references §12);
+ *  - thicknessRe 3.5: plasma-sheet half-thickness of a few RE in quiet times (from memory, references §12);
  *    thinner sheets stretch more but the fit residual grows (2 RE: > 1 %);
- *  - hingeRe 8: hinging distance of order 8–10 RE (from memory);
+ *  - hingeRe 8: hinging distance of order 8–10 RE (from memory, references §12);
  *  - widthRe 21.5, taperPower 3: the taper falls to 1/8 at y = ±21.5 RE, about the tail's flank
  *    radius (Shue et al., 1998: ≈ 20 RE at x = −10 RE for 2 nPa), chosen for the fit residual
  *    (scan 20–22 RE: lowest worst-case rms near 21–22 RE).

@@ -16,8 +16,8 @@ export type { Footpoint, EquatorCrossing, Hemisphere };
 /**
  * Default equatorial source distance of the equatorward precipitation edge, RE:
  * near the inner edge of the plasma sheet, where the diffuse aurora's electrons
- * come from (common practice; ~6–8 RE in quiet to moderate conditions, from memory).
- * 7 RE (issue 6 calibration, scripts/realism.ts): with the tail sheet on, the edge then
+ * come from (common practice; ~6–8 RE in quiet to moderate conditions, from memory, references §12).
+ * 7 RE (a calibration, references §12, scripts/realism.ts): with the tail sheet on, the edge then
  * moves equatorward with southward Bz in every sector (at 8 RE the compression of the
  * dayside by the Bz-dependent Shue standoff outweighs the stretching at noon).
  */

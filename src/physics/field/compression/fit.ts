@@ -2,7 +2,7 @@
  * Magnetopause (Chapman–Ferraro) current field: a curl-free, divergence-free field
  * B_c = ∇Φ, Φ harmonic inside, whose coefficients are fitted by least squares so
  * that (B_shielded + B_c)·n ≈ 0 on the boundary (the shielding condition of
- * Chapman & Ferraro, 1931, Terr. Magn. Atmos. Electr. 36, 77 — citation from memory).
+ * Chapman & Ferraro, 1931, Terr. Magn. Atmos. Electr. 36, 77; references §4, citation from memory).
  *
  * Basis (GSM, RE; separable solutions of Laplace's equation, derived): a uniform
  * field plus Cartesian exponential harmonics

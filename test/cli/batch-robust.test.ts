@@ -1,6 +1,6 @@
 /**
- * Issue-11 defects of the batch command, each pinned by a test that failed
- * before the fix: nothing lost, nothing silent.
+ * Defects of the batch command found by a hostile-user review, each pinned by
+ * a test that failed before the fix: nothing lost, nothing silent.
  */
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { mkdtempSync, writeFileSync, rmSync } from 'node:fs';

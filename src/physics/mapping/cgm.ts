@@ -1,7 +1,7 @@
 /**
  * Corrected geomagnetic (CGM) coordinates by tracing, after the published
  * definition (Gustafsson, Papitashvili & Papitashvili 1992, J. Atmos. Terr.
- * Phys. 54, 1609; references §2): follow the main-field line through the point
+ * Phys. 54, 1609; references §6): follow the main-field line through the point
  * to the centred dipole's equatorial plane, then go back along the dipole field
  * line through that equatorial point to the point's own radius; the dipole
  * (MAG) latitude and longitude reached there are the CGM latitude and

@@ -16,7 +16,7 @@ import { prepareModel, type PreparedModel } from '../src/physics/field/model';
 import { Tracer, LINE_CLOSED } from '../src/physics/trace/tracer';
 import { applyMat3, applyMat3T } from '../src/physics/frames/rotations';
 import { gsmAtMagneticLatMlt } from '../src/physics/trace/footpoint';
-import { makeTracer, traceGsm, ovalBoundaries, mltGrid } from '../src/physics/mapping/mapping';
+import { makeTracer, traceGsm, ovalBoundaries, mltGrid } from '../src/physics/mapping';
 import { RE_KM, RAD } from '../src/physics/constants';
 import { BENCH_CONDITIONS, BENCH_CONDITIONS_TAIL } from './evaluation';
 import { type BenchSection, type Figure, type RunOptions, consume, cpuMs, measure, median, now } from './lib';

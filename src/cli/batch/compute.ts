@@ -5,8 +5,7 @@
  * threads share the formatting work. Runs the same in a worker or in-process.
  */
 import { prepareModel, type PreparedModel } from '../../physics/field/model';
-import { makeTracer, siteGsm } from '../../physics/mapping/mapping';
-import type { SiteInput, SiteResult } from '../../physics/mapping/site-report';
+import { makeTracer, siteGsm, type SiteInput, type SiteResult } from '../../physics/mapping';
 import { siteRow, exactBoundaries, gridBoundaries } from './site-rows';
 import { applyMat3 } from '../../physics/frames/rotations';
 import { RAD } from '../../physics/constants';

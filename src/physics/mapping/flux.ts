@@ -18,7 +18,7 @@ import { RE_KM } from '../constants';
 import { InputError, requireInRange } from '../errors';
 import { gsmAtMagneticLatMlt } from '../trace/footpoint';
 import type { PreparedModel } from '../field/model';
-import type { HemisphereBoundaries } from './mapping';
+import type { HemisphereBoundaries } from './oval';
 
 /** Gauss–Legendre nodes and weights on [−1, 1], 12 points (Abramowitz & Stegun, 1964, table 25.4). */
 const GL_X = [-0.9815606342467192, -0.9041172563704749, -0.7699026741943047, -0.5873179542866175, -0.3678314989981802, -0.1252334085114689,

@@ -4,7 +4,10 @@
  */
 import type { PreparedModel } from '../field/model';
 import type { Tracer } from '../trace/tracer';
-import { traceSite, sectorBoundaries, ovalRelation, type SectorBoundaries, type Hemisphere } from './mapping';
+import { traceSite } from './sites';
+import { sectorBoundaries, type SectorBoundaries } from './boundaries';
+import { ovalRelation } from './oval';
+import type { Hemisphere } from '../trace/footpoint';
 import { skyPosition } from './sky';
 import { applyMat3T } from '../frames/rotations';
 import type { Footpoint } from '../trace/footpoint';

@@ -5,7 +5,8 @@
 import type { FieldConditions } from '../field/conditions';
 import { InputError, requireInRange } from '../errors';
 import { prepareModel } from '../field/model';
-import { makeTracer, sectorBoundaries, DEFAULT_SOURCE_RE, type SectorBoundaries } from './mapping';
+import { makeTracer } from './lines';
+import { sectorBoundaries, DEFAULT_SOURCE_RE, type SectorBoundaries } from './boundaries';
 
 export interface SweepOptions {
   vary: 'pdyn' | 'bz';

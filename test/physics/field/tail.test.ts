@@ -4,8 +4,7 @@ import { prepareTail, tailParameters, DEFAULT_TAIL_CALIBRATION, type TailParamet
 import { prepareModel } from '../../../src/physics/field/model';
 import { InputError } from '../../../src/physics/errors';
 import { magnetopauseNormal, magnetopausePoint, shueRadius } from '../../../src/physics/field/magnetopause';
-import { makeTracer, ovalBoundaries, mltGrid } from '../../../src/physics/mapping/mapping';
-import { openFluxWb } from '../../../src/physics/mapping/flux';
+import { makeTracer, ovalBoundaries, mltGrid, openFluxWb } from '../../../src/physics/mapping';
 import { RE_KM } from '../../../src/physics/constants';
 
 const DEG = Math.PI / 180;

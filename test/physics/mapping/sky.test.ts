@@ -1,5 +1,5 @@
 import { describe, it } from 'vitest';
-import { horizonCentralAngleDeg, elevationAtCentralAngleDeg, skyPosition } from '../../../src/physics/mapping/sky';
+import { horizonCentralAngleDeg, elevationAtCentralAngleDeg, skyPosition } from '../../../src/physics/mapping';
 import { expectClose } from '../../helpers';
 
 describe('sky geometry (references §7, derived: γ = acos(RE cos e/(RE+h)) − e)', () => {

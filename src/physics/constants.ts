@@ -14,7 +14,5 @@ export const PROTON_MASS_KG = 1.67262192e-27;
 export const RAD_PER_DEG = Math.PI / 180;
 /** Degrees per radian (multiply radians by it). */
 export const DEG_PER_RAD = 180 / Math.PI;
-export const DEG = RAD_PER_DEG;
-export const RAD = DEG_PER_RAD;
 /** Milliseconds per day. */
 export const MS_PER_DAY = 86_400_000;

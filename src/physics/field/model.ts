@@ -5,8 +5,8 @@
  * applied by isInside (the tracer stops there, and `fieldAt` reports whether
  * a point lies inside). Prepared once per condition; evaluation allocates nothing.
  */
-import type { FieldConditions, InternalFieldKind } from './conditions';
-import { InputError, requireInRange } from '../errors';
+import { IMF_LIMIT_NT, type FieldConditions, type InternalFieldKind } from './conditions';
+import { InputError, expectedGot, requireInRange } from '../errors';
 import { parseUtc, decimalYear } from '../frames/time';
 import { prepareFrames, type FrameSet } from '../frames/rotations';
 import { igrfCoefficients } from './mainfield/coefficients';
@@ -40,7 +40,7 @@ export function normalizeConditions(c: Partial<FieldConditions> & { time: string
   parseUtc(c.time);
   const internal = c.internal ?? DEFAULT_CONDITIONS.internal;
   if (internal !== 'dipole' && internal !== 'igrf') {
-    throw new InputError('internal', `expected "dipole" or "igrf", got "${String(internal)}"`);
+    throw new InputError('internal', expectedGot('"dipole" or "igrf"', internal, true));
   }
   const magnetopause = c.magnetopause ?? DEFAULT_CONDITIONS.magnetopause;
   if (typeof magnetopause !== 'boolean') throw new InputError('magnetopause', 'expected on (true) or off (false)');
@@ -49,8 +49,8 @@ export function normalizeConditions(c: Partial<FieldConditions> & { time: string
   const byNt = c.byNt ?? DEFAULT_CONDITIONS.byNt;
   // Non-physical values are refused here even with the magnetopause off.
   requireInRange('pdynNpa', pdynNpa, Number.MIN_VALUE, 1e4, 'nPa');
-  requireInRange('bzNt', bzNt, -1000, 1000, 'nT');
-  requireInRange('byNt', byNt, -1000, 1000, 'nT');
+  requireInRange('bzNt', bzNt, -IMF_LIMIT_NT, IMF_LIMIT_NT, 'nT');
+  requireInRange('byNt', byNt, -IMF_LIMIT_NT, IMF_LIMIT_NT, 'nT');
   const imfEfficiency = requireInRange('imfEfficiency', c.imfEfficiency ?? DEFAULT_CONDITIONS.imfEfficiency, 0, 1);
   const tiltDeg = c.tiltDeg ?? null;
   if (tiltDeg !== null) requireInRange('tiltDeg', tiltDeg, -90, 90, 'deg');

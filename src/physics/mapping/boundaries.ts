@@ -4,7 +4,8 @@
  * field-line trace).
  */
 import type { PreparedModel } from '../field/model';
-import { LINE_CLOSED, type Tracer } from '../trace/tracer';
+import type { Tracer } from '../trace/tracer';
+import { LINE_CLOSED } from '../trace/line-type';
 import { describePoint, equatorCrossing, gsmAtMagneticLatMlt, type Hemisphere } from '../trace/footpoint';
 import { bisectBoundary, illinoisRoot } from '../numeric/roots';
 

@@ -14,8 +14,8 @@
  * the sphere of the same altitude; the difference (≤ 21 km in radius) changes the
  * flux by < 1 % (derived: Φ ∝ 1/r for the dipole at fixed colatitude, ≤ 0.3 %).
  */
-import { RE_KM } from '../constants';
-import { InputError, requireInRange } from '../errors';
+import { RE_KM, RAD_PER_DEG } from '../constants';
+import { InputError, expectedGot, requireInRange } from '../errors';
 import { gsmAtMagneticLatMlt } from '../trace/footpoint';
 import type { PreparedModel } from '../field/model';
 import type { HemisphereBoundaries } from './oval';
@@ -41,10 +41,10 @@ export interface OpenFluxOptions {
 export function openFluxWb(model: PreparedModel, boundaries: HemisphereBoundaries, options: OpenFluxOptions = {}): number {
   const altKm = requireInRange('altKm', options.altKm ?? 110, -1, 100_000, 'km');
   const sub = options.subdivisions ?? 8;
-  if (!Number.isInteger(sub) || sub < 1 || sub > 1000) throw new InputError('subdivisions', `expected an integer 1..1000, got ${sub}`);
+  if (!Number.isInteger(sub) || sub < 1 || sub > 1000) throw new InputError('subdivisions', expectedGot('an integer 1..1000', sub));
   const secs = [...boundaries.sectors].sort((a, b) => a.mltHours - b.mltHours);
   const n = secs.length;
-  if (n < 2) throw new InputError('boundaries', `expected at least 2 MLT sectors, got ${n}`);
+  if (n < 2) throw new InputError('boundaries', expectedGot('at least 2 MLT sectors', n));
   const step = 24 / n;
   for (let i = 0; i < n; i++) {
     if (Math.abs(secs[i].mltHours - (secs[0].mltHours + i * step)) > 1e-9) {
@@ -55,7 +55,7 @@ export function openFluxWb(model: PreparedModel, boundaries: HemisphereBoundarie
   for (let i = 0; i < n; i++) {
     const oc = secs[i].openClosed;
     if (oc === null) return NaN;
-    colat[i] = (90 - Math.abs(oc.magLatDeg)) * (Math.PI / 180);
+    colat[i] = (90 - Math.abs(oc.magLatDeg)) * RAD_PER_DEG;
   }
   const sgn = boundaries.hemisphere === 'north' ? 1 : -1;
   const r = 1 + altKm / RE_KM;

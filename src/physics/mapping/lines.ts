@@ -1,6 +1,7 @@
 /** A traced field line described: its type, length, equatorial crossing and footpoints. */
 import type { PreparedModel } from '../field/model';
-import { Tracer, LINE_CLOSED, LINE_TYPE_NAMES, type TraceOptions, type LineType } from '../trace/tracer';
+import { Tracer, type TraceOptions } from '../trace/tracer';
+import { LINE_CLOSED, lineTypeName, type LineType } from '../trace/line-type';
 import { describePoint, equatorCrossing, type Footpoint, type EquatorCrossing } from '../trace/footpoint';
 
 export interface LineResult {
@@ -29,7 +30,7 @@ export function describeLine(model: PreparedModel, tracer: Tracer, type: number,
   }
   const closed = type === LINE_CLOSED;
   return {
-    type: LINE_TYPE_NAMES[type],
+    type: lineTypeName(type),
     lengthRe: tracer.lengthRe,
     equator: closed ? equatorCrossing(p, tracer.bMag, tracer.nPoints) : null,
     footpoints: feet,

@@ -6,7 +6,8 @@ import type { PreparedModel } from '../field/model';
 import type { Tracer } from '../trace/tracer';
 import { traceSite } from './sites';
 import { sectorBoundaries, type SectorBoundaries } from './boundaries';
-import { ovalRelation } from './oval';
+import { ovalRelation, type OvalRelation } from './oval';
+import type { LineType } from '../trace/line-type';
 import type { Hemisphere } from '../trace/footpoint';
 import { skyPosition } from './sky';
 import { applyMat3T } from '../frames/rotations';
@@ -23,8 +24,7 @@ export interface SiteResult {
   name: string;
   latDeg: number;
   lonDeg: number;
-  /** closed / open / unresolved */
-  type: 'closed' | 'open' | 'unresolved';
+  type: LineType;
   /** The far footpoint at the conjugate altitude (ground by default); null when the line is open. */
   conjugate: Footpoint | null;
   footpoints: Footpoint[];
@@ -33,7 +33,7 @@ export interface SiteResult {
   mltHours: number;
   magLatDeg: number;
   /** Relative to the oval at the site's MLT in its hemisphere. */
-  ovalRelation: 'poleward' | 'inside' | 'equatorward' | 'unknown';
+  ovalRelation: OvalRelation;
   /** Nearest oval point at the emission altitude as seen from the site. */
   sky: { elevationDeg: number; azimuthDeg: number; distanceKm: number; visible: boolean } | null;
   /** Boundaries at the site's MLT in its hemisphere (magnetic latitude, deg), null when not found. */

@@ -17,19 +17,8 @@
  *  - unresolved: the step or length budget is exhausted (reported, never dropped).
  */
 import { ellipsoidRadiusRe } from '../frames/geodesy';
-
-export const LINE_CLOSED = 0;
-export const LINE_OPEN = 1;
-export const LINE_UNRESOLVED = 2;
-export type LineType = 'closed' | 'open' | 'unresolved';
-export const LINE_TYPE_NAMES: readonly LineType[] = ['closed', 'open', 'unresolved'];
-
-/** End states of one half-trace. */
-export const END_SURFACE = 0; // reached the stop surface (footpoint)
-export const END_MAGNETOPAUSE = 1;
-export const END_DISTANCE = 2;
-export const END_BUDGET = 3;
-export const END_START_BELOW = 4; // direction leads down from a start below the surface: no points
+import { RE_KM } from '../constants';
+import { END_SURFACE, END_MAGNETOPAUSE, END_DISTANCE, END_BUDGET, END_START_BELOW, classify } from './line-type';
 
 /** What the tracer needs of a field model. */
 export interface TraceField {
@@ -129,7 +118,7 @@ export class Tracer {
     const o = { ...this.opts, ...options };
     o.maxSteps = Math.min(o.maxSteps, this.capacity - 2);
     this.opts = o;
-    this.rStopSphere = 1 + o.altKm / 6371.2;
+    this.rStopSphere = 1 + o.altKm / RE_KM;
   }
 
   get options(): Readonly<TraceOptions> {
@@ -342,13 +331,4 @@ export class Tracer {
     this.landZ = z + t6 * (k1z + 2 * k2z + 2 * k3z + k4z);
     return 3;
   }
-}
-
-/** Line type from the two half-trace end states. */
-export function classify(endMinus: number, endPlus: number): number {
-  if (endMinus === END_BUDGET || endPlus === END_BUDGET) return LINE_UNRESOLVED;
-  const footM = endMinus === END_SURFACE || endMinus === END_START_BELOW;
-  const footP = endPlus === END_SURFACE || endPlus === END_START_BELOW;
-  if (footM && footP) return LINE_CLOSED;
-  return LINE_OPEN;
 }

@@ -24,7 +24,7 @@
  * pass re-weights by the fitted total), so the fit minimises the area-weighted rms
  * of |B·n|/|B|, the figure reported in `rmsResidualRel`.
  */
-import { InputError } from '../../errors';
+import { InputError, expectedGot } from '../../errors';
 import { type MagnetopauseShape, shueRadius } from '../magnetopause';
 import { leastSquaresQr } from '../../numeric/lsq';
 import { makeKernel, squareFreePart } from './basis';
@@ -102,7 +102,7 @@ export function shueSurface(mp: MagnetopauseShape, fitDepthR0 = 2): Axisymmetric
 
 /** A sphere of radius R centred on Earth (the exact conducting-sphere limit). */
 export function sphereSurface(radiusRe: number): AxisymmetricSurface {
-  if (!(radiusRe > 0) || !Number.isFinite(radiusRe)) throw new InputError('radiusRe', `expected a finite radius > 0 RE, got ${radiusRe}`);
+  if (!(radiusRe > 0) || !Number.isFinite(radiusRe)) throw new InputError('radiusRe', expectedGot('a finite radius > 0 RE', radiusRe));
   return { radiusRe: () => radiusRe, radiusSlope: () => 0, thetaMaxRad: Math.PI, scaleRe: radiusRe };
 }
 
@@ -184,16 +184,16 @@ function sampleSurface(s: AxisymmetricSurface, spacing: number): Samples {
 /** Fit the compression field on the Shue surface `mp` for the field written by `shielded`. */
 export function prepareCompression(mp: MagnetopauseShape, shielded: FieldWriter, options: CompressionOptions = {}): CompressionField {
   const depth = options.fitDepthR0 ?? 2;
-  if (!(depth > 0 && depth <= 10)) throw new InputError('fitDepthR0', `expected 0 < fitDepthR0 ≤ 10 (in r0), got ${depth}`);
+  if (!(depth > 0 && depth <= 10)) throw new InputError('fitDepthR0', expectedGot('0 < fitDepthR0 ≤ 10 (in r0)', depth));
   return prepareCompressionOnSurface(shueSurface(mp, depth), shielded, options);
 }
 
 /** Fit the compression field on any x-axisymmetric surface (the sphere for the exact limit). */
 export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shielded: FieldWriter, options: CompressionOptions = {}): CompressionField {
   const order = options.order ?? 4;
-  if (!Number.isInteger(order) || order < 1 || order > 8) throw new InputError('order', `expected an integer 1..8, got ${order}`);
+  if (!Number.isInteger(order) || order < 1 || order > 8) throw new InputError('order', expectedGot('an integer 1..8', order));
   const spacing = options.spacing ?? 0.3;
-  if (!(spacing >= 0.05 && spacing <= 1)) throw new InputError('spacing', `expected 0.05..1 (in units of the scale), got ${spacing}`);
+  if (!(spacing >= 0.05 && spacing <= 1)) throw new InputError('spacing', expectedGot('0.05..1 (in units of the scale)', spacing));
 
   const smp = sampleSurface(surface, spacing);
   const ns = smp.n;

@@ -27,10 +27,11 @@
 import { InputError, expectedGot } from '../../errors';
 import { type MagnetopauseShape, shueRadius } from '../magnetopause';
 import { leastSquaresQr } from '../../numeric/lsq';
-import { makeKernel, squareFreePart } from './basis';
+import { makeKernel } from './basis';
+import { compressionPairs } from './pairs';
+import type { FieldWriter } from '../writer';
 
-/** Writes a field (GSM nT) at a GSM point (RE) into out[0..2]. */
-export type FieldWriter = (out: Float64Array, x: number, y: number, z: number) => void;
+export type { FieldWriter };
 
 /** A boundary symmetric about the x axis, r = r(θ), θ from +x. */
 export interface AxisymmetricSurface {
@@ -52,7 +53,7 @@ export interface CompressionOptions {
   fitDepthR0?: number;
   /** Sample spacing along the surface, in units of scaleRe (default 0.3). */
   spacing?: number;
-  /** Use the hand-unrolled evaluator for the default order (default true; false is for cross-checks). */
+  /** Use the generated unrolled evaluator for the default order (default true; false is for cross-checks). */
   unrolled?: boolean;
 }
 
@@ -215,8 +216,7 @@ export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shield
   const kappa = KAPPA / surface.scaleRe;
   // Pairs with k/κ = m·1 or m·√2 only (i = 0, j = 0, i = j, or (3,4)-type triples), so every
   // exponential is a power of exp(κ dx) or exp(√2 κ dx): two exp calls per evaluation.
-  const pairs: number[] = [];
-  for (let i = 0; i <= N; i++) for (let j = 0; j <= N; j++) if (i + j > 0 && squareFreePart(i * i + j * j) <= 2) pairs.push(i, j);
+  const pairs = compressionPairs(N);
   const np = pairs.length / 2;
   const colPair: number[] = [];
   const colKind: number[] = [];

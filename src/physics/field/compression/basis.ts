@@ -19,8 +19,48 @@ export interface Kernel {
 }
 
 export function makeKernel(pairs: number[], N: number, kappa: number, x0: number, dxMax: number, unrolled: boolean): Kernel {
-  const np = pairs.length / 2;
   const useUnrolled = unrolled && N === UNROLLED_ORDER && pairs.join(',') === UNROLLED_PAIRS;
+  const t = makeTables(pairs, N, kappa, x0, dxMax);
+  const { pw, expIdx, pi, pj, kArr, aArr, bArr, cy, sy, cz, sz } = t;
+
+  const grad = (out: Float64Array, q: number, kind: number): void => {
+    const E = pw[expIdx[q]];
+    const i = pi[q], j = pj[q];
+    const Y = kind < 2 ? cy[i] : sy[i];
+    const dY = kind < 2 ? -aArr[q] * sy[i] : aArr[q] * cy[i];
+    const Z = (kind & 1) === 0 ? cz[j] : sz[j];
+    const dZ = (kind & 1) === 0 ? -bArr[q] * sz[j] : bArr[q] * cz[j];
+    out[0] = E * kArr[q] * Y * Z;
+    out[1] = E * dY * Z;
+    out[2] = E * Y * dZ;
+  };
+
+  const build = (colPair: number[], colKind: number[], coef: Float64Array): FieldWriter => {
+    const c = splitCoefficients(colPair, colKind, coef, t.np);
+    const pm = premultiply(t, c);
+    if (useUnrolled) return unrolledEvaluator(interleave(pm, t.np), c.odd, c.ux, c.uy, c.uz, kappa, x0, dxMax);
+    return tableEvaluator(t, pm, c);
+  };
+  return { load: t.load, grad, build };
+}
+
+/** Per-pair wavenumbers, exponential layout and the trigonometric tables with their loader. */
+interface Tables {
+  np: number;
+  pi: Int32Array; pj: Int32Array;
+  /** k, a, b of each pair (1/RE). */
+  kArr: Float64Array; aArr: Float64Array; bArr: Float64Array;
+  /** Index of each pair's exponential in pw. */
+  expIdx: Int32Array;
+  /** exp(κ√f dx)^m for every square-free f and power m, filled by load. */
+  pw: Float64Array;
+  /** cos/sin(nκy), cos/sin(nκz) for n = 0..N, filled by load. */
+  cy: Float64Array; sy: Float64Array; cz: Float64Array; sz: Float64Array;
+  load(x: number, y: number, z: number): void;
+}
+
+function makeTables(pairs: number[], N: number, kappa: number, x0: number, dxMax: number): Tables {
+  const np = pairs.length / 2;
   // exp(k (x−x0)) with k = κ√(i²+j²) = κ m √f (f square-free): one exp per distinct f, powers by products.
   const bases: number[] = [];
   const expIdx = new Int32Array(np);
@@ -68,67 +108,73 @@ export function makeKernel(pairs: number[], N: number, kappa: number, x0: number
       sz[n] = 2 * d1 * sz[n - 1] - sz[n - 2];
     }
   };
+  return { np, pi, pj, kArr, aArr, bArr, expIdx, pw, cy, sy, cz, sz, load };
+}
 
-  const grad = (out: Float64Array, q: number, kind: number): void => {
-    const E = pw[expIdx[q]];
-    const i = pi[q], j = pj[q];
-    const Y = kind < 2 ? cy[i] : sy[i];
-    const dY = kind < 2 ? -aArr[q] * sy[i] : aArr[q] * cy[i];
-    const Z = (kind & 1) === 0 ? cz[j] : sz[j];
-    const dZ = (kind & 1) === 0 ? -bArr[q] * sz[j] : bArr[q] * cz[j];
-    out[0] = E * kArr[q] * Y * Z;
-    out[1] = E * dY * Z;
-    out[2] = E * Y * dZ;
-  };
+/** Fitted coefficients sorted by kind: uniform parts and the four parities per pair. */
+interface SplitCoefficients {
+  ux: number; uy: number; uz: number;
+  cc: Float64Array; cs: Float64Array; sc: Float64Array; ss: Float64Array;
+  /** Any y-odd (sc, ss) column present. */
+  odd: boolean;
+}
 
-  const build = (colPair: number[], colKind: number[], coef: Float64Array): FieldWriter => {
-    let ux = 0, uy = 0, uz = 0;
-    const cc = new Float64Array(np), cs = new Float64Array(np), sc = new Float64Array(np), ss = new Float64Array(np);
-    let odd = false;
-    for (let c = 0; c < colPair.length; c++) {
-      const k = colKind[c], q = colPair[c], v = coef[c];
-      if (k === -1) ux = v;
-      else if (k === -2) uy = v;
-      else if (k === -3) uz = v;
-      else if (k === 0) cc[q] = v;
-      else if (k === 1) cs[q] = v;
-      else if (k === 2) { sc[q] = v; odd = true; }
-      else { ss[q] = v; odd = true; }
-    }
-    // Pre-multiplied coefficients: Bx = E k (cc u + cs v + sc w + ss t), u = cy cz, v = cy sz, w = sy cz, t = sy sz;
-    // By = E a (−cc w − cs t + sc u + ss v); Bz = E b (−cc v + cs u − sc t + ss w) (derivatives of φ).
-    const kcc = new Float64Array(np), kcs = new Float64Array(np), acc = new Float64Array(np), acs = new Float64Array(np), bcc = new Float64Array(np), bcs = new Float64Array(np);
-    const ksc = new Float64Array(np), kss = new Float64Array(np), asc = new Float64Array(np), ass = new Float64Array(np), bsc = new Float64Array(np), bss = new Float64Array(np);
-    for (let q = 0; q < np; q++) {
-      kcc[q] = kArr[q] * cc[q]; kcs[q] = kArr[q] * cs[q]; ksc[q] = kArr[q] * sc[q]; kss[q] = kArr[q] * ss[q];
-      acc[q] = aArr[q] * cc[q]; acs[q] = aArr[q] * cs[q]; asc[q] = aArr[q] * sc[q]; ass[q] = aArr[q] * ss[q];
-      bcc[q] = bArr[q] * cc[q]; bcs[q] = bArr[q] * cs[q]; bsc[q] = bArr[q] * sc[q]; bss[q] = bArr[q] * ss[q];
-    }
-    if (useUnrolled) {
-      const K = new Float64Array(12 * np);
-      for (let q = 0; q < np; q++) {
-        const o = 12 * q;
-        K[o] = kcc[q]; K[o + 1] = kcs[q]; K[o + 2] = ksc[q]; K[o + 3] = kss[q];
-        K[o + 4] = acc[q]; K[o + 5] = acs[q]; K[o + 6] = asc[q]; K[o + 7] = ass[q];
-        K[o + 8] = bcc[q]; K[o + 9] = bcs[q]; K[o + 10] = bsc[q]; K[o + 11] = bss[q];
-      }
-      return unrolledEvaluator(K, odd, ux, uy, uz, kappa, x0, dxMax);
-    }
-    if (!odd) {
-      return (out, x, y, z) => {
-        load(x, y, z);
-        let bx = ux, by = uy, bz = uz;
-        for (let q = 0; q < np; q++) {
-          const E = pw[expIdx[q]];
-          const yi = pi[q], zj = pj[q];
-          const u = cy[yi] * cz[zj], v = cy[yi] * sz[zj], w = sy[yi] * cz[zj], t = sy[yi] * sz[zj];
-          bx += E * (kcc[q] * u + kcs[q] * v);
-          by -= E * (acc[q] * w + acs[q] * t);
-          bz += E * (bcs[q] * u - bcc[q] * v);
-        }
-        out[0] += bx; out[1] += by; out[2] += bz;
-      };
-    }
+function splitCoefficients(colPair: number[], colKind: number[], coef: Float64Array, np: number): SplitCoefficients {
+  let ux = 0, uy = 0, uz = 0;
+  const cc = new Float64Array(np), cs = new Float64Array(np), sc = new Float64Array(np), ss = new Float64Array(np);
+  let odd = false;
+  for (let c = 0; c < colPair.length; c++) {
+    const k = colKind[c], q = colPair[c], v = coef[c];
+    if (k === -1) ux = v;
+    else if (k === -2) uy = v;
+    else if (k === -3) uz = v;
+    else if (k === 0) cc[q] = v;
+    else if (k === 1) cs[q] = v;
+    else if (k === 2) { sc[q] = v; odd = true; }
+    else { ss[q] = v; odd = true; }
+  }
+  return { ux, uy, uz, cc, cs, sc, ss, odd };
+}
+
+/** Coefficients pre-multiplied by the wavenumbers k, a, b (names: wavenumber then parity). */
+interface Premultiplied {
+  kcc: Float64Array; kcs: Float64Array; ksc: Float64Array; kss: Float64Array;
+  acc: Float64Array; acs: Float64Array; asc: Float64Array; ass: Float64Array;
+  bcc: Float64Array; bcs: Float64Array; bsc: Float64Array; bss: Float64Array;
+}
+
+// Pre-multiplied coefficients: Bx = E k (cc u + cs v + sc w + ss t), u = cy cz, v = cy sz, w = sy cz, t = sy sz;
+// By = E a (−cc w − cs t + sc u + ss v); Bz = E b (−cc v + cs u − sc t + ss w) (derivatives of φ).
+function premultiply(t: Tables, c: SplitCoefficients): Premultiplied {
+  const np = t.np, { kArr, aArr, bArr } = t, { cc, cs, sc, ss } = c;
+  const kcc = new Float64Array(np), kcs = new Float64Array(np), acc = new Float64Array(np), acs = new Float64Array(np), bcc = new Float64Array(np), bcs = new Float64Array(np);
+  const ksc = new Float64Array(np), kss = new Float64Array(np), asc = new Float64Array(np), ass = new Float64Array(np), bsc = new Float64Array(np), bss = new Float64Array(np);
+  for (let q = 0; q < np; q++) {
+    kcc[q] = kArr[q] * cc[q]; kcs[q] = kArr[q] * cs[q]; ksc[q] = kArr[q] * sc[q]; kss[q] = kArr[q] * ss[q];
+    acc[q] = aArr[q] * cc[q]; acs[q] = aArr[q] * cs[q]; asc[q] = aArr[q] * sc[q]; ass[q] = aArr[q] * ss[q];
+    bcc[q] = bArr[q] * cc[q]; bcs[q] = bArr[q] * cs[q]; bsc[q] = bArr[q] * sc[q]; bss[q] = bArr[q] * ss[q];
+  }
+  return { kcc, kcs, ksc, kss, acc, acs, asc, ass, bcc, bcs, bsc, bss };
+}
+
+/** The layout the generated evaluator reads: per pair [k·cc, k·cs, k·sc, k·ss, a·cc, …, b·ss]. */
+function interleave(pm: Premultiplied, np: number): Float64Array {
+  const K = new Float64Array(12 * np);
+  for (let q = 0; q < np; q++) {
+    const o = 12 * q;
+    K[o] = pm.kcc[q]; K[o + 1] = pm.kcs[q]; K[o + 2] = pm.ksc[q]; K[o + 3] = pm.kss[q];
+    K[o + 4] = pm.acc[q]; K[o + 5] = pm.acs[q]; K[o + 6] = pm.asc[q]; K[o + 7] = pm.ass[q];
+    K[o + 8] = pm.bcc[q]; K[o + 9] = pm.bcs[q]; K[o + 10] = pm.bsc[q]; K[o + 11] = pm.bss[q];
+  }
+  return K;
+}
+
+/** The general evaluator: loads the tables at the point and sums over the pairs (y-even terms only when no y-odd coefficient). */
+function tableEvaluator(t: Tables, pm: Premultiplied, c: SplitCoefficients): FieldWriter {
+  const { np, pi, pj, expIdx, pw, cy, sy, cz, sz, load } = t;
+  const { kcc, kcs, ksc, kss, acc, acs, asc, ass, bcc, bcs, bsc, bss } = pm;
+  const { ux, uy, uz } = c;
+  if (!c.odd) {
     return (out, x, y, z) => {
       load(x, y, z);
       let bx = ux, by = uy, bz = uz;
@@ -136,12 +182,24 @@ export function makeKernel(pairs: number[], N: number, kappa: number, x0: number
         const E = pw[expIdx[q]];
         const yi = pi[q], zj = pj[q];
         const u = cy[yi] * cz[zj], v = cy[yi] * sz[zj], w = sy[yi] * cz[zj], t = sy[yi] * sz[zj];
-        bx += E * (kcc[q] * u + kcs[q] * v + ksc[q] * w + kss[q] * t);
-        by += E * (asc[q] * u + ass[q] * v - acc[q] * w - acs[q] * t);
-        bz += E * (bcs[q] * u - bcc[q] * v + bss[q] * w - bsc[q] * t);
+        bx += E * (kcc[q] * u + kcs[q] * v);
+        by -= E * (acc[q] * w + acs[q] * t);
+        bz += E * (bcs[q] * u - bcc[q] * v);
       }
       out[0] += bx; out[1] += by; out[2] += bz;
     };
+  }
+  return (out, x, y, z) => {
+    load(x, y, z);
+    let bx = ux, by = uy, bz = uz;
+    for (let q = 0; q < np; q++) {
+      const E = pw[expIdx[q]];
+      const yi = pi[q], zj = pj[q];
+      const u = cy[yi] * cz[zj], v = cy[yi] * sz[zj], w = sy[yi] * cz[zj], t = sy[yi] * sz[zj];
+      bx += E * (kcc[q] * u + kcs[q] * v + ksc[q] * w + kss[q] * t);
+      by += E * (asc[q] * u + ass[q] * v - acc[q] * w - acs[q] * t);
+      bz += E * (bcs[q] * u - bcc[q] * v + bss[q] * w - bsc[q] * t);
+    }
+    out[0] += bx; out[1] += by; out[2] += bz;
   };
-  return { load, grad, build };
 }

@@ -27,7 +27,7 @@
 import { InputError, expectedGot } from '../../errors';
 import { type MagnetopauseShape, shueRadius } from '../magnetopause';
 import { leastSquaresQr } from '../../numeric/lsq';
-import { makeKernel } from './basis';
+import { makeKernel, type Kernel } from './basis';
 import { compressionPairs } from './pairs';
 import type { FieldWriter } from '../writer';
 
@@ -197,66 +197,98 @@ export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shield
   if (!(spacing >= 0.05 && spacing <= 1)) throw new InputError('spacing', expectedGot('0.05..1 (in units of the scale)', spacing));
 
   const smp = sampleSurface(surface, spacing);
-  const ns = smp.n;
-  const bs = new Float64Array(3 * ns);
+  const { bs, bMax } = sampleShieldedField(smp, shielded);
+  const yOdd = options.yOdd === 'auto' || options.yOdd === undefined ? yAsymmetric(smp, bs, bMax) : options.yOdd;
+  const kappa = KAPPA / surface.scaleRe;
+  const pairs = compressionPairs(order);
+  const cols = basisColumns(pairs, yOdd);
+  const kern = makeKernel(pairs, order, kappa, surface.radiusRe(0), CLAMP_SCALES * surface.scaleRe, options.unrolled ?? true);
+  const an = normalComponents(smp, kern, cols);
+  const fit = solveWeighted(smp, bs, bMax, an, kern, cols);
+  const res = surfaceResidual(smp, fit.bTotal);
+  const tm = surface.thetaMaxRad;
+  return {
+    evaluate: fit.field,
+    rmsResidualRel: res.rms,
+    maxResidualRel: res.max,
+    nTerms: cols.pair.length,
+    nSamples: smp.n,
+    conditionEstimate: fit.conditionEstimate,
+    yOdd,
+    fitRegion: { xMinRe: surface.radiusRe(tm) * Math.cos(tm), thetaMaxRad: tm },
+  };
+}
+
+/** The shielded field at every sample (interleaved GSM nT) and its largest magnitude. */
+function sampleShieldedField(smp: Samples, shielded: FieldWriter): { bs: Float64Array; bMax: number } {
+  const bs = new Float64Array(3 * smp.n);
   const tmp = new Float64Array(3);
   let bMax = 0;
-  for (let i = 0; i < ns; i++) {
+  for (let i = 0; i < smp.n; i++) {
     tmp[0] = 0; tmp[1] = 0; tmp[2] = 0;
     shielded(tmp, smp.p[3 * i], smp.p[3 * i + 1], smp.p[3 * i + 2]);
     bs[3 * i] = tmp[0]; bs[3 * i + 1] = tmp[1]; bs[3 * i + 2] = tmp[2];
     bMax = Math.max(bMax, Math.hypot(tmp[0], tmp[1], tmp[2]));
   }
-  let yOdd: boolean;
-  if (options.yOdd === 'auto' || options.yOdd === undefined) yOdd = yAsymmetric(smp, bs, bMax);
-  else yOdd = options.yOdd;
+  return { bs, bMax };
+}
 
-  // Term list: uniform parts, then per (i, j) the parities cc, cs, sc, ss (Y·Z).
-  const N = order;
-  const kappa = KAPPA / surface.scaleRe;
-  // Pairs with k/κ = m·1 or m·√2 only (i = 0, j = 0, i = j, or (3,4)-type triples), so every
-  // exponential is a power of exp(κ dx) or exp(√2 κ dx): two exp calls per evaluation.
-  const pairs = compressionPairs(N);
-  const np = pairs.length / 2;
-  const colPair: number[] = [];
-  const colKind: number[] = [];
-  // Uniform: kind −1 (x), −2 (y), −3 (z).
-  colPair.push(-1, -1); colKind.push(-1, -3);
-  if (yOdd) { colPair.push(-1); colKind.push(-2); }
-  for (let q = 0; q < np; q++) {
+/** The fit's columns: per column the pair index and the kind (−1, −2, −3 uniform x, y, z; 0..3 parities cc, cs, sc, ss of Y·Z). */
+interface Columns { pair: number[]; kind: number[] }
+
+/** Term list: uniform parts, then per (i, j) the parities that are not identically zero (y-odd ones only when asked). */
+function basisColumns(pairs: readonly number[], yOdd: boolean): Columns {
+  const pair: number[] = [];
+  const kind: number[] = [];
+  pair.push(-1, -1); kind.push(-1, -3);
+  if (yOdd) { pair.push(-1); kind.push(-2); }
+  for (let q = 0; q < pairs.length / 2; q++) {
     const i = pairs[2 * q], j = pairs[2 * q + 1];
-    colPair.push(q); colKind.push(0);
-    if (j > 0) { colPair.push(q); colKind.push(1); }
-    if (yOdd && i > 0) { colPair.push(q); colKind.push(2); }
-    if (yOdd && i > 0 && j > 0) { colPair.push(q); colKind.push(3); }
+    pair.push(q); kind.push(0);
+    if (j > 0) { pair.push(q); kind.push(1); }
+    if (yOdd && i > 0) { pair.push(q); kind.push(2); }
+    if (yOdd && i > 0 && j > 0) { pair.push(q); kind.push(3); }
   }
-  const nc = colPair.length;
+  return { pair, kind };
+}
 
-  const kern = makeKernel(pairs, N, kappa, surface.radiusRe(0), CLAMP_SCALES * surface.scaleRe, options.unrolled ?? true);
-  // Unweighted normal components of every basis field at every sample (column-major).
+/** Unweighted normal components of every basis field at every sample (column-major, ns × nc). */
+function normalComponents(smp: Samples, kern: Kernel, cols: Columns): Float64Array {
+  const ns = smp.n, nc = cols.pair.length;
   const an = new Float64Array(ns * nc);
+  const g = new Float64Array(3);
   for (let s = 0; s < ns; s++) {
     const x = smp.p[3 * s], y = smp.p[3 * s + 1], z = smp.p[3 * s + 2];
     const ux = smp.nrm[3 * s], uy = smp.nrm[3 * s + 1], uz = smp.nrm[3 * s + 2];
     kern.load(x, y, z);
     for (let c = 0; c < nc; c++) {
-      const kind = colKind[c];
+      const kind = cols.kind[c];
       let v: number;
       if (kind === -1) v = ux;
       else if (kind === -2) v = uy;
       else if (kind === -3) v = uz;
       else {
-        kern.grad(tmp, colPair[c], kind);
-        v = tmp[0] * ux + tmp[1] * uy + tmp[2] * uz;
+        kern.grad(g, cols.pair[c], kind);
+        v = g[0] * ux + g[1] * uy + g[2] * uz;
       }
       an[c * ns + s] = v;
     }
   }
+  return an;
+}
 
+/**
+ * Two weighted least-squares passes: weights √area / |B| with the shielded field
+ * first, then with the fitted total. Returns the field of the second pass, the
+ * total field at the samples and the matrix's condition estimate.
+ */
+function solveWeighted(smp: Samples, bs: Float64Array, bMax: number, an: Float64Array, kern: Kernel, cols: Columns): { field: FieldWriter; bTotal: Float64Array; conditionEstimate: number } {
+  const ns = smp.n, nc = cols.pair.length;
   const coef = new Float64Array(nc);
   const a = new Float64Array(ns * nc);
   const rhs = new Float64Array(ns);
   const wt = new Float64Array(ns);
+  const tmp = new Float64Array(3);
   const floor = bMax > 0 ? 1e-9 * bMax : 1;
   for (let s = 0; s < ns; s++) wt[s] = Math.sqrt(smp.area[s]) / Math.max(floor, Math.hypot(bs[3 * s], bs[3 * s + 1], bs[3 * s + 2]));
   let field: FieldWriter | null = null;
@@ -269,7 +301,7 @@ export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shield
     }
     for (let c = 0; c < nc; c++) for (let s = 0; s < ns; s++) a[c * ns + s] = an[c * ns + s] * wt[s];
     cond = leastSquaresQr(a, rhs, ns, nc, coef).conditionEstimate;
-    field = kern.build(colPair, colKind, coef);
+    field = kern.build(cols.pair, cols.kind, coef);
     for (let s = 0; s < ns; s++) {
       tmp[0] = bs[3 * s]; tmp[1] = bs[3 * s + 1]; tmp[2] = bs[3 * s + 2];
       field(tmp, smp.p[3 * s], smp.p[3 * s + 1], smp.p[3 * s + 2]);
@@ -277,8 +309,13 @@ export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shield
       wt[s] = Math.sqrt(smp.area[s]) / Math.max(floor, Math.hypot(tmp[0], tmp[1], tmp[2]));
     }
   }
+  return { field: field as FieldWriter, bTotal: bt, conditionEstimate: cond };
+}
+
+/** Area-weighted rms and maximum of |B·n| / |B| of the total field at the samples. */
+function surfaceResidual(smp: Samples, bt: Float64Array): { rms: number; max: number } {
   let sw = 0, sr = 0, rmax = 0;
-  for (let s = 0; s < ns; s++) {
+  for (let s = 0; s < smp.n; s++) {
     const b = Math.hypot(bt[3 * s], bt[3 * s + 1], bt[3 * s + 2]);
     const bn = bt[3 * s] * smp.nrm[3 * s] + bt[3 * s + 1] * smp.nrm[3 * s + 1] + bt[3 * s + 2] * smp.nrm[3 * s + 2];
     const r = b > 0 ? Math.abs(bn) / b : 0;
@@ -286,17 +323,7 @@ export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shield
     sr += smp.area[s] * r * r;
     if (r > rmax) rmax = r;
   }
-  const tm = surface.thetaMaxRad;
-  return {
-    evaluate: field as FieldWriter,
-    rmsResidualRel: Math.sqrt(sr / sw),
-    maxResidualRel: rmax,
-    nTerms: nc,
-    nSamples: ns,
-    conditionEstimate: cond,
-    yOdd,
-    fitRegion: { xMinRe: surface.radiusRe(tm) * Math.cos(tm), thetaMaxRad: tm },
-  };
+  return { rms: Math.sqrt(sr / sw), max: rmax };
 }
 
 /** True when B(x, −y, z) ≠ (Bx, −By, Bz)(x, y, z) on the samples (rings are mirror-symmetric in y). */

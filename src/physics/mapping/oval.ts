@@ -43,11 +43,10 @@ export type OvalRelation = 'poleward' | 'inside' | 'equatorward' | 'unknown';
  * Where a footpoint stands against the oval at its MLT: poleward of the
  * open–closed boundary, inside (between the edges), or equatorward.
  */
-export function ovalRelation(magLatDeg: number, b: SectorBoundaries): OvalRelation {
+export function ovalRelation(magLatDeg: number, sector: SectorBoundaries): OvalRelation {
   const a = Math.abs(magLatDeg);
-  if (b.openClosed && a >= Math.abs(b.openClosed.magLatDeg)) return 'poleward';
-  if (b.equatorward && a < Math.abs(b.equatorward.magLatDeg)) return 'equatorward';
-  if (b.openClosed && b.equatorward) return 'inside';
-  if (b.openClosed && !b.equatorward) return 'inside';
+  if (sector.openClosed && a >= Math.abs(sector.openClosed.magLatDeg)) return 'poleward';
+  if (sector.equatorward && a < Math.abs(sector.equatorward.magLatDeg)) return 'equatorward';
+  if (sector.openClosed) return 'inside'; // with or without an equatorward edge
   return 'unknown';
 }

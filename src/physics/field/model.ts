@@ -87,7 +87,7 @@ export interface ModelOptions {
 }
 
 /** A term that ADDS its field (GSM nT) at a GSM point (RE) into out; allocation-free. */
-export interface AddingTerm {
+interface AddingTerm {
   evaluate(out: Float64Array, x: number, y: number, z: number): void;
 }
 

@@ -12,7 +12,7 @@
  *   site-report.ts everything about one site
  */
 export type { Footpoint, EquatorCrossing, Hemisphere } from '../trace/footpoint';
-export { makeTracer, describeLine, traceGsm, type LineResult } from './lines';
+export { makeTracer, traceGsm, type LineResult } from './lines';
 export { siteGsm, splitFootpoints, traceSite, type NearFarFootpoints, type SiteLine } from './sites';
 export {
   sectorBoundaries, boundaryPoint, DEFAULT_SOURCE_RE, DEFAULT_BOUNDARY_OPTIONS,
@@ -21,6 +21,6 @@ export {
 export { predictHint, boundaryFinder } from './hints';
 export { mltGrid, ovalBoundaries, ovalRelation, type HemisphereBoundaries, type OvalRelation } from './oval';
 export { openFluxWb, type OpenFluxOptions } from './flux';
-export { sweepValues, sweepBoundaries, type SweepOptions, type SweepRows } from './sweep';
+export { sweepBoundaries, type SweepOptions, type SweepRows } from './sweep';
 export { skyPosition, horizonCentralAngleDeg, elevationAtCentralAngleDeg, type SkyPosition } from './sky';
 export { siteReport, type SiteInput, type SiteResult, type SiteReportOptions, type BoundaryProvider } from './site-report';

@@ -21,7 +21,7 @@ export function makeTracer(model: PreparedModel, options: Partial<TraceOptions> 
 }
 
 /** Describe the line last traced by `tracer`, whose type code is `type`. */
-export function describeLine(model: PreparedModel, tracer: Tracer, type: number, withPoints = false): LineResult {
+function describeLine(model: PreparedModel, tracer: Tracer, type: number, withPoints = false): LineResult {
   const f = model.frames;
   const p = tracer.points;
   const feet: Footpoint[] = [];

@@ -28,7 +28,7 @@ export interface SweepRows {
 }
 
 /** The parameter values of a sweep (log-spaced for pdyn, linear for bz). */
-export function sweepValues(o: Pick<SweepOptions, 'vary' | 'from' | 'to' | 'steps'>): number[] {
+function sweepValues(o: Pick<SweepOptions, 'vary' | 'from' | 'to' | 'steps'>): number[] {
   if (o.vary !== 'pdyn' && o.vary !== 'bz') throw new InputError('vary', expectedGot('pdyn or bz', o.vary, true));
   const steps = requireInRange('steps', o.steps, 1, 1000);
   if (!Number.isInteger(steps)) throw new InputError('steps', expectedGot('a whole number 1..1000', steps));

@@ -49,7 +49,7 @@ export interface TraceOptions {
 }
 
 /** Default stepFactor 0.1: measured footpoint error 2.6e-4° (< 0.001°) for L 2–12 in a dipole, ~200 evaluations a line (test/physics/trace/tracer.test.ts). */
-export const DEFAULT_TRACE_OPTIONS: Readonly<TraceOptions> = Object.freeze({
+const DEFAULT_TRACE_OPTIONS: Readonly<TraceOptions> = Object.freeze({
   altKm: 110,
   ellipsoid: true,
   stepFactor: 0.1,
@@ -61,7 +61,7 @@ export const DEFAULT_TRACE_OPTIONS: Readonly<TraceOptions> = Object.freeze({
 });
 
 /** Result of one half-trace (one direction from the seed). */
-export interface HalfTrace {
+interface HalfTrace {
   end: number;
   nPoints: number;
   lengthRe: number;
@@ -95,7 +95,7 @@ export class Tracer {
   private readonly halfB: Float64Array;
   private readonly b = new Float64Array(3);
   private opts: TraceOptions;
-  private field: TraceField;
+  private readonly field: TraceField;
   private rStopSphere = 1;
 
   constructor(field: TraceField, options: Partial<TraceOptions> = {}) {
@@ -107,11 +107,6 @@ export class Tracer {
     this.half = new Float64Array(this.capacity * 3);
     this.halfB = new Float64Array(this.capacity);
     this.setOptions(options);
-  }
-
-  /** Swap the field (same buffers). */
-  setField(field: TraceField): void {
-    this.field = field;
   }
 
   /** Change options (budgets cannot exceed the capacity fixed at construction). */
@@ -127,7 +122,7 @@ export class Tracer {
   }
 
   /** Stop radius (RE) at a GSM point. */
-  stopRadius(x: number, y: number, z: number): number {
+  private stopRadius(x: number, y: number, z: number): number {
     if (!this.opts.ellipsoid) return this.rStopSphere;
     const g = this.field.geoZRow;
     const r = Math.sqrt(x * x + y * y + z * z);
@@ -187,7 +182,7 @@ export class Tracer {
    * One direction (sign +1 along B, −1 against) into this.half. Returns the
    * end state. Allocation-free apart from the returned record.
    */
-  traceHalf(x0: number, y0: number, z0: number, sign: number): HalfTrace {
+  private traceHalf(x0: number, y0: number, z0: number, sign: number): HalfTrace {
     const o = this.opts;
     const f = this.field;
     const b = this.b;
@@ -269,7 +264,7 @@ export class Tracer {
   }
 
   /** Index (in the half) of the upward surface crossing of the last half-trace, or −1. */
-  upIndex = -1;
+  private upIndex = -1;
   // End of the last rk4Step (scratch, not re-entrant); after landOnSurface, the landing
   // point, |B| there (stepEndB) and the partial step length (stepEndH).
   private stepEndX = 0;

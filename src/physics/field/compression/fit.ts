@@ -77,7 +77,7 @@ const KAPPA = 0.35;
 const CLAMP_SCALES = 4;
 
 /** The Shue et al. (1998) surface as a fit boundary, from the nose to x = −depth·r0. */
-export function shueSurface(mp: MagnetopauseShape, fitDepthR0 = 2): AxisymmetricSurface {
+function shueSurface(mp: MagnetopauseShape, fitDepthR0 = 2): AxisymmetricSurface {
   const xMin = -fitDepthR0 * mp.r0Re;
   const xAt = (t: number): number => shueRadius(mp, t) * Math.cos(t);
   const cap = 0.95 * Math.PI;

@@ -169,26 +169,15 @@ function interleave(pm: Premultiplied, np: number): Float64Array {
   return K;
 }
 
-/** The general evaluator: loads the tables at the point and sums over the pairs (y-even terms only when no y-odd coefficient). */
+/**
+ * The general evaluator: loads the tables at the point and sums over the pairs, all
+ * four parities (the y-odd coefficients are zero when the fit has none). Used for
+ * non-default orders and as the cross-check of the generated evaluator.
+ */
 function tableEvaluator(t: Tables, pm: Premultiplied, c: SplitCoefficients): FieldWriter {
   const { np, pi, pj, expIdx, pw, cy, sy, cz, sz, load } = t;
   const { kcc, kcs, ksc, kss, acc, acs, asc, ass, bcc, bcs, bsc, bss } = pm;
   const { ux, uy, uz } = c;
-  if (!c.odd) {
-    return (out, x, y, z) => {
-      load(x, y, z);
-      let bx = ux, by = uy, bz = uz;
-      for (let q = 0; q < np; q++) {
-        const E = pw[expIdx[q]];
-        const yi = pi[q], zj = pj[q];
-        const u = cy[yi] * cz[zj], v = cy[yi] * sz[zj], w = sy[yi] * cz[zj], t = sy[yi] * sz[zj];
-        bx += E * (kcc[q] * u + kcs[q] * v);
-        by -= E * (acc[q] * w + acs[q] * t);
-        bz += E * (bcs[q] * u - bcc[q] * v);
-      }
-      out[0] += bx; out[1] += by; out[2] += bz;
-    };
-  }
   return (out, x, y, z) => {
     load(x, y, z);
     let bx = ux, by = uy, bz = uz;

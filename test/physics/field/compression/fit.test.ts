@@ -5,7 +5,8 @@ import { addTiltedDipoleField } from '../../../../src/physics/field/dipole';
 import { MU0, RAD_PER_DEG } from '../../../../src/physics/constants';
 import { InputError } from '../../../../src/physics/errors';
 import { magnetopauseNormal, magnetopausePoint, shueMagnetopause, shueRadius, type MagnetopauseShape } from '../../../../src/physics/field/magnetopause';
-import { prepareCompression, prepareCompressionOnSurface, sphereSurface, type CompressionField, type FieldWriter } from '../../../../src/physics/field/compression/fit';
+import { prepareCompression, prepareCompressionOnSurface, type CompressionField, type FieldWriter } from '../../../../src/physics/field/compression/fit';
+import { sphereSurface } from '../../../../src/physics/field/compression/surface';
 
 /** The 2025 dipole (references §1, §4). */
 const B0 = 29733;

@@ -13,11 +13,12 @@
  */
 import { createRequire } from 'node:module';
 import { prepareModel, type PreparedModel } from '../src/physics/field/model';
-import { Tracer, LINE_CLOSED } from '../src/physics/trace/tracer';
+import { Tracer } from '../src/physics/trace/tracer';
+import { LINE_CLOSED } from '../src/physics/trace/line-type';
 import { applyMat3, applyMat3T } from '../src/physics/frames/rotations';
 import { gsmAtMagneticLatMlt } from '../src/physics/trace/footpoint';
-import { makeTracer, traceGsm, ovalBoundaries, mltGrid } from '../src/physics/mapping/mapping';
-import { RE_KM, RAD } from '../src/physics/constants';
+import { makeTracer, traceGsm, ovalBoundaries, mltGrid } from '../src/physics/mapping';
+import { RE_KM, DEG_PER_RAD } from '../src/physics/constants';
 import { BENCH_CONDITIONS, BENCH_CONDITIONS_TAIL } from './evaluation';
 import { type BenchSection, type Figure, type RunOptions, consume, cpuMs, measure, median, now } from './lib';
 
@@ -88,7 +89,7 @@ function dipoleFootError(model: PreparedModel, t: Tracer, seeds: Float64Array): 
       const p = t.points;
       applyMat3(v, model.frames.smFromGsm, p[3 * idx], p[3 * idx + 1], p[3 * idx + 2]);
       const lat = Math.asin(v[2] / Math.hypot(v[0], v[1], v[2]));
-      err = Math.max(err, Math.abs(Math.abs(lat) - lam) * RAD);
+      err = Math.max(err, Math.abs(Math.abs(lat) - lam) * DEG_PER_RAD);
     }
     const key = L.toFixed(2);
     perL[key] = Math.max(perL[key] ?? 0, err);
@@ -133,7 +134,7 @@ function odexRun(model: PreparedModel, seeds: Float64Array, tol: number): OdexRu
       applyMat3(v, model.frames.smFromGsm, x, y, z);
       const r = Math.hypot(v[0], v[1], v[2]);
       const lat = Math.asin(v[2] / r);
-      maxErrDeg = Math.max(maxErrDeg, Math.abs(Math.abs(lat) - lam) * RAD);
+      maxErrDeg = Math.max(maxErrDeg, Math.abs(Math.abs(lat) - lam) * DEG_PER_RAD);
       maxRadialErrRe = Math.max(maxRadialErrRe, Math.abs(r - rStop));
     }
   }

@@ -12,8 +12,7 @@
 import { readFileSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { prepareModel } from '../src/physics/field/model';
-import { makeTracer, sectorBoundaries, ovalBoundaries, mltGrid, DEFAULT_SOURCE_RE } from '../src/physics/mapping/mapping';
-import { openFluxWb } from '../src/physics/mapping/flux';
+import { makeTracer, sectorBoundaries, ovalBoundaries, mltGrid, DEFAULT_SOURCE_RE, openFluxWb } from '../src/physics/mapping';
 import { DEFAULT_IMF_EFFICIENCY } from '../src/physics/field/imf';
 
 const TIME = '2025-03-20T12:00:00Z';

@@ -7,9 +7,7 @@
  */
 import type { FieldConditions } from '../src/physics/field/conditions';
 import { prepareModel, type PreparedModel } from '../src/physics/field/model';
-import { makeTracer, sectorBoundaries, mltGrid, predictHint, DEFAULT_SOURCE_RE, type SectorBoundaries } from '../src/physics/mapping/mapping';
-import { siteReport } from '../src/physics/mapping/site-report';
-import { sweepBoundaries } from '../src/physics/mapping/sweep';
+import { makeTracer, sectorBoundaries, mltGrid, predictHint, DEFAULT_SOURCE_RE, type SectorBoundaries, siteReport, sweepBoundaries } from '../src/physics/mapping';
 import { gsmAtMagneticLatMlt } from '../src/physics/trace/footpoint';
 import type { Tracer } from '../src/physics/trace/tracer';
 import type {

@@ -76,9 +76,9 @@ export interface OvalResult {
   curves: BoundaryCurve[];
 }
 
-export type { SiteInput, SiteResult } from '../src/physics/mapping/site-report';
+export type { SiteInput, SiteResult } from '../src/physics/mapping';
 export type { Footpoint } from '../src/physics/trace/footpoint';
-import type { SiteInput, SiteResult } from '../src/physics/mapping/site-report';
+import type { SiteInput, SiteResult } from '../src/physics/mapping';
 
 export interface SitesResult {
   requestId: number;

@@ -5,7 +5,7 @@
  */
 import type { FieldConditions } from '../physics/field/conditions';
 import { DEFAULT_IMF_EFFICIENCY } from '../physics/field/imf';
-import { DEFAULT_SOURCE_RE } from '../physics/mapping/mapping';
+import { DEFAULT_SOURCE_RE } from '../physics/mapping';
 import type { SiteInput } from '../../workers/protocol';
 import type { ProductSettings } from './store';
 

@@ -10,7 +10,9 @@ export const WGS84_F = 1 / 298.257223563;
 export const MU0 = 4 * Math.PI * 1e-7;
 /** Proton mass, kg (CODATA 2018). */
 export const PROTON_MASS_KG = 1.67262192e-27;
-export const DEG = Math.PI / 180;
-export const RAD = 180 / Math.PI;
+/** Radians per degree (multiply degrees by it). */
+export const RAD_PER_DEG = Math.PI / 180;
+/** Degrees per radian (multiply radians by it). */
+export const DEG_PER_RAD = 180 / Math.PI;
 /** Milliseconds per day. */
 export const MS_PER_DAY = 86_400_000;

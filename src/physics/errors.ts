@@ -12,10 +12,19 @@ export class InputError extends RangeError {
   }
 }
 
+/**
+ * The one wording of a refused value: "expected <what is allowed>, got <the value>"
+ * (`quoted` puts the value in double quotes, for words and raw text). Used by
+ * InputError here and by the command line's own errors.
+ */
+export function expectedGot(allowed: string, got: unknown, quoted = false): string {
+  return quoted ? `expected ${allowed}, got "${String(got)}"` : `expected ${allowed}, got ${String(got)}`;
+}
+
 /** Require a finite number; returns it. */
 export function requireFinite(field: string, v: unknown): number {
   if (typeof v !== 'number' || !Number.isFinite(v)) {
-    throw new InputError(field, `expected a finite number, got ${String(v)}`);
+    throw new InputError(field, expectedGot('a finite number', v));
   }
   return v;
 }

@@ -8,8 +8,7 @@
  */
 import { describe, it, expect } from 'vitest';
 import { prepareModel } from '../../src/physics/field/model';
-import { makeTracer, sectorBoundaries } from '../../src/physics/mapping/mapping';
-import { siteReport, type SiteInput } from '../../src/physics/mapping/site-report';
+import { makeTracer, sectorBoundaries, siteReport, type SiteInput } from '../../src/physics/mapping';
 import { siteRow, exactBoundaries, gridBoundaries } from '../../src/cli/batch/site-rows';
 import { expectAtMost } from '../helpers';
 

@@ -12,7 +12,7 @@ import { runBatch } from '../../src/cli/batch/index';
 import { run } from '../../src/cli/run';
 import { readCsv, csvText } from '../../src/io/csv';
 import { prepareModel } from '../../src/physics/field/model';
-import { makeTracer, sectorBoundaries, DEFAULT_SOURCE_RE } from '../../src/physics/mapping/mapping';
+import { makeTracer, sectorBoundaries, DEFAULT_SOURCE_RE } from '../../src/physics/mapping';
 import type { FieldConditions } from '../../src/physics/field/conditions';
 import { geoJsonProblems } from '../../src/io/geojson';
 import { expectClose } from '../helpers';

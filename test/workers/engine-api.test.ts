@@ -5,7 +5,7 @@ import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { createEngineApi } from '../../workers/engine-api';
 import type { EngineApi } from '../../workers/protocol';
 import { prepareModel } from '../../src/physics/field/model';
-import { makeTracer, traceSite } from '../../src/physics/mapping/mapping';
+import { makeTracer, traceSite } from '../../src/physics/mapping';
 import { expectClose } from '../helpers';
 
 const C = { time: '2025-03-20T22:00:00Z', pdynNpa: 3, bzNt: -5, byNt: 2, internal: 'dipole' as const, magnetopause: true, imfEfficiency: 0.2, tail: false };

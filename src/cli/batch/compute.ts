@@ -5,11 +5,10 @@
  * threads share the formatting work. Runs the same in a worker or in-process.
  */
 import { prepareModel, type PreparedModel } from '../../physics/field/model';
-import { makeTracer, siteGsm } from '../../physics/mapping/mapping';
-import type { SiteInput, SiteResult } from '../../physics/mapping/site-report';
+import { makeTracer, siteGsm, type SiteInput, type SiteResult } from '../../physics/mapping';
 import { siteRow, exactBoundaries, gridBoundaries } from './site-rows';
 import { applyMat3 } from '../../physics/frames/rotations';
-import { RAD } from '../../physics/constants';
+import { DEG_PER_RAD } from '../../physics/constants';
 import { parseUtc } from '../../physics/frames/time';
 import type { Footpoint } from '../../physics/trace/footpoint';
 import type { FieldConditions } from '../../physics/field/conditions';
@@ -100,7 +99,7 @@ function fillCondition(r: Row, line: number | null, c: SeriesCondition | null, m
   }
   if (m) {
     r[C.time] = new Date(m.ms).toISOString();
-    r[C.tilt_deg] = m.frames.tiltRad * RAD;
+    r[C.tilt_deg] = m.frames.tiltRad * DEG_PER_RAD;
   }
 }
 

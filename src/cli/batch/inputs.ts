@@ -10,7 +10,7 @@ import { parseUtc, decimalYear } from '../../physics/frames/time';
 import { igrfCoefficients } from '../../physics/field/mainfield/coefficients';
 import { pdynFromPlasmaNominal } from '../../physics/field/magnetopause';
 import { InputError } from '../../physics/errors';
-import type { SiteInput } from '../../physics/mapping/site-report';
+import type { SiteInput } from '../../physics/mapping';
 
 export const SITE_COLUMNS = { required: ['name', 'lat_deg', 'lon_deg'], optional: ['height_km'] } as const;
 export const CONDITION_COLUMNS = { required: ['time', 'bz_nt'], pressure: ['pdyn_npa', 'density_cm3', 'speed_kms'], optional: ['by_nt'] } as const;

@@ -7,7 +7,7 @@
 import { Worker } from 'node:worker_threads';
 import { computeJob, type BatchSettings, type ConditionJob, type JobResult } from './compute';
 import type { RowOutcome } from './inputs';
-import type { SiteInput } from '../../physics/mapping/site-report';
+import type { SiteInput } from '../../physics/mapping';
 
 export interface JobRunner {
   submit(job: ConditionJob): Promise<JobResult>;

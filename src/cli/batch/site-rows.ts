@@ -2,16 +2,15 @@
  * The per-site report of the batch command, with the boundary search as a
  * parameter: siteReport (src/physics/mapping/site-report.ts) without the site's line
  * points, which a table does not need. With `exactBoundaries` its searches start from the
- * nearest site already answered for the condition (mapping.ts boundaryFinder),
+ * nearest site already answered for the condition (mapping/hints.ts boundaryFinder),
  * which changes the cost, not the answer beyond the 0.01° search tolerance. With `gridBoundaries` the
  * boundaries come from an MLT grid computed once per condition and
  * interpolated: an opt-in approximation (--boundary-mlt-step) for speed.
  */
 import type { PreparedModel } from '../../physics/field/model';
 import type { Tracer } from '../../physics/trace/tracer';
-import { sectorBoundaries, boundaryFinder, mltGrid, type SectorBoundaries, type BoundaryPoint, type Hemisphere } from '../../physics/mapping/mapping';
+import { sectorBoundaries, boundaryFinder, mltGrid, type SectorBoundaries, type BoundaryPoint, type Hemisphere, siteReport, type BoundaryProvider, type SiteInput, type SiteResult, type SiteReportOptions } from '../../physics/mapping';
 import { describePoint, gsmAtMagneticLatMlt } from '../../physics/trace/footpoint';
-import { siteReport, type BoundaryProvider, type SiteInput, type SiteResult, type SiteReportOptions } from '../../physics/mapping/site-report';
 
 export type { BoundaryProvider };
 

@@ -6,7 +6,7 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import { computeJob, type BatchSettings, type ConditionJob } from './compute';
 import type { RowOutcome } from './inputs';
-import type { SiteInput } from '../../physics/mapping/site-report';
+import type { SiteInput } from '../../physics/mapping';
 
 interface Init { sites: RowOutcome<SiteInput>[]; settings: BatchSettings }
 

@@ -1,5 +1,5 @@
 /** `oval`: the open–closed boundary and the equatorward precipitation edge per MLT and hemisphere. */
-import { makeTracer, ovalBoundaries, mltGrid, DEFAULT_SOURCE_RE, type Hemisphere, type BoundaryPoint } from '../../physics/mapping/mapping';
+import { makeTracer, ovalBoundaries, mltGrid, DEFAULT_SOURCE_RE, type Hemisphere, type BoundaryPoint } from '../../physics/mapping';
 import { writeCsv, type CsvCell } from '../../io/csv';
 import { lineFeature, type Feature, type Position } from '../../io/geojson';
 import { CSV_DECIMALS, type CommandDef } from '../command';

@@ -1,6 +1,5 @@
 /** `sweep`: boundary latitudes against Pdyn or Bz, other conditions held. */
-import { sweepBoundaries, type SweepRows } from '../../physics/mapping/sweep';
-import { DEFAULT_SOURCE_RE, type SectorBoundaries } from '../../physics/mapping/mapping';
+import { sweepBoundaries, type SweepRows, DEFAULT_SOURCE_RE, type SectorBoundaries } from '../../physics/mapping';
 import { writeCsv, type CsvCell } from '../../io/csv';
 import { CSV_DECIMALS, type CommandDef } from '../command';
 import { hemispheresOf } from './oval';

@@ -1,5 +1,5 @@
 /** `trace`: the field line through a site, its footpoints and its conjugate. */
-import { makeTracer, traceSite, type Footpoint } from '../../physics/mapping/mapping';
+import { makeTracer, traceSite, type Footpoint } from '../../physics/mapping';
 import { describePoint } from '../../physics/trace/footpoint';
 import { writeCsv, type CsvCell } from '../../io/csv';
 import { lineFeature, pointFeature, type Feature } from '../../io/geojson';

@@ -2,7 +2,20 @@
  * The one plain, serialisable conditions object. The same object drives the
  * worker, the URL, the CLI flags and the metadata block of every export.
  */
+import { InputError, expectedGot } from '../errors';
+
 export type InternalFieldKind = 'dipole' | 'igrf';
+
+/** Largest |IMF component| accepted, nT (an order of magnitude above any observed value). */
+export const IMF_LIMIT_NT = 1000;
+
+/** Require an IMF component (nT) that is finite and within ±IMF_LIMIT_NT; returns it. */
+export function requireImfComponent(field: 'bzNt' | 'byNt', v: number): number {
+  if (typeof v !== 'number' || !Number.isFinite(v) || Math.abs(v) > IMF_LIMIT_NT) {
+    throw new InputError(field, expectedGot(`a finite IMF component in −${IMF_LIMIT_NT}..${IMF_LIMIT_NT} nT`, v));
+  }
+  return v;
+}
 
 export interface FieldConditions {
   /** ISO 8601 UTC instant. */

@@ -5,7 +5,8 @@
  * and the dipole-tilt dependence are ignored (the 1998 fit has neither).
  * Also: solar-wind dynamic pressure from density and speed.
  */
-import { InputError } from '../errors';
+import { InputError, expectedGot } from '../errors';
+import { requireImfComponent } from './conditions';
 import { PROTON_MASS_KG } from '../constants';
 
 export interface MagnetopauseShape {
@@ -19,15 +20,6 @@ export interface MagnetopauseShape {
   warnings: string[];
 }
 
-/** Largest |IMF component| accepted, nT (an order of magnitude above any observed value). */
-const IMF_LIMIT_NT = 1000;
-
-function requireImf(field: 'bzNt' | 'byNt', v: number): void {
-  if (typeof v !== 'number' || !Number.isFinite(v) || Math.abs(v) > IMF_LIMIT_NT) {
-    throw new InputError(field, `expected a finite IMF component in −${IMF_LIMIT_NT}..${IMF_LIMIT_NT} nT, got ${String(v)}`);
-  }
-}
-
 /**
  * Shue et al. (1998) standoff and flaring from dynamic pressure (nPa) and IMF Bz (nT).
  * By is validated but does not enter the 1998 fit. Values outside the data range of
@@ -36,12 +28,12 @@ function requireImf(field: 'bzNt' | 'byNt', v: number): void {
  */
 export function shueMagnetopause(pdynNpa: number, bzNt: number, byNt = 0): MagnetopauseShape {
   if (typeof pdynNpa !== 'number' || !Number.isFinite(pdynNpa) || pdynNpa <= 0) {
-    throw new InputError('pdynNpa', `expected a finite dynamic pressure > 0 nPa, got ${String(pdynNpa)}`);
+    throw new InputError('pdynNpa', expectedGot('a finite dynamic pressure > 0 nPa', pdynNpa));
   }
-  requireImf('bzNt', bzNt);
-  requireImf('byNt', byNt);
-  // Shue et al. (1998) JGR 103, 17691, eq. 10 (standoff) and eq. 11 (flaring).
-  const r0Re = (10.22 + 1.29 * Math.tanh(0.184 * (bzNt + 8.14))) * Math.pow(pdynNpa, -1 / 6.6);
+  requireImfComponent('bzNt', bzNt);
+  requireImfComponent('byNt', byNt);
+  const r0Re = shueStandoffRe(pdynNpa, bzNt);
+  // Shue et al. (1998) JGR 103, 17691, eq. 11 (flaring).
   const alpha = (0.58 - 0.007 * bzNt) * (1 + 0.024 * Math.log(pdynNpa));
   const warnings: string[] = [];
   // Data range of the fit: Shue et al. (1997) JGR 102, 9497.
@@ -55,6 +47,15 @@ export function shueMagnetopause(pdynNpa: number, bzNt: number, byNt = 0): Magne
     warnings.push(`magnetopause: standoff ${r0Re.toFixed(2)} RE is within 2 RE of Earth's centre; the model is not meaningful there`);
   }
   return { r0Re, alpha, pdynNpa, bzNt, warnings };
+}
+
+/**
+ * Subsolar standoff distance r0, RE, of Shue et al. (1998) JGR 103, 17691, eq. 10,
+ * from dynamic pressure (nPa) and IMF Bz (nT). Kernel: no validation (the
+ * callers validate); also the length scale of the tail sheet.
+ */
+export function shueStandoffRe(pdynNpa: number, bzNt: number): number {
+  return (10.22 + 1.29 * Math.tanh(0.184 * (bzNt + 8.14))) * Math.pow(pdynNpa, -1 / 6.6);
 }
 
 /** Surface distance r(θ), RE, θ from +x_GSM (Infinity on the −x axis when α > 0). */
@@ -118,10 +119,10 @@ export const PDYN_NOMINAL_COEFF = 2.0e-6;
 
 function requirePlasma(densityCm3: number, speedKms: number): void {
   if (typeof densityCm3 !== 'number' || !Number.isFinite(densityCm3) || densityCm3 <= 0) {
-    throw new InputError('densityCm3', `expected a finite proton density > 0 cm⁻³, got ${String(densityCm3)}`);
+    throw new InputError('densityCm3', expectedGot('a finite proton density > 0 cm⁻³', densityCm3));
   }
   if (typeof speedKms !== 'number' || !Number.isFinite(speedKms) || speedKms <= 0) {
-    throw new InputError('speedKms', `expected a finite solar-wind speed > 0 km/s, got ${String(speedKms)}`);
+    throw new InputError('speedKms', expectedGot('a finite solar-wind speed > 0 km/s', speedKms));
   }
 }
 
@@ -136,7 +137,7 @@ export function pdynFromPlasma(densityCm3: number, speedKms: number, alphaRatio?
   let f = 1;
   if (alphaRatio !== undefined) {
     if (typeof alphaRatio !== 'number' || !Number.isFinite(alphaRatio) || alphaRatio < 0 || alphaRatio > 1) {
-      throw new InputError('alphaRatio', `expected an alpha-to-proton number ratio in 0..1, got ${String(alphaRatio)}`);
+      throw new InputError('alphaRatio', expectedGot('an alpha-to-proton number ratio in 0..1', alphaRatio));
     }
     f = 1 + 4 * alphaRatio;
   }

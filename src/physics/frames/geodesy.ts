@@ -5,7 +5,7 @@
  * Forward: standard closed form (NIMA TR8350.2 §4). Inverse: Bowring (1976)
  * iteration, three rounds (converges to < 1e-12 rad for heights −100..100 000 km).
  */
-import { RE_KM, WGS84_A_KM, WGS84_F, DEG, RAD } from '../constants';
+import { RE_KM, WGS84_A_KM, WGS84_F, RAD_PER_DEG, DEG_PER_RAD } from '../constants';
 
 const E2 = WGS84_F * (2 - WGS84_F);
 const B_KM = WGS84_A_KM * (1 - WGS84_F);
@@ -13,8 +13,8 @@ const EP2 = E2 / (1 - E2);
 
 /** GEO Cartesian (RE) of a geodetic point (deg, deg, km above the ellipsoid). Writes out[0..2]. */
 export function geoFromGeodetic(out: Float64Array, latDeg: number, lonDeg: number, altKm: number): Float64Array {
-  const phi = latDeg * DEG;
-  const lam = lonDeg * DEG;
+  const phi = latDeg * RAD_PER_DEG;
+  const lam = lonDeg * RAD_PER_DEG;
   const s = Math.sin(phi);
   const c = Math.cos(phi);
   const n = WGS84_A_KM / Math.sqrt(1 - E2 * s * s);
@@ -36,7 +36,7 @@ export function geodeticFromGeo(x: number, y: number, z: number): Geodetic {
   const Y = y * RE_KM;
   const Z = z * RE_KM;
   const p = Math.hypot(X, Y);
-  const lonDeg = Math.atan2(Y, X) * RAD;
+  const lonDeg = Math.atan2(Y, X) * DEG_PER_RAD;
   if (p < 1e-9) {
     const latDeg = Z >= 0 ? 90 : -90;
     return { latDeg, lonDeg: 0, altKm: Math.abs(Z) - B_KM };
@@ -54,7 +54,7 @@ export function geodeticFromGeo(x: number, y: number, z: number): Geodetic {
   const n = WGS84_A_KM / Math.sqrt(1 - E2 * s * s);
   const c = Math.cos(phi);
   const altKm = Math.abs(c) > 1e-3 ? p / c - n : Math.abs(Z) / Math.abs(s) - n * (1 - E2);
-  return { latDeg: phi * RAD, lonDeg, altKm };
+  return { latDeg: phi * DEG_PER_RAD, lonDeg, altKm };
 }
 
 /** Geocentric radius (RE) of the surface `altKm` above the ellipsoid at geocentric latitude whose sine is sinLatGc (approximate to < 10 m for |altKm| < 1000: the ellipsoid radius plus the height). */

@@ -6,7 +6,7 @@
  * Names are source-last: gsmFromGeo maps a GEO vector into GSM.
  */
 import { InputError, requireFinite, requireInRange } from '../errors';
-import { DEG } from '../constants';
+import { RAD_PER_DEG } from '../constants';
 import { gmstRad, obliquityRad, sunDirectionGei } from './time';
 
 /** 3×3 matrix, row-major, 9 entries. */
@@ -147,8 +147,8 @@ export function prepareFrames(ms: number, axisGeo: ArrayLike<number>, tiltOverri
         normalize(u);
       }
     }
-    const ps = Math.sin(override * DEG);
-    const pc = Math.cos(override * DEG);
+    const ps = Math.sin(override * RAD_PER_DEG);
+    const pc = Math.cos(override * RAD_PER_DEG);
     for (let i = 0; i < 3; i++) s[i] = pc * u[i] + ps * mg[i];
     normalize(s);
   }
@@ -172,7 +172,7 @@ export function prepareFrames(ms: number, axisGeo: ArrayLike<number>, tiltOverri
   const gsmFromGse = mulABt(gsmFromGei, gseFromGei);
 
   const sinTilt = Math.max(-1, Math.min(1, mg[0] * s[0] + mg[1] * s[1] + mg[2] * s[2]));
-  const tiltRad = override !== null ? override * DEG : Math.asin(sinTilt);
+  const tiltRad = override !== null ? override * RAD_PER_DEG : Math.asin(sinTilt);
   const cosTilt = Math.cos(tiltRad);
   const sinT = Math.sin(tiltRad);
   // SM from GSM: rotation by ψ about y (Hapgood 1992, T4 = <−ψ, Y>).

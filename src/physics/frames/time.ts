@@ -6,7 +6,7 @@
  * good to about 0.01° over 1950–2050.
  */
 import { InputError } from '../errors';
-import { DEG, MS_PER_DAY } from '../constants';
+import { RAD_PER_DEG, MS_PER_DAY } from '../constants';
 
 /** Julian date of the Unix epoch 1970-01-01T00:00Z (standard). */
 const JD_UNIX_EPOCH = 2440587.5;
@@ -105,13 +105,13 @@ function wrap2Pi(a: number): number {
 /** Greenwich mean sidereal time (rad, 0..2π): θ = 100.461 + 36000.770 T0 + 15.04107 H deg, Hapgood (1992) §2. */
 export function gmstRad(ms: number): number {
   const { t0, h } = hapgoodT0H(ms);
-  return wrap2Pi((100.461 + 36000.77 * t0 + 15.04107 * h) * DEG);
+  return wrap2Pi((100.461 + 36000.77 * t0 + 15.04107 * h) * RAD_PER_DEG);
 }
 
 /** Mean obliquity of the ecliptic (rad): ε = 23.439 − 0.013 T0 deg, Hapgood (1992) §2. */
 export function obliquityRad(ms: number): number {
   const { t0 } = hapgoodT0H(ms);
-  return (23.439 - 0.013 * t0) * DEG;
+  return (23.439 - 0.013 * t0) * RAD_PER_DEG;
 }
 
 /**
@@ -121,9 +121,9 @@ export function obliquityRad(ms: number): number {
  */
 export function sunEclipticLongitudeRad(ms: number): number {
   const { t0, h } = hapgoodT0H(ms);
-  const mRad = (357.528 + 35999.05 * t0 + 0.04107 * h) * DEG;
+  const mRad = (357.528 + 35999.05 * t0 + 0.04107 * h) * RAD_PER_DEG;
   const lam = 280.46 + 36000.772 * t0 + 0.04107 * h;
-  return wrap2Pi((lam + (1.915 - 0.0048 * t0) * Math.sin(mRad) + 0.02 * Math.sin(2 * mRad)) * DEG);
+  return wrap2Pi((lam + (1.915 - 0.0048 * t0) * Math.sin(mRad) + 0.02 * Math.sin(2 * mRad)) * RAD_PER_DEG);
 }
 
 /** Unit vector to the Sun in GEI (mean equator and equinox of date), Hapgood (1992) §2: S = (cos λ, sin λ cos ε, sin λ sin ε). */

@@ -18,7 +18,7 @@
  * The MLT of a CGM longitude is that of the apex point (its MAG longitude
  * against the Sun's).
  */
-import { RAD, RE_KM } from '../constants';
+import { DEG_PER_RAD, RE_KM } from '../constants';
 import { InputError, requireInRange } from '../errors';
 import { geoFromGeodetic } from '../frames/geodesy';
 import { magFromGeo, mltOfGeo, type FrameSet } from '../frames/rotations';
@@ -131,9 +131,9 @@ export function prepareCgm(mainField: MainFieldModel, frames: FrameSet): CgmConv
     const apexRe = Math.hypot(ex, ey, ez);
     if (!(apexRe > r)) return { defined: false, reason: UNDEFINED_NEAR_EQUATOR };
     magFromGeo(mag, [ex, ey, ez], frames);
-    const latAbs = Math.acos(Math.sqrt(r / apexRe)) * RAD;
+    const latAbs = Math.acos(Math.sqrt(r / apexRe)) * DEG_PER_RAD;
     const latDeg = side >= 0 ? latAbs : -latAbs;
-    const lonDeg = Math.atan2(mag[1], mag[0]) * RAD;
+    const lonDeg = Math.atan2(mag[1], mag[0]) * DEG_PER_RAD;
     return { defined: true, latDeg, lonDeg, mltH: mltOfGeo(frames, ex, ey, ez), apexRe };
   }
 
@@ -152,5 +152,5 @@ export function prepareCgm(mainField: MainFieldModel, frames: FrameSet): CgmConv
 
 /** CGM latitude of a point at radius rRe on a dipole line of apex apexRe (deg, ≥ 0): cos²Λ = r/R (references §1). */
 export function dipoleLatitudeAtRadiusDeg(apexRe: number, rRe: number): number {
-  return Math.acos(Math.sqrt(rRe / apexRe)) * RAD;
+  return Math.acos(Math.sqrt(rRe / apexRe)) * DEG_PER_RAD;
 }

@@ -14,11 +14,11 @@
  * the sphere of the same altitude; the difference (≤ 21 km in radius) changes the
  * flux by < 1 % (derived: Φ ∝ 1/r for the dipole at fixed colatitude, ≤ 0.3 %).
  */
-import { RE_KM } from '../constants';
-import { InputError, requireInRange } from '../errors';
+import { RE_KM, RAD_PER_DEG } from '../constants';
+import { InputError, expectedGot, requireInRange } from '../errors';
 import { gsmAtMagneticLatMlt } from '../trace/footpoint';
 import type { PreparedModel } from '../field/model';
-import type { HemisphereBoundaries } from './mapping';
+import type { HemisphereBoundaries } from './oval';
 
 /** Gauss–Legendre nodes and weights on [−1, 1], 12 points (Abramowitz & Stegun, 1964, table 25.4). */
 const GL_X = [-0.9815606342467192, -0.9041172563704749, -0.7699026741943047, -0.5873179542866175, -0.3678314989981802, -0.1252334085114689,
@@ -41,10 +41,10 @@ export interface OpenFluxOptions {
 export function openFluxWb(model: PreparedModel, boundaries: HemisphereBoundaries, options: OpenFluxOptions = {}): number {
   const altKm = requireInRange('altKm', options.altKm ?? 110, -1, 100_000, 'km');
   const sub = options.subdivisions ?? 8;
-  if (!Number.isInteger(sub) || sub < 1 || sub > 1000) throw new InputError('subdivisions', `expected an integer 1..1000, got ${sub}`);
+  if (!Number.isInteger(sub) || sub < 1 || sub > 1000) throw new InputError('subdivisions', expectedGot('an integer 1..1000', sub));
   const secs = [...boundaries.sectors].sort((a, b) => a.mltHours - b.mltHours);
   const n = secs.length;
-  if (n < 2) throw new InputError('boundaries', `expected at least 2 MLT sectors, got ${n}`);
+  if (n < 2) throw new InputError('boundaries', expectedGot('at least 2 MLT sectors', n));
   const step = 24 / n;
   for (let i = 0; i < n; i++) {
     if (Math.abs(secs[i].mltHours - (secs[0].mltHours + i * step)) > 1e-9) {
@@ -55,7 +55,7 @@ export function openFluxWb(model: PreparedModel, boundaries: HemisphereBoundarie
   for (let i = 0; i < n; i++) {
     const oc = secs[i].openClosed;
     if (oc === null) return NaN;
-    colat[i] = (90 - Math.abs(oc.magLatDeg)) * (Math.PI / 180);
+    colat[i] = (90 - Math.abs(oc.magLatDeg)) * RAD_PER_DEG;
   }
   const sgn = boundaries.hemisphere === 'north' ? 1 : -1;
   const r = 1 + altKm / RE_KM;

@@ -4,7 +4,11 @@
  */
 import type { PreparedModel } from '../field/model';
 import type { Tracer } from '../trace/tracer';
-import { traceSite, sectorBoundaries, ovalRelation, type SectorBoundaries, type Hemisphere } from './mapping';
+import { traceSite } from './sites';
+import { sectorBoundaries, type SectorBoundaries } from './boundaries';
+import { ovalRelation, type OvalRelation } from './oval';
+import type { LineType } from '../trace/line-type';
+import type { Hemisphere } from '../trace/footpoint';
 import { skyPosition } from './sky';
 import { applyMat3T } from '../frames/rotations';
 import type { Footpoint } from '../trace/footpoint';
@@ -20,8 +24,7 @@ export interface SiteResult {
   name: string;
   latDeg: number;
   lonDeg: number;
-  /** closed / open / unresolved */
-  type: 'closed' | 'open' | 'unresolved';
+  type: LineType;
   /** The far footpoint at the conjugate altitude (ground by default); null when the line is open. */
   conjugate: Footpoint | null;
   footpoints: Footpoint[];
@@ -30,7 +33,7 @@ export interface SiteResult {
   mltHours: number;
   magLatDeg: number;
   /** Relative to the oval at the site's MLT in its hemisphere. */
-  ovalRelation: 'poleward' | 'inside' | 'equatorward' | 'unknown';
+  ovalRelation: OvalRelation;
   /** Nearest oval point at the emission altitude as seen from the site. */
   sky: { elevationDeg: number; azimuthDeg: number; distanceKm: number; visible: boolean } | null;
   /** Boundaries at the site's MLT in its hemisphere (magnetic latitude, deg), null when not found. */
@@ -39,7 +42,6 @@ export interface SiteResult {
   lineGeo: Float64Array;
   error?: string;
 }
-
 
 export interface SiteReportOptions {
   /** Altitude of the conjugate footpoint (km; 0 = ground). tConj must be a tracer at this altitude. */
@@ -50,6 +52,9 @@ export interface SiteReportOptions {
   minElevationDeg: number;
 }
 
+/** Boundaries at one MLT in one hemisphere, for the model of the report. */
+export type BoundaryProvider = (hemisphere: Hemisphere, mltH: number) => SectorBoundaries;
+
 /**
  * Everything about one site (shared by the worker and the batch command):
  * its line through the conjugate altitude, footpoints and MLT at the emission
@@ -58,16 +63,13 @@ export interface SiteReportOptions {
  * `boundaryAt` replaces the search at the site's MLT (the batch passes a finder
  * that reuses neighbouring answers); `withLine` false leaves lineGeo empty.
  */
-/** Boundaries at one MLT in one hemisphere, for the model of the report. */
-export type BoundaryProvider = (hemisphere: Hemisphere, mltH: number) => SectorBoundaries;
-
-export function siteReport(m: PreparedModel, tConj: Tracer, tAlt: Tracer, site: SiteInput, o: SiteReportOptions, boundaryAt?: BoundaryProvider, withLine = true): SiteResult {
-  const { altKm, sourceRe, minElevationDeg } = o;
+export function siteReport(model: PreparedModel, tConj: Tracer, tAlt: Tracer, site: SiteInput, options: SiteReportOptions, boundaryAt?: BoundaryProvider, withLine = true): SiteResult {
+  const { altKm, sourceRe, minElevationDeg } = options;
   const base = { name: site.name, latDeg: site.latDeg, lonDeg: site.lonDeg };
   try {
-    const line = traceSite(m, tConj, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', withLine);
+    const line = traceSite(model, tConj, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', withLine);
     const pts = line.points ?? new Float64Array(0);
-    const g = m.frames.gsmFromGeo;
+    const g = model.frames.gsmFromGeo;
     const lineGeo = new Float64Array(pts.length);
     const v = new Float64Array(3);
     for (let k = 0; k < pts.length; k += 3) {
@@ -75,7 +77,7 @@ export function siteReport(m: PreparedModel, tConj: Tracer, tAlt: Tracer, site: 
       lineGeo[k] = v[0]; lineGeo[k + 1] = v[1]; lineGeo[k + 2] = v[2];
     }
     // Footpoints and MLT at the emission altitude.
-    const atAlt = traceSite(m, tAlt, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', false);
+    const atAlt = traceSite(model, tAlt, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', false);
     const near = atAlt.near ?? line.near;
     const magLat = near ? near.magLatDeg : NaN;
     const mlt = near ? near.mltHours : NaN;
@@ -84,7 +86,7 @@ export function siteReport(m: PreparedModel, tConj: Tracer, tAlt: Tracer, site: 
     let boundaries: SiteResult['boundaries'] = null;
     let sky: SiteResult['sky'] = null;
     if (Number.isFinite(mlt)) {
-      const b: SectorBoundaries = boundaryAt ? boundaryAt(hemisphere, mlt) : sectorBoundaries(m, tAlt, hemisphere, mlt, { sourceRe });
+      const b: SectorBoundaries = boundaryAt ? boundaryAt(hemisphere, mlt) : sectorBoundaries(model, tAlt, hemisphere, mlt, { sourceRe });
       boundaries = { openClosedMagLatDeg: b.openClosed ? b.openClosed.magLatDeg : null, equatorwardMagLatDeg: b.equatorward ? b.equatorward.magLatDeg : null };
       relation = atAlt.type === 'closed' || atAlt.type === 'open' ? ovalRelation(magLat, b) : 'unknown';
       // Nearest oval edge point at the emission altitude, seen from the site.

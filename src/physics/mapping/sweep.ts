@@ -3,9 +3,10 @@
  * conditions held. Pdyn steps are logarithmic, Bz steps linear.
  */
 import type { FieldConditions } from '../field/conditions';
-import { InputError, requireInRange } from '../errors';
+import { InputError, expectedGot, requireInRange } from '../errors';
 import { prepareModel } from '../field/model';
-import { makeTracer, sectorBoundaries, DEFAULT_SOURCE_RE, type SectorBoundaries } from './mapping';
+import { makeTracer } from './lines';
+import { sectorBoundaries, DEFAULT_SOURCE_RE, DEFAULT_BOUNDARY_OPTIONS, type SectorBoundaries } from './boundaries';
 
 export interface SweepOptions {
   vary: 'pdyn' | 'bz';
@@ -27,10 +28,10 @@ export interface SweepRows {
 }
 
 /** The parameter values of a sweep (log-spaced for pdyn, linear for bz). */
-export function sweepValues(o: Pick<SweepOptions, 'vary' | 'from' | 'to' | 'steps'>): number[] {
-  if (o.vary !== 'pdyn' && o.vary !== 'bz') throw new InputError('vary', `expected pdyn or bz, got "${String(o.vary)}"`);
+function sweepValues(o: Pick<SweepOptions, 'vary' | 'from' | 'to' | 'steps'>): number[] {
+  if (o.vary !== 'pdyn' && o.vary !== 'bz') throw new InputError('vary', expectedGot('pdyn or bz', o.vary, true));
   const steps = requireInRange('steps', o.steps, 1, 1000);
-  if (!Number.isInteger(steps)) throw new InputError('steps', `expected a whole number 1..1000, got ${steps}`);
+  if (!Number.isInteger(steps)) throw new InputError('steps', expectedGot('a whole number 1..1000', steps));
   const from = requireInRange('from', o.from, -1000, 1e4);
   const to = requireInRange('to', o.to, -1000, 1e4);
   if (o.vary === 'pdyn' && (from <= 0 || to <= 0)) throw new InputError(from <= 0 ? 'from' : 'to', 'dynamic pressure must be > 0 nPa');
@@ -54,7 +55,7 @@ export async function sweepBoundaries(c: FieldConditions, o: SweepOptions, betwe
     const m = prepareModel({ ...c, ...(o.vary === 'pdyn' ? { pdynNpa: v } : { bzNt: v }) });
     for (const w of m.warnings) warnings.add(w);
     const t = makeTracer(m, { altKm: o.altKm, ellipsoid: true });
-    const opts = { sourceRe: o.sourceRe ?? DEFAULT_SOURCE_RE, latTolDeg: o.latTolDeg ?? 0.01 };
+    const opts = { sourceRe: o.sourceRe ?? DEFAULT_SOURCE_RE, latTolDeg: o.latTolDeg ?? DEFAULT_BOUNDARY_OPTIONS.latTolDeg };
     north.push(sectorBoundaries(m, t, 'north', o.mltHours % 24, opts));
     south.push(sectorBoundaries(m, t, 'south', o.mltHours % 24, opts));
   }

@@ -2,7 +2,7 @@
  * Describing points of a field line: footpoints (geodetic and magnetic
  * coordinates, MLT) and the equatorial (minimum-|B|) crossing.
  */
-import { RAD, DEG, RE_KM } from '../constants';
+import { DEG_PER_RAD, RAD_PER_DEG, RE_KM } from '../constants';
 import { applyMat3, applyMat3T, mltHours } from '../frames/rotations';
 import type { FrameSet } from '../frames/rotations';
 import { geodeticFromGeo, ellipsoidRadiusRe } from '../frames/geodesy';
@@ -40,13 +40,13 @@ export function describePoint(f: FrameSet, x: number, y: number, z: number): Foo
   applyMat3(mag, f.magFromGeo, geo[0], geo[1], geo[2]);
   const rm = Math.hypot(mag[0], mag[1], mag[2]);
   applyMat3(sm, f.smFromGsm, x, y, z);
-  const magLatDeg = Math.asin(mag[2] / rm) * RAD;
+  const magLatDeg = Math.asin(mag[2] / rm) * DEG_PER_RAD;
   return {
     hemisphere: magLatDeg >= 0 ? 'north' : 'south',
     geoLatDeg: g.latDeg,
     geoLonDeg: g.lonDeg,
     magLatDeg,
-    magLonDeg: Math.atan2(mag[1], mag[0]) * RAD,
+    magLonDeg: Math.atan2(mag[1], mag[0]) * DEG_PER_RAD,
     mltHours: mltHours(sm[0], sm[1]),
     altKm: g.altKm,
   };
@@ -57,8 +57,8 @@ export function describePoint(f: FrameSet, x: number, y: number, z: number): Foo
  * WGS84 ellipsoid (ellipsoid = true) or above the sphere r = 1 RE. Writes out.
  */
 export function gsmAtMagneticLatMlt(out: Float64Array, f: FrameSet, magLatDeg: number, mltH: number, altKm: number, ellipsoid: boolean): Float64Array {
-  const lat = magLatDeg * DEG;
-  const phi = (mltH - 12) * 15 * DEG; // MLT = 12 + atan2(y_sm, x_sm)/15° (common practice)
+  const lat = magLatDeg * RAD_PER_DEG;
+  const phi = (mltH - 12) * 15 * RAD_PER_DEG; // MLT = 12 + atan2(y_sm, x_sm)/15° (common practice)
   const c = Math.cos(lat);
   applyMat3T(out, f.smFromGsm, c * Math.cos(phi), c * Math.sin(phi), Math.sin(lat));
   let r = 1 + altKm / RE_KM;

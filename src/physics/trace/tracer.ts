@@ -11,25 +11,15 @@
  *
  * Stop rules:
  *  - footpoint: the line crosses the stop surface going down; the crossing is
- *    located by Newton iteration on a partial RK4 step, so the footpoint lies
- *    on the surface to 1e-10 RE, not at the last full step;
+ *    located by secant iteration (kept inside a bracket) on the length of a
+ *    partial RK4 step, so the footpoint lies on the surface to 1e-10 RE, not at
+ *    the last full step;
  *  - open: the line leaves through the magnetopause, or passes rMaxRe;
  *  - unresolved: the step or length budget is exhausted (reported, never dropped).
  */
 import { ellipsoidRadiusRe } from '../frames/geodesy';
-
-export const LINE_CLOSED = 0;
-export const LINE_OPEN = 1;
-export const LINE_UNRESOLVED = 2;
-export type LineType = 'closed' | 'open' | 'unresolved';
-export const LINE_TYPE_NAMES: readonly LineType[] = ['closed', 'open', 'unresolved'];
-
-/** End states of one half-trace. */
-export const END_SURFACE = 0; // reached the stop surface (footpoint)
-export const END_MAGNETOPAUSE = 1;
-export const END_DISTANCE = 2;
-export const END_BUDGET = 3;
-export const END_START_BELOW = 4; // direction leads down from a start below the surface: no points
+import { RE_KM } from '../constants';
+import { END_SURFACE, END_MAGNETOPAUSE, END_DISTANCE, END_BUDGET, END_START_BELOW, classify } from './line-type';
 
 /** What the tracer needs of a field model. */
 export interface TraceField {
@@ -59,7 +49,7 @@ export interface TraceOptions {
 }
 
 /** Default stepFactor 0.1: measured footpoint error 2.6e-4° (< 0.001°) for L 2–12 in a dipole, ~200 evaluations a line (test/physics/trace/tracer.test.ts). */
-export const DEFAULT_TRACE_OPTIONS: Readonly<TraceOptions> = Object.freeze({
+const DEFAULT_TRACE_OPTIONS: Readonly<TraceOptions> = Object.freeze({
   altKm: 110,
   ellipsoid: true,
   stepFactor: 0.1,
@@ -71,7 +61,7 @@ export const DEFAULT_TRACE_OPTIONS: Readonly<TraceOptions> = Object.freeze({
 });
 
 /** Result of one half-trace (one direction from the seed). */
-export interface HalfTrace {
+interface HalfTrace {
   end: number;
   nPoints: number;
   lengthRe: number;
@@ -105,7 +95,7 @@ export class Tracer {
   private readonly halfB: Float64Array;
   private readonly b = new Float64Array(3);
   private opts: TraceOptions;
-  private field: TraceField;
+  private readonly field: TraceField;
   private rStopSphere = 1;
 
   constructor(field: TraceField, options: Partial<TraceOptions> = {}) {
@@ -119,17 +109,12 @@ export class Tracer {
     this.setOptions(options);
   }
 
-  /** Swap the field (same buffers). */
-  setField(field: TraceField): void {
-    this.field = field;
-  }
-
   /** Change options (budgets cannot exceed the capacity fixed at construction). */
   setOptions(options: Partial<TraceOptions>): void {
     const o = { ...this.opts, ...options };
     o.maxSteps = Math.min(o.maxSteps, this.capacity - 2);
     this.opts = o;
-    this.rStopSphere = 1 + o.altKm / 6371.2;
+    this.rStopSphere = 1 + o.altKm / RE_KM;
   }
 
   get options(): Readonly<TraceOptions> {
@@ -137,7 +122,7 @@ export class Tracer {
   }
 
   /** Stop radius (RE) at a GSM point. */
-  stopRadius(x: number, y: number, z: number): number {
+  private stopRadius(x: number, y: number, z: number): number {
     if (!this.opts.ellipsoid) return this.rStopSphere;
     const g = this.field.geoZRow;
     const r = Math.sqrt(x * x + y * y + z * z);
@@ -197,7 +182,7 @@ export class Tracer {
    * One direction (sign +1 along B, −1 against) into this.half. Returns the
    * end state. Allocation-free apart from the returned record.
    */
-  traceHalf(x0: number, y0: number, z0: number, sign: number): HalfTrace {
+  private traceHalf(x0: number, y0: number, z0: number, sign: number): HalfTrace {
     const o = this.opts;
     const f = this.field;
     const b = this.b;
@@ -242,27 +227,23 @@ export class Tracer {
         if (hs < h) h = hs;
       }
       // One RK4 step (stage 1 uses the field already at (x, y, z)).
-      evals += this.rk4Partial(x, y, z, bx, by, bz, bmag, sign, h);
-      const nx = this.landX, ny = this.landY, nz = this.landZ;
+      evals += this.rk4Step(x, y, z, bx, by, bz, bmag, sign, h);
+      const nx = this.stepEndX, ny = this.stepEndY, nz = this.stepEndZ;
       const nr = Math.sqrt(nx * nx + ny * ny + nz * nz);
       const nStop = this.stopRadius(nx, ny, nz);
       if (nr <= nStop && !below) {
         // Crossed the surface going down: find the partial step that lands on it.
         evals += this.landOnSurface(x, y, z, bx, by, bz, bmag, sign, h, r - rStop, nr - nStop);
-        out[3 * n] = this.landX; out[3 * n + 1] = this.landY; out[3 * n + 2] = this.landZ;
-        outB[n] = this.landB;
-        n++;
-        length += this.landH;
+        this.storeStepEnd(n++);
+        length += this.stepEndH;
         end = END_SURFACE;
         break;
       }
       if (below && nr > nStop) {
         // Crossed the surface going up (start below it): record the exact near footpoint.
         evals += this.landOnSurface(x, y, z, bx, by, bz, bmag, sign, h, r - rStop, nr - nStop);
-        out[3 * n] = this.landX; out[3 * n + 1] = this.landY; out[3 * n + 2] = this.landZ;
-        outB[n] = this.landB;
         this.upIndex = n;
-        n++;
+        this.storeStepEnd(n++);
         below = false;
       }
       x = nx; y = ny; z = nz; r = nr; rStop = nStop;
@@ -283,28 +264,31 @@ export class Tracer {
   }
 
   /** Index (in the half) of the upward surface crossing of the last half-trace, or −1. */
-  upIndex = -1;
-  // Landing point of the last surface crossing (scratch, not re-entrant).
-  private landX = 0;
-  private landY = 0;
-  private landZ = 0;
-  private landB = 0;
-  private landH = 0;
+  private upIndex = -1;
+  // End of the last rk4Step (scratch, not re-entrant); after landOnSurface, the landing
+  // point, |B| there (stepEndB) and the partial step length (stepEndH).
+  private stepEndX = 0;
+  private stepEndY = 0;
+  private stepEndZ = 0;
+  private stepEndB = 0;
+  private stepEndH = 0;
   private readonly lb = new Float64Array(3);
 
   /**
-   * Newton/secant on the partial step length t ∈ (0, h] so that one RK4 step
-   * of length t from (x, y, z) ends on the stop surface. g(t) = r(t) − rStop(t);
-   * g0 = g(0) and gh = g(h) have opposite signs. Returns the evaluations used.
+   * Secant iteration, kept inside the bracket (bisection when a secant step leaves it),
+   * on the partial step length t ∈ (0, h] so that one RK4 step of length t from
+   * (x, y, z) ends on the stop surface. g(t) = r(t) − rStop(t); g0 = g(0) and
+   * gh = g(h) have opposite signs. Leaves the landing point in stepEnd{X,Y,Z},
+   * |B| there in stepEndB and t in stepEndH. Returns the evaluations used.
    */
   private landOnSurface(x: number, y: number, z: number, bx: number, by: number, bz: number, bmag: number, sign: number, h: number, g0: number, gh: number): number {
     let evals = 0;
     let lo = 0, glo = g0, hi = h, ghi = gh;
     let t = h * (g0 / (g0 - gh));
     for (let it = 0; it < 30; it++) {
-      evals += this.rk4Partial(x, y, z, bx, by, bz, bmag, sign, t);
-      const r = Math.sqrt(this.landX * this.landX + this.landY * this.landY + this.landZ * this.landZ);
-      const g = r - this.stopRadius(this.landX, this.landY, this.landZ);
+      evals += this.rk4Step(x, y, z, bx, by, bz, bmag, sign, t);
+      const r = Math.sqrt(this.stepEndX * this.stepEndX + this.stepEndY * this.stepEndY + this.stepEndZ * this.stepEndZ);
+      const g = r - this.stopRadius(this.stepEndX, this.stepEndY, this.stepEndZ);
       if (Math.abs(g) < 1e-11 || hi - lo < 1e-13) break;
       if ((g > 0) === (glo > 0)) { lo = t; glo = g; } else { hi = t; ghi = g; }
       // Secant within the bracket (the function is near-linear at this scale).
@@ -312,16 +296,23 @@ export class Tracer {
       if (!(tn > lo && tn < hi)) tn = 0.5 * (lo + hi);
       t = tn;
     }
-    this.landH = t;
+    this.stepEndH = t;
     const lb = this.lb;
-    this.field.evaluate(lb, this.landX, this.landY, this.landZ);
+    this.field.evaluate(lb, this.stepEndX, this.stepEndY, this.stepEndZ);
     evals++;
-    this.landB = Math.sqrt(lb[0] * lb[0] + lb[1] * lb[1] + lb[2] * lb[2]);
+    this.stepEndB = Math.sqrt(lb[0] * lb[0] + lb[1] * lb[1] + lb[2] * lb[2]);
     return evals;
   }
 
-  /** One RK4 step of length t from (x, y, z) (field bx, by, bz there) into land{X,Y,Z}; 3 evaluations. Used for every step and for the partial landing steps. */
-  private rk4Partial(x: number, y: number, z: number, bx: number, by: number, bz: number, bmag: number, sign: number, t: number): number {
+  /** Store the landing point (stepEnd{X,Y,Z}, stepEndB) as point n of the half. */
+  private storeStepEnd(n: number): void {
+    const out = this.half;
+    out[3 * n] = this.stepEndX; out[3 * n + 1] = this.stepEndY; out[3 * n + 2] = this.stepEndZ;
+    this.halfB[n] = this.stepEndB;
+  }
+
+  /** One RK4 step of length t from (x, y, z) (field bx, by, bz there) into stepEnd{X,Y,Z}; 3 evaluations. Used for every step and for the partial landing steps. */
+  private rk4Step(x: number, y: number, z: number, bx: number, by: number, bz: number, bmag: number, sign: number, t: number): number {
     const f = this.field;
     const b = this.lb;
     const s = sign / bmag;
@@ -337,18 +328,9 @@ export class Tracer {
     m = sign / Math.sqrt(b[0] * b[0] + b[1] * b[1] + b[2] * b[2]);
     const k4x = b[0] * m, k4y = b[1] * m, k4z = b[2] * m;
     const t6 = t / 6;
-    this.landX = x + t6 * (k1x + 2 * k2x + 2 * k3x + k4x);
-    this.landY = y + t6 * (k1y + 2 * k2y + 2 * k3y + k4y);
-    this.landZ = z + t6 * (k1z + 2 * k2z + 2 * k3z + k4z);
+    this.stepEndX = x + t6 * (k1x + 2 * k2x + 2 * k3x + k4x);
+    this.stepEndY = y + t6 * (k1y + 2 * k2y + 2 * k3y + k4y);
+    this.stepEndZ = z + t6 * (k1z + 2 * k2z + 2 * k3z + k4z);
     return 3;
   }
-}
-
-/** Line type from the two half-trace end states. */
-export function classify(endMinus: number, endPlus: number): number {
-  if (endMinus === END_BUDGET || endPlus === END_BUDGET) return LINE_UNRESOLVED;
-  const footM = endMinus === END_SURFACE || endMinus === END_START_BELOW;
-  const footP = endPlus === END_SURFACE || endPlus === END_START_BELOW;
-  if (footM && footP) return LINE_CLOSED;
-  return LINE_OPEN;
 }

@@ -4,11 +4,9 @@ import { prepareTail, tailParameters, DEFAULT_TAIL_CALIBRATION, type TailParamet
 import { prepareModel } from '../../../src/physics/field/model';
 import { InputError } from '../../../src/physics/errors';
 import { magnetopauseNormal, magnetopausePoint, shueRadius } from '../../../src/physics/field/magnetopause';
-import { makeTracer, ovalBoundaries, mltGrid } from '../../../src/physics/mapping/mapping';
-import { openFluxWb } from '../../../src/physics/mapping/flux';
-import { RE_KM } from '../../../src/physics/constants';
+import { makeTracer, ovalBoundaries, mltGrid, openFluxWb } from '../../../src/physics/mapping';
+import { RE_KM, RAD_PER_DEG } from '../../../src/physics/constants';
 
-const DEG = Math.PI / 180;
 /** A straight, untapered sheet (the 2D analytic limit). */
 const straight = (o: Partial<TailParameters> = {}): TailParameters => ({ lobeNt: 20, innerRe: 10, outerRe: [1e4], thicknessRe: 0.5, hingeRe: 8, widthRe: Infinity, taperPower: 1, ...o });
 
@@ -83,7 +81,7 @@ describe('tail current sheet (2D vector potential, derived)', () => {
     const a = new Float64Array(3), b = new Float64Array(3), c = new Float64Array(3);
     let worst = 0;
     for (const tilt of [-30, 0, 25]) {
-      const t = prepareTail(p, Math.sin(tilt * DEG), Math.cos(tilt * DEG));
+      const t = prepareTail(p, Math.sin(tilt * RAD_PER_DEG), Math.cos(tilt * RAD_PER_DEG));
       for (let k = 0; k < 40; k++) {
         const x = 5 - 40 * ((k * 0.618) % 1), y = 30 * (((k * 0.377) % 1) - 0.5), z = 16 * (((k * 0.853) % 1) - 0.5);
         let div = 0;
@@ -102,7 +100,7 @@ describe('tail current sheet (2D vector potential, derived)', () => {
   });
 
   it('the hinged sheet centre (Bx = 0) follows the dipole equator near Earth and lies flat at R_H tan ψ far out (our hinge, derived)', () => {
-    const psi = 20 * DEG;
+    const psi = 20 * RAD_PER_DEG;
     const t = prepareTail(straight({ innerRe: 2, outerRe: [200], thicknessRe: 1 }), Math.sin(psi), Math.cos(psi));
     const o = new Float64Array(3);
     const bxAt = (x: number, z: number) => { o.fill(0); t.evaluate(o, x, 0, z); return o[0]; };

@@ -1,10 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { expectAtMost, expectClose } from '../../helpers';
 import { ellipsoidRadiusRe, geodeticFromGeo, geoFromGeodetic } from '../../../src/physics/frames/geodesy';
-import { RE_KM } from '../../../src/physics/constants';
+import { RE_KM, RAD_PER_DEG, DEG_PER_RAD } from '../../../src/physics/constants';
 
-const DEG = Math.PI / 180;
-const RAD = 180 / Math.PI;
 /** WGS84 semi-major and semi-minor axes, km (NIMA TR8350.2, Tables 3.1 and 3.3). */
 const A_KM = 6378.137;
 const B_KM = 6356.7523142;
@@ -29,10 +27,10 @@ describe('WGS84 geodetic ↔ GEO (NIMA TR8350.2)', () => {
 
   it('geodetic 45° on the ellipsoid has geocentric latitude atan((1−f)² tan 45°) = 44.8076° (derived)', () => {
     geoFromGeodetic(p, 45, 10, 0);
-    const gc = Math.atan2(p[2], Math.hypot(p[0], p[1])) * RAD;
-    expectClose(gc, Math.atan((1 - F) * (1 - F)) * RAD, 1e-12, 'geocentric latitude (deg)');
+    const gc = Math.atan2(p[2], Math.hypot(p[0], p[1])) * DEG_PER_RAD;
+    expectClose(gc, Math.atan((1 - F) * (1 - F)) * DEG_PER_RAD, 1e-12, 'geocentric latitude (deg)');
     expectClose(gc, 44.8076, 1e-4, 'geocentric latitude, 4 decimals (deg)');
-    expectClose(Math.atan2(p[1], p[0]) * RAD, 10, 1e-12, 'longitude unchanged');
+    expectClose(Math.atan2(p[1], p[0]) * DEG_PER_RAD, 10, 1e-12, 'longitude unchanged');
   });
 
   it('a height is measured along the ellipsoid normal (derived)', () => {
@@ -42,7 +40,7 @@ describe('WGS84 geodetic ↔ GEO (NIMA TR8350.2)', () => {
       geoFromGeodetic(q, lat, 40, 1000);
       const d = [(q[0] - p[0]) * RE_KM, (q[1] - p[1]) * RE_KM, (q[2] - p[2]) * RE_KM];
       expectClose(Math.hypot(d[0], d[1], d[2]), 1000, 1e-9, `offset length at ${lat}° (km)`);
-      const n = [Math.cos(lat * DEG) * Math.cos(40 * DEG), Math.cos(lat * DEG) * Math.sin(40 * DEG), Math.sin(lat * DEG)];
+      const n = [Math.cos(lat * RAD_PER_DEG) * Math.cos(40 * RAD_PER_DEG), Math.cos(lat * RAD_PER_DEG) * Math.sin(40 * RAD_PER_DEG), Math.sin(lat * RAD_PER_DEG)];
       expectClose((d[0] * n[0] + d[1] * n[1] + d[2] * n[2]) / 1000, 1, 1e-12, `offset along the normal at ${lat}°`);
     }
   });

@@ -29,14 +29,13 @@ import {
   type Mat3,
 } from '../../../src/physics/frames/rotations';
 import { gmstRad, obliquityRad, parseUtc, sunDirectionGei } from '../../../src/physics/frames/time';
+import { RAD_PER_DEG, DEG_PER_RAD } from '../../../src/physics/constants';
 
-const DEG = Math.PI / 180;
-const RAD = 180 / Math.PI;
 const HOUR = 3_600_000;
 
 /** Unit GEO vector of a geocentric latitude/longitude (deg). */
 function unitGeo(latDeg: number, lonDeg: number): Float64Array {
-  return cartesianFromSpherical(new Float64Array(3), 1, latDeg * DEG, lonDeg * DEG);
+  return cartesianFromSpherical(new Float64Array(3), 1, latDeg * RAD_PER_DEG, lonDeg * RAD_PER_DEG);
 }
 
 /** 2025 geomagnetic north pole from IGRF-14 g10, g11, h11 (references §2, derived): 80.789°N, 72.763°W. */
@@ -186,7 +185,7 @@ describe('frame axes (definitions, Hapgood 1992)', () => {
     // The geographic north pole sits at MAG longitude 180°, at the pole's colatitude from the MAG z axis (derived; Hapgood T5).
     magFromGeo(v, [0, 0, 1], f);
     expectClose(v[1], 0, 1e-15, 'geographic pole y_MAG');
-    expectClose(v[0], -Math.sin((90 - 80.789) * DEG), 1e-15, 'geographic pole x_MAG = −sin(colatitude)');
+    expectClose(v[0], -Math.sin((90 - 80.789) * RAD_PER_DEG), 1e-15, 'geographic pole x_MAG = −sin(colatitude)');
   });
 });
 
@@ -197,16 +196,16 @@ describe('dipole tilt (references §6)', () => {
       const ms = Date.UTC(1950, 0, 1) + i * 740 * 86_400_000 + i * 37 * 60_000;
       const t = Astro.MakeTime(new Date(ms));
       const tilt = Astro.e_tilt(t);
-      const th = (Astro.SiderealTime(t) * 15 - (tilt.ee * 15) / 3600) * DEG;
+      const th = (Astro.SiderealTime(t) * 15 - (tilt.ee * 15) / 3600) * RAD_PER_DEG;
       const ect = Astro.RotateVector(Astro.Rotation_EQJ_ECT(t), Astro.GeoVector(Astro.Body.Sun, t, true));
-      const lon = Math.atan2(ect.y, ect.x) - (tilt.dpsi / 3600) * DEG;
-      const e = tilt.mobl * DEG;
+      const lon = Math.atan2(ect.y, ect.x) - (tilt.dpsi / 3600) * RAD_PER_DEG;
+      const e = tilt.mobl * RAD_PER_DEG;
       const sGei = [Math.cos(lon), Math.sin(lon) * Math.cos(e), Math.sin(lon) * Math.sin(e)];
       // Sun in GEO: rotate by −θ about z.
       const sGeo = [Math.cos(th) * sGei[0] + Math.sin(th) * sGei[1], -Math.sin(th) * sGei[0] + Math.cos(th) * sGei[1], sGei[2]];
-      const ref = Math.asin(AXIS_2025[0] * sGeo[0] + AXIS_2025[1] * sGeo[1] + AXIS_2025[2] * sGeo[2]) * RAD;
-      const got = prepareFrames(ms, AXIS_2025).tiltRad * RAD;
-      expectClose(dipoleTiltRad(ms, AXIS_2025) * RAD, got, 1e-12, 'dipoleTiltRad = prepareFrames().tiltRad');
+      const ref = Math.asin(AXIS_2025[0] * sGeo[0] + AXIS_2025[1] * sGeo[1] + AXIS_2025[2] * sGeo[2]) * DEG_PER_RAD;
+      const got = prepareFrames(ms, AXIS_2025).tiltRad * DEG_PER_RAD;
+      expectClose(dipoleTiltRad(ms, AXIS_2025) * DEG_PER_RAD, got, 1e-12, 'dipoleTiltRad = prepareFrames().tiltRad');
       worst = Math.max(worst, Math.abs(got - ref));
     }
     expectAtMost(worst, 0.0025, 'max |ψ − astronomy-engine ψ| (deg)');
@@ -218,12 +217,12 @@ describe('dipole tilt (references §6)', () => {
     const t0 = Date.UTC(2025, 0, 1);
     const step = 10 * 60_000;
     for (let ms = t0; ms < Date.UTC(2026, 0, 1); ms += step) {
-      const p = dipoleTiltRad(ms, AXIS_2025) * RAD;
+      const p = dipoleTiltRad(ms, AXIS_2025) * DEG_PER_RAD;
       if (p > max) max = p;
       if (p < min) min = p;
     }
     // Reached exactly only if the solstice falls when the pole faces the Sun; the 10-min scan and that offset cost < 0.002°.
-    const bound = obliquityRad(Date.UTC(2025, 5, 21)) * RAD + (90 - 80.789);
+    const bound = obliquityRad(Date.UTC(2025, 5, 21)) * DEG_PER_RAD + (90 - 80.789);
     expectClose(bound, 32.65, 0.005, 'obliquity + pole colatitude (references §6)');
     expectClose(max, bound, 0.002, '2025 maximum tilt (deg)');
     expectClose(min, -bound, 0.002, '2025 minimum tilt (deg)');
@@ -239,14 +238,14 @@ describe('dipole tilt (references §6)', () => {
         bestMs = ms;
       }
     }
-    return { tiltDeg: sign * best * RAD, hourUt: (bestMs - dayMs) / HOUR };
+    return { tiltDeg: sign * best * DEG_PER_RAD, hourUt: (bestMs - dayMs) / HOUR };
   }
 
   it('about +32.6° near 16:50 UT on the June solstice 2025 (references §6; 0.1°, 5 min; measured 32.645° at 16:53)', () => {
     const { tiltDeg, hourUt } = extremeOfDay(Date.UTC(2025, 5, 21), 1);
     expectClose(tiltDeg, 32.6, 0.1, 'June-solstice maximum tilt (deg)');
     expectClose(hourUt, 16 + 50 / 60, 5 / 60, 'UT of the June-solstice maximum (h)');
-    expectClose(dipoleTiltRad(parseUtc('2025-06-21T16:50:00Z'), AXIS_2025) * RAD, 32.6, 0.1, 'tilt at 16:50 UT');
+    expectClose(dipoleTiltRad(parseUtc('2025-06-21T16:50:00Z'), AXIS_2025) * DEG_PER_RAD, 32.6, 0.1, 'tilt at 16:50 UT');
   });
 
   it('about −32.6° near 04:50 UT on the December solstice 2025 (references §6; 0.1°, 5 min; measured −32.646° at 04:49)', () => {
@@ -264,9 +263,9 @@ describe('tilt override (our documented rule)', () => {
   for (const tiltDeg of [-90, -35, -10, 0, 20, 32.6, 89.9, 90]) {
     it(`override ${tiltDeg}°: tilt equals the override, MLT of fixed GEO points unchanged`, () => {
       const f = prepareFrames(ms, AXIS_2025, tiltDeg);
-      expectClose(f.tiltRad * RAD, tiltDeg, 1e-12, 'tiltRad');
+      expectClose(f.tiltRad * DEG_PER_RAD, tiltDeg, 1e-12, 'tiltRad');
       const d = f.axisGeo[0] * f.sunGeo[0] + f.axisGeo[1] * f.sunGeo[1] + f.axisGeo[2] * f.sunGeo[2];
-      expectClose(d, Math.sin(tiltDeg * DEG), 1e-15, 'axis·sun′ = sin(override)');
+      expectClose(d, Math.sin(tiltDeg * RAD_PER_DEG), 1e-15, 'axis·sun′ = sin(override)');
       expectClose(Math.hypot(f.sunGeo[0], f.sunGeo[1], f.sunGeo[2]), 1, 1e-15, '|sun′|');
       // sun′ stays in the plane of the true Sun direction and the axis.
       const n = [
@@ -284,7 +283,7 @@ describe('tilt override (our documented rule)', () => {
   }
 
   it('the time-following tilt reproduces the unforced frames', () => {
-    const f = prepareFrames(ms, AXIS_2025, base.tiltRad * RAD);
+    const f = prepareFrames(ms, AXIS_2025, base.tiltRad * DEG_PER_RAD);
     for (const name of MATRICES) for (let k = 0; k < 9; k++) expectClose(f[name][k], base[name][k], 1e-13, `${name}[${k}]`);
   });
 
@@ -330,8 +329,8 @@ describe('MLT (common practice: 12 + atan2(y_SM, x_SM)/15°)', () => {
   it('advances 1 h per 15° of magnetic longitude eastward (derived)', () => {
     const f = prepareFrames(INSTANTS[3], AXIS_2025);
     const p = new Float64Array(3);
-    const m0 = mltOfGeo(f, ...(geoFromMag(p, cartesianFromSpherical(p, 1, 60 * DEG, 0), f) as unknown as [number, number, number]));
-    const m1 = mltOfGeo(f, ...(geoFromMag(p, cartesianFromSpherical(p, 1, 60 * DEG, 15 * DEG), f) as unknown as [number, number, number]));
+    const m0 = mltOfGeo(f, ...(geoFromMag(p, cartesianFromSpherical(p, 1, 60 * RAD_PER_DEG, 0), f) as unknown as [number, number, number]));
+    const m1 = mltOfGeo(f, ...(geoFromMag(p, cartesianFromSpherical(p, 1, 60 * RAD_PER_DEG, 15 * RAD_PER_DEG), f) as unknown as [number, number, number]));
     expectClose((((m1 - m0) % 24) + 24) % 24, 1, 1e-12, 'MLT step per 15° MAG longitude');
   });
 });
@@ -346,14 +345,14 @@ describe('spherical helpers', () => {
       [1, 90, 0],
       [10, -45, 179.999],
     ]) {
-      cartesianFromSpherical(p, r, lat * DEG, lon * DEG);
+      cartesianFromSpherical(p, r, lat * RAD_PER_DEG, lon * RAD_PER_DEG);
       const s = sphericalFromCartesian(p[0], p[1], p[2]);
       expectClose(s.rRe, r, 1e-14 * r, 'r');
-      expectClose(s.latRad * RAD, lat, 1e-12, 'lat');
-      if (Math.abs(lat) < 90) expectClose(s.lonRad * RAD, lon, 1e-12, 'lon');
+      expectClose(s.latRad * DEG_PER_RAD, lat, 1e-12, 'lat');
+      if (Math.abs(lat) < 90) expectClose(s.lonRad * DEG_PER_RAD, lon, 1e-12, 'lon');
     }
     const s = sphericalFromCartesian(0, -3, 0);
-    expectClose(s.lonRad * RAD, -90, 0, 'lon of −y');
+    expectClose(s.lonRad * DEG_PER_RAD, -90, 0, 'lon of −y');
     expectClose(s.rRe, 3, 0, 'r of −y');
   });
 });

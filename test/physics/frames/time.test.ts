@@ -3,8 +3,8 @@ import * as Astro from 'astronomy-engine';
 import { expectAtMost, expectClose } from '../../helpers';
 import { InputError } from '../../../src/physics/errors';
 import { decimalYear, gmstRad, julianDate, obliquityRad, parseUtc, sunDirectionGei, sunEclipticLongitudeRad } from '../../../src/physics/frames/time';
+import { DEG_PER_RAD, RAD_PER_DEG } from '../../../src/physics/constants';
 
-const RAD = 180 / Math.PI;
 
 /** Signed difference a − b of two angles in degrees, wrapped to −180..180. */
 function angleDiffDeg(a: number, b: number): number {
@@ -30,15 +30,15 @@ function astroSunMeanOfDate(ms: number): { v: number[]; lonDeg: number; meanOblD
   const t = Astro.MakeTime(new Date(ms));
   const tilt = Astro.e_tilt(t);
   const ect = Astro.RotateVector(Astro.Rotation_EQJ_ECT(t), Astro.GeoVector(Astro.Body.Sun, t, true));
-  const lon = Math.atan2(ect.y, ect.x) - (tilt.dpsi / 3600) / RAD;
+  const lon = Math.atan2(ect.y, ect.x) - (tilt.dpsi / 3600) * RAD_PER_DEG;
   const beta = Math.atan2(ect.z, Math.hypot(ect.x, ect.y));
-  const e = tilt.mobl / RAD;
+  const e = tilt.mobl * RAD_PER_DEG;
   const cx = Math.cos(beta) * Math.cos(lon);
   const cy = Math.cos(beta) * Math.sin(lon);
   const cz = Math.sin(beta);
   return {
     v: [cx, cy * Math.cos(e) - cz * Math.sin(e), cy * Math.sin(e) + cz * Math.cos(e)],
-    lonDeg: lon * RAD,
+    lonDeg: lon * DEG_PER_RAD,
     meanOblDeg: tilt.mobl,
   };
 }
@@ -123,18 +123,18 @@ describe('Hapgood (1992) GMST, obliquity and Sun against astronomy-engine, 1950�
       const t = Astro.MakeTime(new Date(ms));
       // SiderealTime returns GAST in hours; e_tilt().ee is the equation of the equinoxes in seconds of time.
       const gmstDeg = Astro.SiderealTime(t) * 15 - (Astro.e_tilt(t).ee * 15) / 3600;
-      worst = Math.max(worst, Math.abs(angleDiffDeg(gmstRad(ms) * RAD, gmstDeg)));
+      worst = Math.max(worst, Math.abs(angleDiffDeg(gmstRad(ms) * DEG_PER_RAD, gmstDeg)));
     }
     expectAtMost(worst, 5e-4, 'max |GMST − astronomy-engine GMST| (deg)');
   });
   it('GMST is within the nutation allowance of astronomy-engine GAST (measured 0.0050°)', () => {
     let worst = 0;
-    for (const ms of sampleInstants()) worst = Math.max(worst, Math.abs(angleDiffDeg(gmstRad(ms) * RAD, Astro.SiderealTime(new Date(ms)) * 15)));
+    for (const ms of sampleInstants()) worst = Math.max(worst, Math.abs(angleDiffDeg(gmstRad(ms) * DEG_PER_RAD, Astro.SiderealTime(new Date(ms)) * 15)));
     expectAtMost(worst, 0.0055, 'max |GMST − GAST| (deg)');
   });
   it('mean obliquity agrees with astronomy-engine (measured 2.8e-4°)', () => {
     let worst = 0;
-    for (const ms of sampleInstants()) worst = Math.max(worst, Math.abs(obliquityRad(ms) * RAD - astroSunMeanOfDate(ms).meanOblDeg));
+    for (const ms of sampleInstants()) worst = Math.max(worst, Math.abs(obliquityRad(ms) * DEG_PER_RAD - astroSunMeanOfDate(ms).meanOblDeg));
     expectAtMost(worst, 3e-4, 'max |ε − astronomy-engine mean obliquity| (deg)');
   });
   it('solar ecliptic longitude and GEI direction agree with astronomy-engine mean-of-date (measured 0.0052°)', () => {
@@ -143,11 +143,11 @@ describe('Hapgood (1992) GMST, obliquity and Sun against astronomy-engine, 1950�
     const s = new Float64Array(3);
     for (const ms of sampleInstants()) {
       const ref = astroSunMeanOfDate(ms);
-      worstLon = Math.max(worstLon, Math.abs(angleDiffDeg(sunEclipticLongitudeRad(ms) * RAD, ref.lonDeg)));
+      worstLon = Math.max(worstLon, Math.abs(angleDiffDeg(sunEclipticLongitudeRad(ms) * DEG_PER_RAD, ref.lonDeg)));
       sunDirectionGei(s, ms);
       expectClose(Math.hypot(s[0], s[1], s[2]), 1, 1e-15, 'Sun direction is a unit vector');
       const dot = s[0] * ref.v[0] + s[1] * ref.v[1] + s[2] * ref.v[2];
-      worstDir = Math.max(worstDir, Math.acos(Math.min(1, dot)) * RAD);
+      worstDir = Math.max(worstDir, Math.acos(Math.min(1, dot)) * DEG_PER_RAD);
     }
     expectAtMost(worstLon, 0.0055, 'max |λ − astronomy-engine λ (mean of date)| (deg)');
     expectAtMost(worstDir, 0.0055, 'max angle between Sun directions (deg)');
@@ -156,7 +156,7 @@ describe('Hapgood (1992) GMST, obliquity and Sun against astronomy-engine, 1950�
     const seasons = Astro.Seasons(2025);
     const events = [seasons.mar_equinox, seasons.jun_solstice, seasons.sep_equinox, seasons.dec_solstice];
     events.forEach((ev, i) => {
-      const lon = sunEclipticLongitudeRad(ev.date.getTime()) * RAD;
+      const lon = sunEclipticLongitudeRad(ev.date.getTime()) * DEG_PER_RAD;
       expectClose(angleDiffDeg(lon, 90 * i), 0, 0.008, `Sun longitude at 2025 season ${i}`);
     });
   });

@@ -19,7 +19,7 @@ import { geoFromGeodetic } from '../../../src/physics/frames/geodesy';
 import { decimalYear, parseUtc } from '../../../src/physics/frames/time';
 import { expectClose } from '../../helpers';
 
-const RAD_PER_DEG = Math.PI / 180;
+import { RAD_PER_DEG } from '../../../src/physics/constants';
 const ms = parseUtc('2025-03-20T22:00:00Z');
 const year = decimalYear(ms);
 

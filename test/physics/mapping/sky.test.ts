@@ -1,6 +1,7 @@
 import { describe, it } from 'vitest';
-import { horizonCentralAngleDeg, elevationAtCentralAngleDeg, skyPosition } from '../../../src/physics/mapping/sky';
+import { horizonCentralAngleDeg, elevationAtCentralAngleDeg, skyPosition } from '../../../src/physics/mapping';
 import { expectClose } from '../../helpers';
+import { RAD_PER_DEG, RE_KM } from '../../../src/physics/constants';
 
 describe('sky geometry (references §7, derived: γ = acos(RE cos e/(RE+h)) − e)', () => {
   it.each([
@@ -11,7 +12,7 @@ describe('sky geometry (references §7, derived: γ = acos(RE cos e/(RE+h)) − 
   ])('h = %s km, e = %s°: γ = %s° (%s km)', (h, e, gamma, km) => {
     const g = horizonCentralAngleDeg(h, e);
     expectClose(g, gamma, 1e-3, 'central angle (references §7 rounds to 1e-3°)');
-    expectClose((g * Math.PI / 180) * 6371.2, km, 0.1, 'ground distance km (references §7 rounds to 0.1 km)');
+    expectClose(g * RAD_PER_DEG * RE_KM, km, 0.1, 'ground distance km (references §7 rounds to 0.1 km)');
     expectClose(elevationAtCentralAngleDeg(h, g), e, 1e-9, 'inverse: elevation at γ');
   });
 

@@ -1,12 +1,12 @@
 import { describe, it, expect } from 'vitest';
-import { Tracer, LINE_CLOSED, LINE_OPEN, LINE_UNRESOLVED, type TraceField } from '../../../src/physics/trace/tracer';
+import { Tracer, type TraceField } from '../../../src/physics/trace/tracer';
+import { LINE_CLOSED, LINE_OPEN, LINE_UNRESOLVED } from '../../../src/physics/trace/line-type';
 import { dipoleField, addTiltedDipoleField } from '../../../src/physics/field/dipole';
 import { equatorCrossing } from '../../../src/physics/trace/footpoint';
 import { expectClose, expectAtMost, expectBetween } from '../../helpers';
+import { RAD_PER_DEG, DEG_PER_RAD, RE_KM } from '../../../src/physics/constants';
 
 const B0 = 29733; // references §1: the 2025 dipole
-const RE = 6371.2;
-const DEG = 180 / Math.PI;
 
 /** Untilted centred dipole, no boundary: the analytic reference of references §1. */
 function dipoleOnly(b0 = B0): TraceField {
@@ -19,7 +19,7 @@ function dipoleOnly(b0 = B0): TraceField {
 }
 
 function latOf(p: Float64Array, i: number): number {
-  return Math.asin(p[3 * i + 2] / Math.hypot(p[3 * i], p[3 * i + 1], p[3 * i + 2])) * DEG;
+  return Math.asin(p[3 * i + 2] / Math.hypot(p[3 * i], p[3 * i + 1], p[3 * i + 2])) * DEG_PER_RAD;
 }
 
 /** Dipole arc length equator → λ (references §1, derived): s = L/(2√3)[x√(1+x²) + asinh x], x = √3 sin λ. */
@@ -34,7 +34,7 @@ describe('tracer against the analytic dipole (references §1, derived)', () => {
     let worst = 0;
     for (let L = 2; L <= 12; L += 0.25) {
       expect(t.trace(L, 0, 0)).toBe(LINE_CLOSED);
-      const exact = Math.acos(Math.sqrt((1 + 110 / RE) / L)) * DEG;
+      const exact = Math.acos(Math.sqrt((1 + 110 / RE_KM) / L)) * DEG_PER_RAD;
       worst = Math.max(worst, Math.abs(latOf(t.points, t.footPlus) - exact), Math.abs(latOf(t.points, t.footMinus) + exact));
     }
     // Measured 2.6e-4° with the default step factor.
@@ -64,7 +64,7 @@ describe('tracer against the analytic dipole (references §1, derived)', () => {
     const t = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 110 });
     for (let L = 2; L <= 12; L += 1) {
       t.trace(L, 0, 0);
-      const lam = Math.acos(Math.sqrt((1 + 110 / RE) / L));
+      const lam = Math.acos(Math.sqrt((1 + 110 / RE_KM) / L));
       expectClose(t.lengthRe, 2 * arcLength(L, lam), 4e-4, `length L = ${L} (RE)`);
     }
   });
@@ -74,13 +74,13 @@ describe('tracer against the analytic dipole (references §1, derived)', () => {
     t.trace(5.3, 0, 0);
     for (const i of [t.footMinus, t.footPlus]) {
       const p = t.points;
-      expectClose(Math.hypot(p[3 * i], p[3 * i + 1], p[3 * i + 2]), 1 + 110 / RE, 1e-10, 'footpoint radius');
+      expectClose(Math.hypot(p[3 * i], p[3 * i + 1], p[3 * i + 2]), 1 + 110 / RE_KM, 1e-10, 'footpoint radius');
     }
   });
 
   it('RK4 global error falls ~16× when the step halves (derived: 4th order)', () => {
     const L = 6;
-    const exact = Math.acos(Math.sqrt((1 + 110 / RE) / L)) * DEG;
+    const exact = Math.acos(Math.sqrt((1 + 110 / RE_KM) / L)) * DEG_PER_RAD;
     const err = (sf: number) => {
       const t = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 110, stepFactor: sf, hMaxRe: 10 });
       t.trace(L, 0, 0);
@@ -95,17 +95,17 @@ describe('tracer against the analytic dipole (references §1, derived)', () => {
   it('a seed below the footpoint surface maps up to it and on to the far end', () => {
     // Ground seed at 65° on the dipole; footpoints at 110 km: both on the line through the seed.
     const t = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 110 });
-    const lat = 65 / DEG;
+    const lat = 65 * RAD_PER_DEG;
     const type = t.trace(Math.cos(lat), 0, Math.sin(lat));
     expect(type).toBe(LINE_CLOSED);
     const L = 1 / Math.cos(lat) ** 2;
-    const exact = Math.acos(Math.sqrt((1 + 110 / RE) / L)) * DEG;
+    const exact = Math.acos(Math.sqrt((1 + 110 / RE_KM) / L)) * DEG_PER_RAD;
     expectClose(latOf(t.points, t.footPlus), exact, 1e-3, 'near footpoint above the seed');
     expectClose(latOf(t.points, t.footMinus), -exact, 1e-3, 'conjugate footpoint');
   });
 
   it('tilted dipole: the conjugate has the same magnetic longitude and opposite latitude (derived)', () => {
-    const tilt = 25 / DEG;
+    const tilt = 25 * RAD_PER_DEG;
     const s = Math.sin(tilt), c = Math.cos(tilt);
     const field: TraceField = {
       evaluate(o, x, y, z) { o[0] = 0; o[1] = 0; o[2] = 0; addTiltedDipoleField(o, x, y, z, B0, s, c); },
@@ -113,15 +113,15 @@ describe('tracer against the analytic dipole (references §1, derived)', () => {
     };
     const t = new Tracer(field, { ellipsoid: false, altKm: 0 });
     for (const [lat, lon] of [[62, 30], [55, 140], [70, -100]]) {
-      const la = lat / DEG, lo = lon / DEG;
+      const la = lat * RAD_PER_DEG, lo = lon * RAD_PER_DEG;
       // Seed in SM, rotate to GSM (x_gsm = x_sm cos ψ + z_sm sin ψ, z_gsm = −x_sm sin ψ + z_sm cos ψ).
       const xs = Math.cos(la) * Math.cos(lo), ys = Math.cos(la) * Math.sin(lo), zs = Math.sin(la);
       t.trace(xs * c + zs * s, ys, -xs * s + zs * c);
       const p = t.points, i = t.footMinus;
       const xg = p[3 * i], yg = p[3 * i + 1], zg = p[3 * i + 2];
       const xsm = xg * c - zg * s, zsm = xg * s + zg * c;
-      expectClose(Math.asin(zsm / Math.hypot(xsm, yg, zsm)) * DEG, -lat, 3e-4, 'conjugate magnetic latitude (ground footpoint; measured 1.3e-4°)');
-      expectClose(Math.atan2(yg, xsm) * DEG, lon, 3e-4, 'conjugate magnetic longitude');
+      expectClose(Math.asin(zsm / Math.hypot(xsm, yg, zsm)) * DEG_PER_RAD, -lat, 3e-4, 'conjugate magnetic latitude (ground footpoint; measured 1.3e-4°)');
+      expectClose(Math.atan2(yg, xsm) * DEG_PER_RAD, lon, 3e-4, 'conjugate magnetic longitude');
     }
   });
 });

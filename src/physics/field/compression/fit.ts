@@ -24,24 +24,15 @@
  * pass re-weights by the fitted total), so the fit minimises the area-weighted rms
  * of |B·n|/|B|, the figure reported in `rmsResidualRel`.
  */
-import { InputError } from '../../errors';
-import { type MagnetopauseShape, shueRadius } from '../magnetopause';
+import { InputError, expectedGot } from '../../errors';
+import type { MagnetopauseShape } from '../magnetopause';
+import { shueSurface, sampleSurface, type AxisymmetricSurface, type Samples } from './surface';
 import { leastSquaresQr } from '../../numeric/lsq';
-import { makeKernel, squareFreePart } from './basis';
+import { makeKernel, type Kernel } from './basis';
+import { compressionPairs } from './pairs';
+import type { FieldWriter } from '../writer';
 
-/** Writes a field (GSM nT) at a GSM point (RE) into out[0..2]. */
-export type FieldWriter = (out: Float64Array, x: number, y: number, z: number) => void;
-
-/** A boundary symmetric about the x axis, r = r(θ), θ from +x. */
-export interface AxisymmetricSurface {
-  radiusRe(thetaRad: number): number;
-  /** dr/dθ, RE per radian. */
-  radiusSlope(thetaRad: number): number;
-  /** Tailward edge of the fitted region (θ of the last sampled ring), rad. */
-  thetaMaxRad: number;
-  /** Length scale for wavenumbers and sample spacing, RE (the standoff or sphere radius). */
-  scaleRe: number;
-}
+export type { FieldWriter };
 
 export interface CompressionOptions {
   /** Highest wavenumber index (default 4: 26 terms, 43 with y-odd terms). */
@@ -52,7 +43,7 @@ export interface CompressionOptions {
   fitDepthR0?: number;
   /** Sample spacing along the surface, in units of scaleRe (default 0.3). */
   spacing?: number;
-  /** Use the hand-unrolled evaluator for the default order (default true; false is for cross-checks). */
+  /** Use the generated unrolled evaluator for the default order (default true; false is for cross-checks). */
   unrolled?: boolean;
 }
 
@@ -75,188 +66,113 @@ const KAPPA = 0.35;
 /** Sunward clamp of x − x0, in units of the scale (keeps exp finite far outside; see the header). */
 const CLAMP_SCALES = 4;
 
-/** The Shue et al. (1998) surface as a fit boundary, from the nose to x = −depth·r0. */
-export function shueSurface(mp: MagnetopauseShape, fitDepthR0 = 2): AxisymmetricSurface {
-  const xMin = -fitDepthR0 * mp.r0Re;
-  const xAt = (t: number): number => shueRadius(mp, t) * Math.cos(t);
-  const cap = 0.95 * Math.PI;
-  let thetaMax = cap;
-  if (xAt(cap) < xMin) {
-    let lo = 0;
-    let hi = cap;
-    for (let it = 0; it < 60; it++) {
-      const mid = 0.5 * (lo + hi);
-      if (xAt(mid) > xMin) lo = mid;
-      else hi = mid;
-    }
-    thetaMax = 0.5 * (lo + hi);
-  }
-  return {
-    radiusRe: (t) => shueRadius(mp, t),
-    // dr/dθ = r α tan(θ/2), derived from Shue et al. (1998) eq. 1.
-    radiusSlope: (t) => shueRadius(mp, t) * mp.alpha * Math.tan(0.5 * t),
-    thetaMaxRad: thetaMax,
-    scaleRe: mp.r0Re,
-  };
-}
-
-/** A sphere of radius R centred on Earth (the exact conducting-sphere limit). */
-export function sphereSurface(radiusRe: number): AxisymmetricSurface {
-  if (!(radiusRe > 0) || !Number.isFinite(radiusRe)) throw new InputError('radiusRe', `expected a finite radius > 0 RE, got ${radiusRe}`);
-  return { radiusRe: () => radiusRe, radiusSlope: () => 0, thetaMaxRad: Math.PI, scaleRe: radiusRe };
-}
-
-interface Samples {
-  n: number;
-  p: Float64Array; // x, y, z interleaved
-  nrm: Float64Array; // outward unit normals interleaved
-  area: Float64Array;
-  ringStart: Int32Array; // first sample index of each ring (+ sentinel)
-}
-
-/** Rings of equal meridian arc length; φ_j = (j + ½)·2π/n_φ with n_φ a multiple of 4 (mirror-symmetric in y and z). */
-function sampleSurface(s: AxisymmetricSurface, spacing: number): Samples {
-  const NT = 256;
-  const th = s.thetaMaxRad;
-  const cum = new Float64Array(NT + 1);
-  let prev = Math.hypot(s.radiusRe(0), s.radiusSlope(0));
-  for (let i = 1; i <= NT; i++) {
-    const t = (th * i) / NT;
-    const v = Math.hypot(s.radiusRe(t), s.radiusSlope(t));
-    cum[i] = cum[i - 1] + (0.5 * (prev + v) * th) / NT;
-    prev = v;
-  }
-  const total = cum[NT];
-  const ds0 = spacing * s.scaleRe;
-  const nRings = Math.max(4, Math.ceil(total / ds0));
-  const ds = total / nRings;
-  const thetas = new Float64Array(nRings);
-  const counts = new Int32Array(nRings);
-  let n = 0;
-  let seg = 0;
-  for (let r = 0; r < nRings; r++) {
-    const target = (r + 0.5) * ds;
-    while (seg < NT - 1 && cum[seg + 1] < target) seg++;
-    const f = (target - cum[seg]) / (cum[seg + 1] - cum[seg]);
-    const t = (th * (seg + f)) / NT;
-    thetas[r] = t;
-    const rho = s.radiusRe(t) * Math.sin(t);
-    counts[r] = 4 * Math.max(1, Math.ceil((2 * Math.PI * rho) / (4 * ds)));
-    n += counts[r];
-  }
-  const p = new Float64Array(3 * n);
-  const nrm = new Float64Array(3 * n);
-  const area = new Float64Array(n);
-  const ringStart = new Int32Array(nRings + 1);
-  let k = 0;
-  for (let r = 0; r < nRings; r++) {
-    ringStart[r] = k;
-    const t = thetas[r];
-    const rr = s.radiusRe(t);
-    const rp = s.radiusSlope(t);
-    const ct = Math.cos(t);
-    const st = Math.sin(t);
-    const rho = rr * st;
-    // Outward normal ∝ r r̂ − r' θ̂ (gradient of F = r − r(θ), derived).
-    const nxr = rr * ct + rp * st;
-    const nrr = rr * st - rp * ct;
-    const len = Math.hypot(nxr, nrr);
-    const m = counts[r];
-    const dA = (rho * ds * 2 * Math.PI) / m;
-    for (let j = 0; j < m; j++) {
-      const phi = ((j + 0.5) * 2 * Math.PI) / m;
-      const cp = Math.cos(phi);
-      const sp = Math.sin(phi);
-      p[3 * k] = rr * ct;
-      p[3 * k + 1] = rho * cp;
-      p[3 * k + 2] = rho * sp;
-      nrm[3 * k] = nxr / len;
-      nrm[3 * k + 1] = (nrr / len) * cp;
-      nrm[3 * k + 2] = (nrr / len) * sp;
-      area[k] = dA;
-      k++;
-    }
-  }
-  ringStart[nRings] = k;
-  return { n, p, nrm, area, ringStart };
-}
-
 /** Fit the compression field on the Shue surface `mp` for the field written by `shielded`. */
 export function prepareCompression(mp: MagnetopauseShape, shielded: FieldWriter, options: CompressionOptions = {}): CompressionField {
   const depth = options.fitDepthR0 ?? 2;
-  if (!(depth > 0 && depth <= 10)) throw new InputError('fitDepthR0', `expected 0 < fitDepthR0 ≤ 10 (in r0), got ${depth}`);
+  if (!(depth > 0 && depth <= 10)) throw new InputError('fitDepthR0', expectedGot('0 < fitDepthR0 ≤ 10 (in r0)', depth));
   return prepareCompressionOnSurface(shueSurface(mp, depth), shielded, options);
 }
 
 /** Fit the compression field on any x-axisymmetric surface (the sphere for the exact limit). */
 export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shielded: FieldWriter, options: CompressionOptions = {}): CompressionField {
   const order = options.order ?? 4;
-  if (!Number.isInteger(order) || order < 1 || order > 8) throw new InputError('order', `expected an integer 1..8, got ${order}`);
+  if (!Number.isInteger(order) || order < 1 || order > 8) throw new InputError('order', expectedGot('an integer 1..8', order));
   const spacing = options.spacing ?? 0.3;
-  if (!(spacing >= 0.05 && spacing <= 1)) throw new InputError('spacing', `expected 0.05..1 (in units of the scale), got ${spacing}`);
+  if (!(spacing >= 0.05 && spacing <= 1)) throw new InputError('spacing', expectedGot('0.05..1 (in units of the scale)', spacing));
 
   const smp = sampleSurface(surface, spacing);
-  const ns = smp.n;
-  const bs = new Float64Array(3 * ns);
+  const { bs, bMax } = sampleShieldedField(smp, shielded);
+  const yOdd = options.yOdd === 'auto' || options.yOdd === undefined ? yAsymmetric(smp, bs, bMax) : options.yOdd;
+  const kappa = KAPPA / surface.scaleRe;
+  const pairs = compressionPairs(order);
+  const cols = basisColumns(pairs, yOdd);
+  const kern = makeKernel(pairs, order, kappa, surface.radiusRe(0), CLAMP_SCALES * surface.scaleRe, options.unrolled ?? true);
+  const an = normalComponents(smp, kern, cols);
+  const fit = solveWeighted(smp, bs, bMax, an, kern, cols);
+  const res = surfaceResidual(smp, fit.bTotal);
+  const tm = surface.thetaMaxRad;
+  return {
+    evaluate: fit.field,
+    rmsResidualRel: res.rms,
+    maxResidualRel: res.max,
+    nTerms: cols.pair.length,
+    nSamples: smp.n,
+    conditionEstimate: fit.conditionEstimate,
+    yOdd,
+    fitRegion: { xMinRe: surface.radiusRe(tm) * Math.cos(tm), thetaMaxRad: tm },
+  };
+}
+
+/** The shielded field at every sample (interleaved GSM nT) and its largest magnitude. */
+function sampleShieldedField(smp: Samples, shielded: FieldWriter): { bs: Float64Array; bMax: number } {
+  const bs = new Float64Array(3 * smp.n);
   const tmp = new Float64Array(3);
   let bMax = 0;
-  for (let i = 0; i < ns; i++) {
+  for (let i = 0; i < smp.n; i++) {
     tmp[0] = 0; tmp[1] = 0; tmp[2] = 0;
     shielded(tmp, smp.p[3 * i], smp.p[3 * i + 1], smp.p[3 * i + 2]);
     bs[3 * i] = tmp[0]; bs[3 * i + 1] = tmp[1]; bs[3 * i + 2] = tmp[2];
     bMax = Math.max(bMax, Math.hypot(tmp[0], tmp[1], tmp[2]));
   }
-  let yOdd: boolean;
-  if (options.yOdd === 'auto' || options.yOdd === undefined) yOdd = yAsymmetric(smp, bs, bMax);
-  else yOdd = options.yOdd;
+  return { bs, bMax };
+}
 
-  // Term list: uniform parts, then per (i, j) the parities cc, cs, sc, ss (Y·Z).
-  const N = order;
-  const kappa = KAPPA / surface.scaleRe;
-  // Pairs with k/κ = m·1 or m·√2 only (i = 0, j = 0, i = j, or (3,4)-type triples), so every
-  // exponential is a power of exp(κ dx) or exp(√2 κ dx): two exp calls per evaluation.
-  const pairs: number[] = [];
-  for (let i = 0; i <= N; i++) for (let j = 0; j <= N; j++) if (i + j > 0 && squareFreePart(i * i + j * j) <= 2) pairs.push(i, j);
-  const np = pairs.length / 2;
-  const colPair: number[] = [];
-  const colKind: number[] = [];
-  // Uniform: kind −1 (x), −2 (y), −3 (z).
-  colPair.push(-1, -1); colKind.push(-1, -3);
-  if (yOdd) { colPair.push(-1); colKind.push(-2); }
-  for (let q = 0; q < np; q++) {
+/** The fit's columns: per column the pair index and the kind (−1, −2, −3 uniform x, y, z; 0..3 parities cc, cs, sc, ss of Y·Z). */
+interface Columns { pair: number[]; kind: number[] }
+
+/** Term list: uniform parts, then per (i, j) the parities that are not identically zero (y-odd ones only when asked). */
+function basisColumns(pairs: readonly number[], yOdd: boolean): Columns {
+  const pair: number[] = [];
+  const kind: number[] = [];
+  pair.push(-1, -1); kind.push(-1, -3);
+  if (yOdd) { pair.push(-1); kind.push(-2); }
+  for (let q = 0; q < pairs.length / 2; q++) {
     const i = pairs[2 * q], j = pairs[2 * q + 1];
-    colPair.push(q); colKind.push(0);
-    if (j > 0) { colPair.push(q); colKind.push(1); }
-    if (yOdd && i > 0) { colPair.push(q); colKind.push(2); }
-    if (yOdd && i > 0 && j > 0) { colPair.push(q); colKind.push(3); }
+    pair.push(q); kind.push(0);
+    if (j > 0) { pair.push(q); kind.push(1); }
+    if (yOdd && i > 0) { pair.push(q); kind.push(2); }
+    if (yOdd && i > 0 && j > 0) { pair.push(q); kind.push(3); }
   }
-  const nc = colPair.length;
+  return { pair, kind };
+}
 
-  const kern = makeKernel(pairs, N, kappa, surface.radiusRe(0), CLAMP_SCALES * surface.scaleRe, options.unrolled ?? true);
-  // Unweighted normal components of every basis field at every sample (column-major).
+/** Unweighted normal components of every basis field at every sample (column-major, ns × nc). */
+function normalComponents(smp: Samples, kern: Kernel, cols: Columns): Float64Array {
+  const ns = smp.n, nc = cols.pair.length;
   const an = new Float64Array(ns * nc);
+  const g = new Float64Array(3);
   for (let s = 0; s < ns; s++) {
     const x = smp.p[3 * s], y = smp.p[3 * s + 1], z = smp.p[3 * s + 2];
     const ux = smp.nrm[3 * s], uy = smp.nrm[3 * s + 1], uz = smp.nrm[3 * s + 2];
     kern.load(x, y, z);
     for (let c = 0; c < nc; c++) {
-      const kind = colKind[c];
+      const kind = cols.kind[c];
       let v: number;
       if (kind === -1) v = ux;
       else if (kind === -2) v = uy;
       else if (kind === -3) v = uz;
       else {
-        kern.grad(tmp, colPair[c], kind);
-        v = tmp[0] * ux + tmp[1] * uy + tmp[2] * uz;
+        kern.grad(g, cols.pair[c], kind);
+        v = g[0] * ux + g[1] * uy + g[2] * uz;
       }
       an[c * ns + s] = v;
     }
   }
+  return an;
+}
 
+/**
+ * Two weighted least-squares passes: weights √area / |B| with the shielded field
+ * first, then with the fitted total. Returns the field of the second pass, the
+ * total field at the samples and the matrix's condition estimate.
+ */
+function solveWeighted(smp: Samples, bs: Float64Array, bMax: number, an: Float64Array, kern: Kernel, cols: Columns): { field: FieldWriter; bTotal: Float64Array; conditionEstimate: number } {
+  const ns = smp.n, nc = cols.pair.length;
   const coef = new Float64Array(nc);
   const a = new Float64Array(ns * nc);
   const rhs = new Float64Array(ns);
   const wt = new Float64Array(ns);
+  const tmp = new Float64Array(3);
   const floor = bMax > 0 ? 1e-9 * bMax : 1;
   for (let s = 0; s < ns; s++) wt[s] = Math.sqrt(smp.area[s]) / Math.max(floor, Math.hypot(bs[3 * s], bs[3 * s + 1], bs[3 * s + 2]));
   let field: FieldWriter | null = null;
@@ -269,7 +185,7 @@ export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shield
     }
     for (let c = 0; c < nc; c++) for (let s = 0; s < ns; s++) a[c * ns + s] = an[c * ns + s] * wt[s];
     cond = leastSquaresQr(a, rhs, ns, nc, coef).conditionEstimate;
-    field = kern.build(colPair, colKind, coef);
+    field = kern.build(cols.pair, cols.kind, coef);
     for (let s = 0; s < ns; s++) {
       tmp[0] = bs[3 * s]; tmp[1] = bs[3 * s + 1]; tmp[2] = bs[3 * s + 2];
       field(tmp, smp.p[3 * s], smp.p[3 * s + 1], smp.p[3 * s + 2]);
@@ -277,8 +193,13 @@ export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shield
       wt[s] = Math.sqrt(smp.area[s]) / Math.max(floor, Math.hypot(tmp[0], tmp[1], tmp[2]));
     }
   }
+  return { field: field as FieldWriter, bTotal: bt, conditionEstimate: cond };
+}
+
+/** Area-weighted rms and maximum of |B·n| / |B| of the total field at the samples. */
+function surfaceResidual(smp: Samples, bt: Float64Array): { rms: number; max: number } {
   let sw = 0, sr = 0, rmax = 0;
-  for (let s = 0; s < ns; s++) {
+  for (let s = 0; s < smp.n; s++) {
     const b = Math.hypot(bt[3 * s], bt[3 * s + 1], bt[3 * s + 2]);
     const bn = bt[3 * s] * smp.nrm[3 * s] + bt[3 * s + 1] * smp.nrm[3 * s + 1] + bt[3 * s + 2] * smp.nrm[3 * s + 2];
     const r = b > 0 ? Math.abs(bn) / b : 0;
@@ -286,17 +207,7 @@ export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shield
     sr += smp.area[s] * r * r;
     if (r > rmax) rmax = r;
   }
-  const tm = surface.thetaMaxRad;
-  return {
-    evaluate: field as FieldWriter,
-    rmsResidualRel: Math.sqrt(sr / sw),
-    maxResidualRel: rmax,
-    nTerms: nc,
-    nSamples: ns,
-    conditionEstimate: cond,
-    yOdd,
-    fitRegion: { xMinRe: surface.radiusRe(tm) * Math.cos(tm), thetaMaxRad: tm },
-  };
+  return { rms: Math.sqrt(sr / sw), max: rmax };
 }
 
 /** True when B(x, −y, z) ≠ (Bx, −By, Bz)(x, y, z) on the samples (rings are mirror-symmetric in y). */

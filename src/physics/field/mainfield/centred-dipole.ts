@@ -1,5 +1,5 @@
 /** The centred (degree-1) dipole of a main-field coefficient set. */
-import { RAD } from '../../constants';
+import { DEG_PER_RAD as RAD } from '../../constants';
 import type { MainFieldCoefficients } from './coefficients';
 
 export interface CentredDipole {

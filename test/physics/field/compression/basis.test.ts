@@ -1,5 +1,5 @@
 import { describe, it } from 'vitest';
-import { sinSmall, cosSmall } from '../../../../src/physics/field/compression/basis';
+import { sinSmall, cosSmall } from '../../../../src/physics/field/compression/small-trig';
 import { expectAtMost } from '../../../helpers';
 
 describe('fast sin/cos of the compression basis against Math.* (reference: the platform libm)', () => {

@@ -2,17 +2,17 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { expectAtMost, expectBetween, expectClose } from '../../../helpers';
 import { addTiltedDipoleField } from '../../../../src/physics/field/dipole';
-import { MU0 } from '../../../../src/physics/constants';
+import { MU0, RAD_PER_DEG } from '../../../../src/physics/constants';
 import { InputError } from '../../../../src/physics/errors';
 import { magnetopauseNormal, magnetopausePoint, shueMagnetopause, shueRadius, type MagnetopauseShape } from '../../../../src/physics/field/magnetopause';
-import { prepareCompression, prepareCompressionOnSurface, sphereSurface, type CompressionField, type FieldWriter } from '../../../../src/physics/field/compression/fit';
+import { prepareCompression, prepareCompressionOnSurface, type CompressionField, type FieldWriter } from '../../../../src/physics/field/compression/fit';
+import { sphereSurface } from '../../../../src/physics/field/compression/surface';
 
 /** The 2025 dipole (references §1, §4). */
 const B0 = 29733;
-const DEG = Math.PI / 180;
 
 function tiltedDipole(tiltDeg: number): FieldWriter {
-  const s = Math.sin(tiltDeg * DEG), c = Math.cos(tiltDeg * DEG);
+  const s = Math.sin(tiltDeg * RAD_PER_DEG), c = Math.cos(tiltDeg * RAD_PER_DEG);
   return (o, x, y, z) => {
     o[0] = 0; o[1] = 0; o[2] = 0;
     addTiltedDipoleField(o, x, y, z, B0, s, c);

@@ -5,6 +5,7 @@ import { centredDipole } from '../../../../src/physics/field/mainfield/centred-d
 import { coefIndex, coefCount } from '../../../../src/physics/field/mainfield/layout';
 import { IGRF14_TABLE } from '../../../../src/physics/field/mainfield/igrf14-table';
 import { InputError } from '../../../../src/physics/errors';
+import { DEG_PER_RAD } from '../../../../src/physics/constants';
 
 const G10 = coefIndex(1, 0), G11 = coefIndex(1, 1);
 
@@ -33,8 +34,8 @@ describe('IGRF-14 coefficients by date', () => {
     // Axis is a unit vector consistent with the quoted lat/lon (derived).
     const a = d25.axisGeo;
     expectClose(Math.hypot(a[0], a[1], a[2]), 1, 1e-15, 'axis norm');
-    expectClose(Math.asin(a[2]) * 180 / Math.PI, d25.poleLatDeg, 1e-9, 'axis z vs pole latitude');
-    expectClose(Math.atan2(a[1], a[0]) * 180 / Math.PI, d25.poleLonDeg, 1e-9, 'axis lon vs pole longitude');
+    expectClose(Math.asin(a[2]) * DEG_PER_RAD, d25.poleLatDeg, 1e-9, 'axis z vs pole latitude');
+    expectClose(Math.atan2(a[1], a[0]) * DEG_PER_RAD, d25.poleLonDeg, 1e-9, 'axis lon vs pole longitude');
   });
 
   it('mid-epoch values are the average of the neighbouring epochs (IGRF linear interpolation rule)', () => {

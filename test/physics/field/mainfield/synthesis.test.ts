@@ -5,7 +5,7 @@ import { centredDipole } from '../../../../src/physics/field/mainfield/centred-d
 import { prepareMainField } from '../../../../src/physics/field/mainfield/synthesis';
 import { coefCount } from '../../../../src/physics/field/mainfield/layout';
 import { dipoleField } from '../../../../src/physics/field/dipole';
-import { DEG } from '../../../../src/physics/constants';
+import { RAD_PER_DEG } from '../../../../src/physics/constants';
 import { InputError } from '../../../../src/physics/errors';
 
 const igrf2025 = prepareMainField(igrfCoefficients(2025.0));
@@ -30,7 +30,7 @@ describe('spherical-harmonic main field', () => {
   it('IGRF-14 2025.0 sanity values at r = 6371.2 km (shared/data/README.md)', () => {
     const b = new Float64Array(3);
     for (const [lat, X, Y, Z, F] of [[0, 27554.3, -1930.2, -16088.1, 31965.5], [80, 6392.7, 136.1, 54496.7, 54870.5]]) {
-      igrf2025.evaluateSpherical(b, 1, (90 - lat) * DEG, 0);
+      igrf2025.evaluateSpherical(b, 1, (90 - lat) * RAD_PER_DEG, 0);
       const x = -b[1], y = b[2], z = -b[0];
       // Published to 0.1 nT (rounding ±0.05); measured worst |error| 0.039 nT.
       expectClose(x, X, 0.05, `X ${lat}°N 0°E`);

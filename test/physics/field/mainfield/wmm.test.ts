@@ -6,7 +6,7 @@ import { expectAtMost } from '../../../helpers';
 import { applySecularVariation } from '../../../../src/physics/field/mainfield/coefficients';
 import { prepareMainField, type MainFieldModel } from '../../../../src/physics/field/mainfield/synthesis';
 import { geoFromGeodetic } from '../../../../src/physics/frames/geodesy';
-import { DEG } from '../../../../src/physics/constants';
+import { RAD_PER_DEG } from '../../../../src/physics/constants';
 
 // Source: NOAA/BGS World Magnetic Model 2015, 2020, 2025 coefficients and NOAA's test values,
 // as shipped by the npm package `geomagnetism` (data/wmm-*.json, test/values.csv).
@@ -51,9 +51,9 @@ function worstError(list: Row[]): { worst: number; where: string } {
     const rho = Math.hypot(p[0], p[1]);
     const rRe = Math.hypot(rho, p[2]);
     const latGc = Math.atan2(p[2], rho);
-    model.evaluateSpherical(b, rRe, Math.PI / 2 - latGc, r.lon * DEG);
+    model.evaluateSpherical(b, rRe, Math.PI / 2 - latGc, r.lon * RAD_PER_DEG);
     const xp = -b[1], yp = b[2], zp = -b[0];
-    const psi = latGc - r.lat * DEG;
+    const psi = latGc - r.lat * RAD_PER_DEG;
     const X = xp * Math.cos(psi) - zp * Math.sin(psi);
     const Z = xp * Math.sin(psi) + zp * Math.cos(psi);
     const F = Math.hypot(X, yp, Z);

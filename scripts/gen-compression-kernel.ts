@@ -1,0 +1,151 @@
+/**
+ * Writes src/physics/field/compression/kernel.generated.ts: the compression
+ * basis of the default order written out term by term (no table indirection),
+ * the same formulas as the general evaluator in basis.ts `build`.
+ *
+ *   npx tsx scripts/gen-compression-kernel.ts
+ *
+ * test/physics/field/compression/generated.test.ts checks that the committed
+ * file equals this generator's output.
+ */
+import { writeFileSync } from 'node:fs';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { compressionPairs, squareFreePart } from '../src/physics/field/compression/pairs';
+
+/** The order written out. */
+export const GENERATED_ORDER = 4;
+
+/** Where the generated file lives. */
+export const GENERATED_PATH = fileURLToPath(new URL('../src/physics/field/compression/kernel.generated.ts', import.meta.url));
+
+interface Term { i: number; j: number; offset: number; expName: string }
+
+/** Name of base^p: `e`, `e2`, … */
+function powerName(base: string, p: number): string {
+  return p === 1 ? base : `${base}${p}`;
+}
+
+/** `const e2 = e * e, e3 = e2 * e, …` up to base^maxPow (even powers square, odd multiply once more). */
+function powerLine(base: string, maxPow: number): string {
+  const parts: string[] = [];
+  for (let p = 2; p <= maxPow; p++) {
+    parts.push(p % 2 === 0 ? `${powerName(base, p)} = ${powerName(base, p / 2)} * ${powerName(base, p / 2)}` : `${powerName(base, p)} = ${powerName(base, p - 1)} * ${base}`);
+  }
+  return parts.length ? `const ${parts.join(', ')};` : '';
+}
+
+/** Chebyshev recurrences cos/sin(nu) from n = 2 to order, for cosine names c and sine names s. */
+function chebyshevLines(c: string, s: string, order: number): string[] {
+  const out: string[] = [];
+  for (let n = 2; n <= order; n++) {
+    out.push(n === 2
+      ? `const ${c}2 = 2 * ${c}1 * ${c}1 - 1, ${s}2 = 2 * ${c}1 * ${s}1;`
+      : `const ${c}${n} = 2 * ${c}1 * ${c}${n - 1} - ${c}${n - 2}, ${s}${n} = 2 * ${c}1 * ${s}${n - 1} - ${s}${n - 2};`);
+  }
+  return out;
+}
+
+/** The lines adding one pair's field; y-even terms only, or all four parities. */
+function termLines(t: Term, odd: boolean): string[] {
+  const { i, j, expName: E } = t;
+  const K = (k: number) => `K[${t.offset + k}]`;
+  const out = [`// (${i},${j})`];
+  if (i === 0) {
+    out.push(`bx += ${E} * (${K(0)} * d${j} + ${K(1)} * t${j});`);
+    out.push(`bz += ${E} * (${K(9)} * d${j} - ${K(8)} * t${j});`);
+  } else if (j === 0) {
+    if (odd) {
+      out.push(`bx += ${E} * (${K(0)} * c${i} + ${K(2)} * s${i});`);
+      out.push(`by += ${E} * (${K(6)} * c${i} - ${K(4)} * s${i});`);
+    } else {
+      out.push(`bx += ${E} * ${K(0)} * c${i};`);
+      out.push(`by -= ${E} * ${K(4)} * s${i};`);
+    }
+  } else {
+    out.push(`ec = ${E} * c${i}; es = ${E} * s${i};`);
+    if (odd) {
+      out.push(`bx += ec * (${K(0)} * d${j} + ${K(1)} * t${j}) + es * (${K(2)} * d${j} + ${K(3)} * t${j});`);
+      out.push(`by += ec * (${K(6)} * d${j} + ${K(7)} * t${j}) - es * (${K(4)} * d${j} + ${K(5)} * t${j});`);
+      out.push(`bz += ec * (${K(9)} * d${j} - ${K(8)} * t${j}) + es * (${K(11)} * d${j} - ${K(10)} * t${j});`);
+    } else {
+      out.push(`bx += ec * (${K(0)} * d${j} + ${K(1)} * t${j});`);
+      out.push(`by -= es * (${K(4)} * d${j} + ${K(5)} * t${j});`);
+      out.push(`bz += ec * (${K(9)} * d${j} - ${K(8)} * t${j});`);
+    }
+  }
+  return out;
+}
+
+/** One evaluator body (the closure's statements). */
+function bodyLines(terms: Term[], order: number, maxE: number, maxG: number, odd: boolean): string[] {
+  const mixed = terms.some((t) => t.i > 0 && t.j > 0);
+  return [
+    'let dx = x - x0;',
+    'if (dx > dxMax) dx = dxMax;',
+    'const e = Math.exp(kappa * dx), g = Math.exp(r2 * dx);',
+    powerLine('e', maxE),
+    powerLine('g', maxG),
+    'const uy1 = kappa * y, uz1 = kappa * z;',
+    'const c1 = cosSmall(uy1), s1 = sinSmall(uy1);',
+    'const d1 = cosSmall(uz1), t1 = sinSmall(uz1);',
+    '// Chebyshev recurrences (angle addition).',
+    ...chebyshevLines('c', 's', order),
+    ...chebyshevLines('d', 't', order),
+    'let bx = ux, by = uy, bz = uz;',
+    ...(mixed ? ['let ec: number, es: number;'] : []),
+    ...terms.flatMap((t) => termLines(t, odd)),
+    'out[0] += bx; out[1] += by; out[2] += bz;',
+  ].filter((l) => l !== '');
+}
+
+/** The text of kernel.generated.ts for the given order. */
+export function generateCompressionKernel(order = GENERATED_ORDER): string {
+  const pairs = compressionPairs(order);
+  const terms: Term[] = [];
+  let maxE = 1, maxG = 1;
+  for (let q = 0; q < pairs.length / 2; q++) {
+    const i = pairs[2 * q], j = pairs[2 * q + 1];
+    const s2 = i * i + j * j;
+    const f = squareFreePart(s2);
+    const m = Math.round(Math.sqrt(s2 / f));
+    if (f === 1) maxE = Math.max(maxE, m);
+    else maxG = Math.max(maxG, m);
+    terms.push({ i, j, offset: 12 * q, expName: powerName(f === 1 ? 'e' : 'g', m) });
+  }
+  const indent = (lines: string[], n: number) => lines.map((l) => ' '.repeat(n) + l);
+  return [
+    '// Generated by scripts/gen-compression-kernel.ts — do not edit; run `npx tsx scripts/gen-compression-kernel.ts` instead.',
+    '// test/physics/field/compression/generated.test.ts fails when this file differs from the generator\'s output.',
+    'import type { FieldWriter } from \'../writer\';',
+    'import { cosSmall, sinSmall } from \'./small-trig\';',
+    '',
+    '/** The order written out. */',
+    `export const UNROLLED_ORDER = ${order};`,
+    '/** Its (i, j) pairs, in the order the evaluator expects (compressionPairs). */',
+    `export const UNROLLED_PAIRS = '${pairs.join(',')}';`,
+    '',
+    '/**',
+    ` * The basis of order ${order} written out term by term (same formulas as basis.ts \`build\`):`,
+    ' * two exp and four trig calls, powers and Chebyshev recurrences for the rest, no',
+    ' * table indirection. K holds per pair',
+    ' * [k·cc, k·cs, k·sc, k·ss, a·cc, a·cs, a·sc, a·ss, b·cc, b·cs, b·sc, b·ss].',
+    ' */',
+    'export function unrolledEvaluator(K: Float64Array, odd: boolean, ux: number, uy: number, uz: number, kappa: number, x0: number, dxMax: number): FieldWriter {',
+    '  const r2 = Math.SQRT2 * kappa;',
+    '  if (!odd) {',
+    '    return (out, x, y, z) => {',
+    ...indent(bodyLines(terms, order, maxE, maxG, false), 6),
+    '    };',
+    '  }',
+    '  return (out, x, y, z) => {',
+    ...indent(bodyLines(terms, order, maxE, maxG, true), 4),
+    '  };',
+    '}',
+    '',
+  ].join('\n');
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  writeFileSync(GENERATED_PATH, generateCompressionKernel());
+  console.log(`wrote ${GENERATED_PATH}`);
+}

@@ -1,0 +1,59 @@
+/**
+ * Bracketing root finders for one-dimensional searches whose function is costly
+ * (each value is a field-line trace). Both keep a bracket and never step outside it.
+ */
+
+/**
+ * Bisection on a predicate that holds at `lo` and fails at `hi` (a boundary
+ * between two regions): halves [lo, hi] until it is no wider than `tol` and
+ * returns its midpoint. `holds` is called once per halving, in order, so a caller
+ * may record what it learns at each probe.
+ */
+export function bisectBoundary(lo: number, hi: number, tol: number, holds: (x: number) => boolean): number {
+  while (hi - lo > tol) {
+    const mid = 0.5 * (lo + hi);
+    if (holds(mid)) lo = mid;
+    else hi = mid;
+  }
+  return 0.5 * (lo + hi);
+}
+
+/** Most iterations of `illinoisRoot`. */
+const ILLINOIS_MAX_ITERATIONS = 60;
+
+/**
+ * Root of an increasing g in [lo, hi] with g(lo) ≤ 0 < g(hi) by regula falsi,
+ * Illinois variant (Dowell & Jarratt, 1971, BIT 11, 168, citation from memory: the retained end's value
+ * is halved when the same end is kept twice). g may return NaN where it is not
+ * defined (e.g. beyond the end of a region): such a point counts as the high side
+ * and the step there falls back to bisection; `ghi` may be NaN on entry for the
+ * same reason. A step closer than 5 % of the bracket to either end is replaced by
+ * the midpoint (safeguard). Stops when the bracket is no wider than `tol` or the
+ * secant step from the newest point is below tol/4, and returns the secant
+ * estimate in that case, else the bracket midpoint.
+ */
+export function illinoisRoot(g: (x: number) => number, lo: number, glo: number, hi: number, ghi: number, tol: number): number {
+  let side = 0;
+  let root = NaN;
+  for (let it = 0; it < ILLINOIS_MAX_ITERATIONS && hi - lo > tol; it++) {
+    let x = Number.isFinite(ghi) && ghi !== glo ? lo + (hi - lo) * (glo / (glo - ghi)) : 0.5 * (lo + hi);
+    const guard = 0.05 * (hi - lo);
+    if (!(x > lo + guard && x < hi - guard)) x = 0.5 * (lo + hi);
+    const gx = g(x);
+    if (gx <= 0) {
+      lo = x; glo = gx;
+      if (side === -1 && Number.isFinite(ghi)) ghi *= 0.5;
+      side = -1;
+    } else {
+      hi = x; ghi = gx; // NaN when g is not defined at x
+      if (side === 1) glo *= 0.5;
+      side = 1;
+    }
+    // Converged: the secant step from the newest point is below a quarter of the tolerance.
+    if (Number.isFinite(gx) && Number.isFinite(ghi) && Number.isFinite(glo) && ghi !== glo) {
+      const slope = (ghi - glo) / (hi - lo);
+      if (slope > 0 && Math.abs(gx / slope) < 0.25 * tol) { root = x - gx / slope; break; }
+    }
+  }
+  return Number.isFinite(root) ? root : 0.5 * (lo + hi);
+}

@@ -15,6 +15,7 @@ import { traceCommand } from './commands/trace';
 import { ovalCommand } from './commands/oval';
 import { sweepCommand } from './commands/sweep';
 import { runBatch, batchHelp, BATCH_SUMMARY } from './batch/index';
+import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE } from './exit-codes';
 
 export interface CliIo {
   stdout(text: string): void;
@@ -28,10 +29,6 @@ export const COMMANDS: readonly CommandDef[] = [fieldCommand, traceCommand, oval
 
 /** Every command name, the streamed `batch` included (it parses and prints on its own). */
 export const COMMAND_NAMES: readonly string[] = [...COMMANDS.map((c) => c.name), 'batch'];
-
-export const EXIT_OK = 0;
-export const EXIT_FAILURE = 1;
-export const EXIT_USAGE = 2;
 
 export function topHelp(): string {
   const width = Math.max(...COMMANDS.map((c) => c.name.length)) + 4;

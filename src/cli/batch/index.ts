@@ -21,17 +21,13 @@ import { inProcessRunner, threadRunner, runOrdered, type JobRunner } from './poo
 import { fileSink, stdoutSink, outputPrefix, outputSuffix, chunkSeparator, type Sink } from './output';
 import { csvRecords, requireFile, countLines } from './read';
 import { Progress } from './progress';
+import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE, EXIT_ROWS_FAILED } from '../exit-codes';
 
 export interface BatchIo {
   stdout(text: string): void;
   stderr(text: string): void;
   now?(): Date;
 }
-
-export const EXIT_OK = 0;
-export const EXIT_FAILURE = 1;
-export const EXIT_USAGE = 2;
-export const EXIT_ROWS_FAILED = 3;
 
 const NAME = 'fieldline-atlas batch';
 const FORMATS: BatchFormat[] = ['csv', 'json', 'geojson'];

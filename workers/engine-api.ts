@@ -106,7 +106,7 @@ export function createEngineApi(): EngineApiInternals {
   const emptyFrames = (): FrameInfo => ({
     geoFromGsm: new Float64Array(9), sunGeo: new Float64Array(3), axisGeo: new Float64Array(3), tiltDeg: NaN, poleLatDeg: NaN, poleLonDeg: NaN, b0Nt: NaN, igrfEpoch: NaN,
   });
-  const emptyLines = (): LineBundle => ({ pointsGeo: new Float64Array(0), offsets: new Int32Array(1), kinds: new Uint8Array(0) });
+  const emptyLines = (): LineBundle => ({ pointsGeo: new Float64Array(0), offsets: new Int32Array(1), types: new Uint8Array(0) });
 
   const api: EngineApiInternals = {
     latest,
@@ -122,12 +122,12 @@ export function createEngineApi(): EngineApiInternals {
           for (const mlt of fan.mltHours) for (const lat of fan.magLatDeg) seeds.push([lat, mlt]);
           const chunks: Float64Array[] = [];
           const offsets = new Int32Array(seeds.length + 1);
-          const kinds = new Uint8Array(seeds.length);
+          const types = new Uint8Array(seeds.length);
           const s = new Float64Array(3);
           let total = 0;
           for (let i = 0; i < seeds.length; i++) {
             gsmAtMagneticLatMlt(s, m.frames, seeds[i][0], seeds[i][1], 0, true);
-            kinds[i] = t.trace(s[0], s[1], s[2]);
+            types[i] = t.trace(s[0], s[1], s[2]);
             const n = t.nPoints;
             const pts = new Float64Array(3 * n);
             const p = t.points;
@@ -148,7 +148,7 @@ export function createEngineApi(): EngineApiInternals {
           return {
             requestId, warnings: [...m.warnings], frames: frameInfo(m),
             magnetopause: { enabled: mp !== null, r0Re: mp ? mp.r0Re : NaN, alpha: mp ? mp.alpha : NaN },
-            lines: { pointsGeo, offsets, kinds },
+            lines: { pointsGeo, offsets, types },
           };
         });
     },

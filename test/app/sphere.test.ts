@@ -38,7 +38,7 @@ describe('display geometry', () => {
   });
 
   it('line bundle: one segment per consecutive point pair, never across lines, colours per kind', () => {
-    const b = { pointsGeo: new Float64Array(3 * 5), offsets: Int32Array.from([0, 3, 3, 5]), kinds: Uint8Array.from([0, 2, 1]) };
+    const b = { pointsGeo: new Float64Array(3 * 5), offsets: Int32Array.from([0, 3, 3, 5]), types: Uint8Array.from([0, 2, 1]) };
     const { index, colours } = bundleSegments(b);
     expect(Array.from(index)).toEqual([0, 1, 1, 2, 3, 4]);
     expect(Array.from(colours.subarray(9, 12))).not.toEqual(Array.from(colours.subarray(0, 3)));

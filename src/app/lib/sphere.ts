@@ -3,7 +3,7 @@
  * Pure: typed arrays in, typed arrays out; no three.js objects here.
  */
 import type { BoundaryCurve, LineBundle } from '../../../workers/protocol';
-import { kindRgb } from './palette';
+import { lineTypeRgb } from './palette';
 
 const DEG = Math.PI / 180;
 
@@ -35,7 +35,7 @@ export function bundleSegments(b: LineBundle): { positions: Float32Array; colour
   const index = new Uint32Array(nSeg * 2);
   let k = 0;
   for (let l = 0; l < nLines; l++) {
-    const [r, g, bl] = kindRgb(b.kinds[l]);
+    const [r, g, bl] = lineTypeRgb(b.types[l]);
     for (let i = b.offsets[l]; i < b.offsets[l + 1]; i++) {
       colours[3 * i] = r;
       colours[3 * i + 1] = g;

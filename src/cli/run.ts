@@ -7,7 +7,7 @@
 import { prepareModel, type PreparedModel } from '../physics/field/model';
 import { featureCollection } from '../io/geojson';
 import { writeJson } from '../io/json';
-import { UsageError, parseFlags, flagHelp } from './args';
+import { UsageError, errorText, parseFlags, flagHelp } from './args';
 import { commonFlags, conditionsFromFlags, conditionsBlock, programVersion, usageFromInputError, DEFAULT_ALT_KM, type OutputFormat } from './common';
 import type { CommandDef } from './command';
 import { fieldCommand } from './commands/field';
@@ -80,8 +80,7 @@ function report(io: CliIo, cmd: string, e: unknown): number {
     io.stderr(`${prefix}: ${usage.message}\n(see: ${cmd ? `${cmd} ` : ''}--help)\n`);
     return EXIT_USAGE;
   }
-  const msg = e instanceof Error ? e.message : String(e);
-  io.stderr(`${prefix}: computation failed: ${msg}\n`);
+  io.stderr(`${prefix}: computation failed: ${errorText(e)}\n`);
   return EXIT_FAILURE;
 }
 

@@ -16,6 +16,7 @@ import type { FieldConditions } from '../../physics/field/conditions';
 import { csvField, type CsvCell } from '../../io/csv';
 import { writeJson } from '../../io/json';
 import type { RowOutcome, SeriesCondition } from './inputs';
+import { errorText } from '../args';
 
 export type BatchFormat = 'csv' | 'json' | 'geojson';
 
@@ -179,8 +180,6 @@ export class RowFormatter {
   }
 }
 
-const message = (e: unknown): string => (e instanceof Error ? e.message : String(e));
-
 /** All rows of one condition, in site order. Never throws: problems become rows. */
 export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInput>[], st: BatchSettings): JobResult {
   const out = new RowFormatter(st);
@@ -196,7 +195,7 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
     try {
       model = prepareModel({ ...st.model, time: cond!.time, pdynNpa: cond!.pdynNpa, bzNt: cond!.bzNt, byNt: cond!.byNt });
     } catch (e) {
-      condProblem = { error: `${where}: ${message(e)}` };
+      condProblem = { error: `${where}: ${errorText(e)}` };
     }
   }
   const tConj = model ? makeTracer(model, { altKm: st.conjugateAltKm, ellipsoid: true }) : null;

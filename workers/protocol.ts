@@ -22,7 +22,7 @@ export interface FrameInfo {
   igrfEpoch: number;
 }
 
-export interface MagnetopauseInfo {
+interface MagnetopauseInfo {
   enabled: boolean;
   r0Re: number;
   alpha: number;

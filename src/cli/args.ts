@@ -28,7 +28,7 @@ export class UsageError extends Error {
   }
 }
 
-export type FlagKind = 'number' | 'integer' | 'enum' | 'switch' | 'string' | 'triple' | 'numbers';
+type FlagKind = 'number' | 'integer' | 'enum' | 'switch' | 'string' | 'triple' | 'numbers';
 
 export interface FlagSpec {
   /** Without dashes, e.g. "tilt-deg". */
@@ -50,7 +50,7 @@ export interface FlagSpec {
   required?: boolean;
 }
 
-export type FlagValue = number | string | boolean | number[];
+type FlagValue = number | string | boolean | number[];
 export type ParsedFlags = Record<string, FlagValue | undefined>;
 
 const NUMBER_RE = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;

@@ -17,20 +17,20 @@ import { sweepCommand } from './commands/sweep';
 import { runBatch, batchHelp, BATCH_SUMMARY } from './batch/index';
 import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE } from './exit-codes';
 
-export interface CliIo {
+interface CliIo {
   stdout(text: string): void;
   stderr(text: string): void;
   /** The default for --time. */
   now(): Date;
 }
 
-export const PROGRAM = 'fieldline-atlas';
-export const COMMANDS: readonly CommandDef[] = [fieldCommand, traceCommand, ovalCommand, sweepCommand];
+const PROGRAM = 'fieldline-atlas';
+const COMMANDS: readonly CommandDef[] = [fieldCommand, traceCommand, ovalCommand, sweepCommand];
 
 /** Every command name, the streamed `batch` included (it parses and prints on its own). */
-export const COMMAND_NAMES: readonly string[] = [...COMMANDS.map((c) => c.name), 'batch'];
+const COMMAND_NAMES: readonly string[] = [...COMMANDS.map((c) => c.name), 'batch'];
 
-export function topHelp(): string {
+function topHelp(): string {
   const width = Math.max(...COMMANDS.map((c) => c.name.length)) + 4;
   return [
     `${PROGRAM} ${programVersion()}: field lines, footpoints, conjugate points and oval boundaries`,
@@ -53,7 +53,7 @@ export function topHelp(): string {
   ].join('\n');
 }
 
-export function commandHelp(c: CommandDef): string {
+function commandHelp(c: CommandDef): string {
   return [
     `Usage: npm run --silent cli -- ${c.usage}`,
     '',

@@ -37,7 +37,7 @@ export function lineTypeRgb(code: number): [number, number, number] {
   return hexToRgb(LINE_COLOURS[lineTypeName(code)]);
 }
 
-export interface LegendEntry {
+interface LegendEntry {
   label: string;
   colour: string;
 }

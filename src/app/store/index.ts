@@ -19,7 +19,7 @@ export interface ProductSettings {
   minElevationDeg: number;
 }
 
-export interface ViewSettings {
+interface ViewSettings {
   magGraticule: boolean;
   fan: boolean;
   magnetopauseSurface: boolean;
@@ -28,7 +28,7 @@ export interface ViewSettings {
   sweepMlt: number;
 }
 
-export interface PerfMark {
+interface PerfMark {
   /** Sequence number of the latest condition change and when it happened (performance.now()). */
   seq: number;
   changedAt: number;
@@ -62,7 +62,7 @@ export interface AnsweredFor {
   view: ViewSettings;
 }
 
-export function initialState(): AppState {
+function initialState(): AppState {
   return {
     scenarioName: DEMO_SCENARIO.name,
     conditions: { ...DEMO_SCENARIO.conditions },

@@ -152,7 +152,7 @@ function fillResult(r: Row, m: PreparedModel, site: SiteInput, s: SiteResult): v
 }
 
 /** Formats rows; for GeoJSON each row is a Point at the conjugate point (null geometry without one). */
-export class RowFormatter {
+class RowFormatter {
   private readonly parts: string[] = [];
   constructor(private readonly settings: BatchSettings) {}
 

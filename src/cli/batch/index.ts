@@ -23,7 +23,7 @@ import { csvRecords, requireFile, countLines } from './read';
 import { Progress } from './progress';
 import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE, EXIT_ROWS_FAILED } from '../exit-codes';
 
-export interface BatchIo {
+interface BatchIo {
   stdout(text: string): void;
   stderr(text: string): void;
   now?(): Date;
@@ -32,7 +32,7 @@ export interface BatchIo {
 const NAME = 'fieldline-atlas batch';
 const FORMATS: BatchFormat[] = ['csv', 'json', 'geojson'];
 
-export const BATCH_FLAGS: FlagSpec[] = [
+const BATCH_FLAGS: FlagSpec[] = [
   { name: 'sites', kind: 'string', meta: '<sites.csv>', help: `site table; columns ${SITES_EXPECTED}`, required: true },
   { name: 'conditions', kind: 'string', meta: '<series.csv>', help: `solar-wind series; columns ${CONDITIONS_EXPECTED}`, defaultText: 'one condition from --time --pdyn --bz --by' },
   { name: 'out', kind: 'string', meta: '<file>', help: 'write the table here', defaultText: 'stdout' },

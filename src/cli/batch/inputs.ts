@@ -13,8 +13,8 @@ import { pdynFromPlasmaNominal } from '../../physics/field/magnetopause';
 import { InputError } from '../../physics/errors';
 import type { SiteInput } from '../../physics/mapping/site-report';
 
-export const SITE_COLUMNS = { required: ['name', 'lat_deg', 'lon_deg'], optional: ['height_km'] } as const;
-export const CONDITION_COLUMNS = { required: ['time', 'bz_nt'], pressure: ['pdyn_npa', 'density_cm3', 'speed_kms'], optional: ['by_nt'] } as const;
+const SITE_COLUMNS = { required: ['name', 'lat_deg', 'lon_deg'], optional: ['height_km'] } as const;
+const CONDITION_COLUMNS = { required: ['time', 'bz_nt'], pressure: ['pdyn_npa', 'density_cm3', 'speed_kms'], optional: ['by_nt'] } as const;
 
 export const SITES_EXPECTED = 'name, lat_deg, lon_deg, optional height_km';
 export const CONDITIONS_EXPECTED = 'time, bz_nt, and pdyn_npa or both density_cm3 and speed_kms; optional by_nt';
@@ -36,7 +36,7 @@ export interface SeriesCondition {
 }
 
 /** Column index by name, after checking the header against the expected columns. */
-export type HeaderIndex = Map<string, number>;
+type HeaderIndex = Map<string, number>;
 
 function headerNames(fields: string[]): string[] {
   return fields.map((h) => csvText(h.trim()));

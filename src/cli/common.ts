@@ -5,7 +5,7 @@
 import { readFileSync } from 'node:fs';
 import type { FieldConditions } from '../physics/field/conditions';
 import { DEFAULT_CONDITIONS, DEFAULT_IMF_EFFICIENCY, type PreparedModel } from '../physics/field/model';
-import { RAD } from '../physics/constants';
+import { RAD as DEG_PER_RAD } from '../physics/constants';
 import { InputError } from '../physics/errors';
 import { UsageError, inputErrorReason, type FlagSpec, type ParsedFlags } from './args';
 import { DEFAULT_SOURCE_RE, type Hemisphere } from '../physics/mapping/mapping';
@@ -106,7 +106,7 @@ export function conditionsBlock(model: PreparedModel, altKm: number, warnings: r
     pdynNpa: c.pdynNpa,
     bzNt: c.bzNt,
     byNt: c.byNt,
-    tiltDeg: model.frames.tiltRad * RAD,
+    tiltDeg: model.frames.tiltRad * DEG_PER_RAD,
     standoffRe: mp ? mp.r0Re : null,
     internal: c.internal,
     magnetopause: c.magnetopause,

@@ -2,10 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { expectClose } from '../helpers';
 import { bundleSegments, graticuleSegments, latLonOf, magnetopauseMesh, ovalBandMesh, sphereXyz } from '../../src/app/lib/sphere';
 import type { BoundaryCurve } from '../../workers/protocol';
+import { DEG as RAD_PER_DEG } from '../../src/physics/constants';
 
 // A rotation GSM → GEO (row-major): 30° about z then 20° about x, an arbitrary proper rotation.
 function rotation(): Float64Array {
-  const a = (30 * Math.PI) / 180, b = (20 * Math.PI) / 180;
+  const a = 30 * RAD_PER_DEG, b = 20 * RAD_PER_DEG;
   const rz = [Math.cos(a), -Math.sin(a), 0, Math.sin(a), Math.cos(a), 0, 0, 0, 1];
   const rx = [1, 0, 0, 0, Math.cos(b), -Math.sin(b), 0, Math.sin(b), Math.cos(b)];
   const m = new Float64Array(9);

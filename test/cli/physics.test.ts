@@ -2,6 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { cliJson } from './helpers';
 import { geoFromGeodetic } from '../../src/physics/frames/geodesy';
 import { expectClose, expectAtMost } from '../helpers';
+import { DEG as RAD_PER_DEG, RAD as DEG_PER_RAD } from '../../src/physics/constants';
 
 // Issue 3 checks run through the command line, each naming its source.
 const T = ['--time', '2025-03-20T22:00:00Z'];
@@ -10,7 +11,7 @@ const T = ['--time', '2025-03-20T22:00:00Z'];
 function dungeyBoundaryLatDeg(b0Nt: number, bNt: number, rRe: number): number {
   const rn = Math.cbrt(b0Nt / bNt); // neutral ring r_n = (B0/b)^(1/3)
   const sin2 = 3 / (2 * rn * (1 / rRe + (bNt * rRe * rRe) / (2 * b0Nt))); // sin²θc
-  return 90 - (Math.asin(Math.sqrt(sin2)) * 180) / Math.PI;
+  return 90 - Math.asin(Math.sqrt(sin2)) * DEG_PER_RAD;
 }
 
 const radiusRe = (latDeg: number, lonDeg: number) => Math.hypot(...geoFromGeodetic(new Float64Array(3), latDeg, lonDeg, 0));
@@ -92,7 +93,7 @@ describe('the conjugate of the conjugate returns the site (invariant, issue 3)',
       expect(c.hemisphere).toBe('south');
       const b = await cliJson('trace', '--lat', String(c.geoLatDeg), '--lon', String(c.geoLonDeg), '--height-km', String(c.altKm), ...common);
       expectClose(b.conjugate.geoLatDeg, site.lat, 0.01, 'latitude after two conjugations');
-      expectClose(b.conjugate.geoLonDeg, site.lon, 0.01 / Math.cos((site.lat * Math.PI) / 180), 'longitude after two conjugations (0.01° of arc)');
+      expectClose(b.conjugate.geoLonDeg, site.lon, 0.01 / Math.cos(site.lat * RAD_PER_DEG), 'longitude after two conjugations (0.01° of arc)');
     });
   }
 });
@@ -110,7 +111,7 @@ describe('dipole geometry through `trace` and `field` (references §1, derived)'
     // Each footpoint on its own radius r (110 km above the ellipsoid): cos²λ = r/L, to the tracer's 0.001° (issue 3).
     for (const f of [n, s]) {
       const r = Math.hypot(...geoFromGeodetic(new Float64Array(3), f.geoLatDeg, f.geoLonDeg, f.altKm));
-      const lam = (Math.acos(Math.sqrt(r / 4)) * 180) / Math.PI;
+      const lam = Math.acos(Math.sqrt(r / 4)) * DEG_PER_RAD;
       expectClose(Math.abs(f.magLatDeg), lam, 1e-3, `${f.hemisphere} footpoint latitude vs cos²λ = r/L, r = ${r.toFixed(6)} RE`);
     }
     expect(Math.sign(s.magLatDeg)).toBe(-Math.sign(n.magLatDeg));

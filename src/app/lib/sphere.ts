@@ -4,19 +4,18 @@
  */
 import type { BoundaryCurve, LineBundle } from '../../../workers/protocol';
 import { lineTypeRgb } from './palette';
-
-const DEG = Math.PI / 180;
+import { DEG as RAD_PER_DEG } from '../../physics/constants';
 
 /** Point on a sphere of radius rRe at geocentric lat/lon (display placement). */
 export function sphereXyz(latDeg: number, lonDeg: number, rRe: number): [number, number, number] {
-  const p = latDeg * DEG;
-  const l = lonDeg * DEG;
+  const p = latDeg * RAD_PER_DEG;
+  const l = lonDeg * RAD_PER_DEG;
   return [rRe * Math.cos(p) * Math.cos(l), rRe * Math.cos(p) * Math.sin(l), rRe * Math.sin(p)];
 }
 
 /** Geocentric lat/lon (deg) of a direction. */
 export function latLonOf(x: number, y: number, z: number): [number, number] {
-  return [Math.atan2(z, Math.hypot(x, y)) / DEG, Math.atan2(y, x) / DEG];
+  return [Math.atan2(z, Math.hypot(x, y)) / RAD_PER_DEG, Math.atan2(y, x) / RAD_PER_DEG];
 }
 
 /** v_geo = M v_gsm with M row-major (FrameInfo.geoFromGsm). */

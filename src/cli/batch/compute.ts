@@ -9,7 +9,7 @@ import { makeTracer, siteGsm } from '../../physics/mapping/mapping';
 import type { SiteInput, SiteResult } from '../../physics/mapping/site-report';
 import { siteRow, exactBoundaries, gridBoundaries } from './site-rows';
 import { applyMat3 } from '../../physics/frames/rotations';
-import { RAD } from '../../physics/constants';
+import { RAD as DEG_PER_RAD } from '../../physics/constants';
 import { parseUtc } from '../../physics/frames/time';
 import type { Footpoint } from '../../physics/trace/footpoint';
 import type { FieldConditions } from '../../physics/field/conditions';
@@ -101,7 +101,7 @@ function fillCondition(r: Row, line: number | null, c: SeriesCondition | null, m
   }
   if (m) {
     r[C.time] = new Date(m.ms).toISOString();
-    r[C.tilt_deg] = m.frames.tiltRad * RAD;
+    r[C.tilt_deg] = m.frames.tiltRad * DEG_PER_RAD;
   }
 }
 

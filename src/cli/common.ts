@@ -94,8 +94,8 @@ export function programVersion(): string {
 }
 
 /**
- * The conditions block: the keys fixed by issue 3 first, then extras (the
- * tail switch of issue 6, the tilt's origin, the Shue flaring exponent, the dipole of the date, the
+ * The conditions block: the keys fixed by the CLI contract (references §13)
+ * first, then extras (the tail switch, the tilt's origin, the Shue flaring exponent, the dipole of the date, the
  * coefficient epoch and the program version).
  */
 export function conditionsBlock(model: PreparedModel, altKm: number, warnings: readonly string[]): Record<string, unknown> {

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { parseFlags, parseNumberText, flagHelp, UsageError, type FlagSpec } from '../../src/cli/args';
 
-// Source: the CLI contract of issue 3 (flag names, "message naming the flag and the allowed values").
+// Source: the CLI contract, references §13 (flag names, "message naming the flag and the allowed values").
 const specs: FlagSpec[] = [
   { name: 'pdyn', kind: 'number', meta: '<nPa>', unit: 'nPa', above: 0, max: 1e4, help: 'pressure' },
   { name: 'bz', kind: 'number', meta: '<nT>', unit: 'nT', min: -1000, max: 1000, help: 'bz' },

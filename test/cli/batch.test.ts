@@ -1,6 +1,6 @@
 /**
  * The batch command end to end, in-process (small files in os.tmpdir()):
- * the bad-row contract of project issue 5, exit codes, header checks, CSV
+ * the bad-row contract (references §13), exit codes, header checks, CSV
  * injection escaping, --workers 1 ≡ --workers 2, shards, and agreement with
  * the `trace` command and the engine's boundary search (same engine, so equal).
  */
@@ -54,7 +54,7 @@ beforeAll(() => {
 
 afterAll(() => { rmSync(dir, { recursive: true, force: true }); });
 
-describe('batch: bad rows (issue 5, "Bad input")', () => {
+describe('batch: bad rows (references §13, bad input)', () => {
   it('gives each malformed row an error naming its line and problem, skips fill values and empty cells, and goes on', async () => {
     const bad = file('bad.csv', [
       'time,pdyn_npa,density_cm3,speed_kms,bz_nt,by_nt', // line 1
@@ -152,7 +152,7 @@ describe('batch: bad rows (issue 5, "Bad input")', () => {
   });
 });
 
-describe('batch: order, workers and shards (issue 5, "Scale")', () => {
+describe('batch: order, workers and shards (references §13, scale)', () => {
   it('writes the same bytes with --workers 1 (this thread) and --workers 2 (thread pool)', async () => {
     const a = await batch(['--sites', sites, '--conditions', series, '--workers', '1']);
     const b = await batch(['--sites', sites, '--conditions', series, '--workers', '2']);

@@ -7,7 +7,7 @@ import { geoJsonProblems } from '../../src/io/geojson';
 import { expectClose } from '../helpers';
 import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE } from '../../src/cli/exit-codes';
 
-// Source of every expectation here: the CLI contract of issue 3 item 4 (flag names, JSON keys,
+// Source of every expectation here: the CLI contract, references §13 (flag names, JSON keys,
 // exit codes 0/2/1, stdout = result only) and RFC 4180 / RFC 7946 for the file formats.
 const T = ['--time', '2025-03-20T22:00:00Z'];
 const CONDITION_KEYS = ['time', 'pdynNpa', 'bzNt', 'byNt', 'tiltDeg', 'standoffRe', 'internal', 'magnetopause', 'imfEfficiency', 'altKm', 'warnings'];

@@ -4,7 +4,7 @@ import { geoFromGeodetic } from '../../src/physics/frames/geodesy';
 import { expectClose, expectAtMost } from '../helpers';
 import { DEG as RAD_PER_DEG, RAD as DEG_PER_RAD } from '../../src/physics/constants';
 
-// Issue 3 checks run through the command line, each naming its source.
+// Physics checks run through the command line, each naming its source.
 const T = ['--time', '2025-03-20T22:00:00Z'];
 
 /** Dungey (1961) polar-cap boundary latitude at radius r for a centred dipole B0 plus a uniform southward b (references §5, derived). */
@@ -82,7 +82,7 @@ describe('the open–closed boundary moves equatorward as Bz turns southward (re
   });
 });
 
-describe('the conjugate of the conjugate returns the site (invariant, issue 3)', () => {
+describe('the conjugate of the conjugate returns the site (invariant of field-line mapping)', () => {
   for (const internal of ['dipole', 'igrf']) {
     it(`${internal}: ground site → conjugate → back, within 0.01°`, async () => {
       const site = { lat: 62.5, lon: 25.1 }; // a fictional site
@@ -108,7 +108,7 @@ describe('dipole geometry through `trace` and `field` (references §1, derived)'
     // Mirror in a tilted dipole (the tilt here comes from the date): same magnetic longitude, opposite latitude.
     const [n, s] = j.fieldLine.footpoints;
     expectClose(s.magLonDeg, n.magLonDeg, 1e-9, 'conjugate magnetic longitude');
-    // Each footpoint on its own radius r (110 km above the ellipsoid): cos²λ = r/L, to the tracer's 0.001° (issue 3).
+    // Each footpoint on its own radius r (110 km above the ellipsoid): cos²λ = r/L, to the tracer's 0.001° accuracy target.
     for (const f of [n, s]) {
       const r = Math.hypot(...geoFromGeodetic(new Float64Array(3), f.geoLatDeg, f.geoLonDeg, f.altKm));
       const lam = Math.acos(Math.sqrt(r / 4)) * DEG_PER_RAD;

@@ -1,9 +1,11 @@
 /**
  * The `oval` channel: the open–closed boundary and the equatorward edge per
- * MLT for both hemispheres, one sector at a time (a newer request stops it
- * between sectors), each search hinted by its two predecessors.
+ * MLT for both hemispheres, from the engine's oval loop (ovalSectors, the
+ * loop of ovalBoundaries) taken one sector at a time, so a newer request
+ * stops it between sectors.
  */
-import { sectorBoundaries, mltGrid, predictHint, DEFAULT_SOURCE_RE, type SectorBoundaries, type Hemisphere } from '../../src/physics/mapping/mapping';
+import { mltGrid, DEFAULT_SOURCE_RE, type SectorBoundaries, type Hemisphere } from '../../src/physics/mapping/mapping';
+import { ovalSectors } from '../../src/physics/mapping';
 import type { BoundaryCurve, EngineApi, OvalResult } from '../protocol';
 import type { EngineContext } from './context';
 
@@ -36,13 +38,12 @@ export function ovalChannel(ctx: EngineContext): EngineApi['oval'] {
     const curves: BoundaryCurve[] = [];
     for (const hemisphere of ['north', 'south'] as const) {
       const cur = emptyCurve(hemisphere, mlts);
-      let prev: SectorBoundaries | null = null, prev2: SectorBoundaries | null = null;
-      for (let i = 0; i < mlts.length; i++) {
-        await ctx.pause('oval', requestId);
-        const b = sectorBoundaries(m, t, hemisphere, mlts[i], opts, predictHint(prev, prev2));
-        prev2 = prev;
-        prev = b;
+      let i = 0;
+      await ctx.pause('oval', requestId);
+      // The generator computes a sector when asked for it: the pause sits before each sector's search.
+      for (const b of ovalSectors(m, t, hemisphere, mlts, opts)) {
         fillSector(cur, i, b);
+        if (++i < mlts.length) await ctx.pause('oval', requestId);
       }
       curves.push(cur);
     }

@@ -9,7 +9,7 @@ import type { EngineApi } from './protocol';
 
 const inner = createEngineApi();
 
-/** Collect the ArrayBuffers of the typed arrays in a result (one level of nesting into arrays/objects). */
+/** Collect the ArrayBuffers of the typed arrays in a result, down to 4 levels of nested arrays/objects (the answers need 3: sites → site → lineGeo). */
 function buffersOf(v: unknown, acc: Set<ArrayBuffer>, depth = 0): Set<ArrayBuffer> {
   if (depth > 4 || v === null || typeof v !== 'object') return acc;
   if (ArrayBuffer.isView(v)) {

@@ -7,9 +7,6 @@
  */
 import type { FieldConditions, ProductOptions } from '../src/physics/field/conditions';
 
-export type LineKind = 0 | 1 | 2; // 0 closed, 1 open, 2 unresolved
-export const LINE_KIND_NAMES = ['closed', 'open', 'unresolved'] as const;
-
 export interface FrameInfo {
   /** Row-major 3×3, GSM → GEO. */
   geoFromGsm: Float64Array;
@@ -25,7 +22,7 @@ export interface FrameInfo {
   igrfEpoch: number;
 }
 
-export interface MagnetopauseInfo {
+interface MagnetopauseInfo {
   enabled: boolean;
   r0Re: number;
   alpha: number;
@@ -36,7 +33,8 @@ export interface LineBundle {
   pointsGeo: Float64Array;
   /** Start index (in points, not floats) of each line; length nLines + 1. */
   offsets: Int32Array;
-  kinds: Uint8Array;
+  /** Line type of each line as the tracer's code (LINE_CLOSED, LINE_OPEN, LINE_UNRESOLVED of src/physics/trace/tracer.ts; names in LINE_TYPE_NAMES). */
+  types: Uint8Array;
 }
 
 export interface FanSpec {

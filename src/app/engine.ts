@@ -9,86 +9,93 @@ import { Channel } from './channel';
 import { store, type AnsweredFor, type AppState } from './store';
 
 /** The field-line fan: MLT meridians every 3 h, seeds from 58° to 82° magnetic latitude. */
-export const FAN: FanSpec = {
+const FAN: FanSpec = {
   mltHours: [0, 3, 6, 9, 12, 15, 18, 21],
   magLatDeg: [58, 63, 67, 70, 73, 76, 79, 82],
 };
 
 /** Sweep ranges: Pdyn 0.3–30 nPa (log spaced), Bz −20..+10 nT. */
-export const SWEEP = { pdyn: { from: 0.3, to: 30, steps: 13 }, bz: { from: -20, to: 10, steps: 13 } } as const;
+const SWEEP = { pdyn: { from: 0.3, to: 30, steps: 13 }, bz: { from: -20, to: 10, steps: 13 } } as const;
 
 const OVAL_MLT_STEP_H = 0.5;
 
-export interface EngineClient {
+interface EngineClient {
   dispose(): void;
   refreshSweep(): void;
 }
 
+type ChannelName = 'scene' | 'oval' | 'sites' | 'sweep';
+
+/** Store writer: an engine error for a channel. */
+const reportError = (ch: keyof AppState['errors']) => (msg: string) => store.set((s) => ({ errors: { ...s.errors, [ch]: msg } }));
+
+/** The errors without the channel's (the same object when it had none). */
+function errorsWithout(ch: keyof AppState['errors']): AppState['errors'] {
+  const e = store.get().errors;
+  if (e[ch] === undefined) return e;
+  const rest = { ...e };
+  delete rest[ch];
+  return rest;
+}
+
+/** Store writer: whether a channel has a request in flight. */
+const reportBusy = (ch: keyof AppState['pending']) => (b: boolean) => store.set((s) => ({ pending: { ...s.pending, [ch]: b } }));
+
+/** Which change (perf sequence) and which inputs each request was made for; the last 64 requests. */
+function requestBook() {
+  const seqOf = new Map<string, number>();
+  const inputsOf = new Map<string, AnsweredFor>();
+  return {
+    remember(ch: ChannelName, id: number): AppState {
+      const s = store.get();
+      const key = `${ch}${id}`;
+      seqOf.set(key, s.perf.seq);
+      inputsOf.set(key, { conditions: s.conditions, products: s.products, sites: s.sites, view: s.view });
+      if (inputsOf.size > 64) { const k = inputsOf.keys().next().value as string; inputsOf.delete(k); seqOf.delete(k); }
+      return s;
+    },
+    seq: (ch: ChannelName, id: number) => seqOf.get(`${ch}${id}`) ?? -1,
+    answered: (ch: ChannelName, id: number) => ({ answeredFor: { ...store.get().answeredFor, [ch]: inputsOf.get(`${ch}${id}`) } }),
+  };
+}
+
+const productOpts = (s: AppState) => ({ altKm: s.products.altKm, sourceRe: s.products.sourceRe });
+
 export function startEngine(makeWorker?: () => Worker): EngineClient {
   const worker = makeWorker ? makeWorker() : new Worker(new URL('../../workers/engine.worker.ts', import.meta.url), { type: 'module' });
   const api = Comlink.wrap<EngineApi>(worker);
-  const err = (ch: keyof AppState['errors']) => (msg: string) => store.set((s) => ({ errors: { ...s.errors, [ch]: msg } }));
-  const ok = (ch: keyof AppState['errors']) => {
-    const e = store.get().errors;
-    if (e[ch] === undefined) return e;
-    const rest = { ...e };
-    delete rest[ch];
-    return rest;
-  };
-  const busy = (ch: keyof AppState['pending']) => (b: boolean) => store.set((s) => ({ pending: { ...s.pending, [ch]: b } }));
-  worker.addEventListener('error', (e) => err('engine')(`engine worker failed: ${e.message || 'could not start'}`));
+  worker.addEventListener('error', (e) => reportError('engine')(`engine worker failed: ${e.message || 'could not start'}`));
 
   // Each answer remembers which change and which inputs it belongs to.
-  const seqOf = new Map<string, number>();
-  const inputsOf = new Map<string, AnsweredFor>();
-  const remember = (key: string) => {
-    const s = store.get();
-    seqOf.set(key, s.perf.seq);
-    inputsOf.set(key, { conditions: s.conditions, products: s.products, sites: s.sites, view: s.view });
-    if (inputsOf.size > 64) { const k = inputsOf.keys().next().value as string; inputsOf.delete(k); seqOf.delete(k); }
-  };
-  const answered = (ch: 'scene' | 'oval' | 'sites' | 'sweep', id: number) => ({ answeredFor: { ...store.get().answeredFor, [ch]: inputsOf.get(`${ch}${id}`) } });
-  const scene = new Channel<SceneResult>((a) => store.set({ scene: a, errors: ok('scene'), sceneSeq: seqOf.get(`scene${a.requestId}`) ?? -1, ...answered('scene', a.requestId) }), err('scene'), busy('scene'));
+  const book = requestBook();
+  const scene = new Channel<SceneResult>((a) => store.set({ scene: a, errors: errorsWithout('scene'), sceneSeq: book.seq('scene', a.requestId), ...book.answered('scene', a.requestId) }), reportError('scene'), reportBusy('scene'));
   // The sweep (many model preparations) waits until the oval is idle, so the refined oval comes first.
   let sweepDue = false;
-  const ovalBusy = busy('oval');
-  const oval = new Channel<OvalResult>((a) => store.set({ oval: a, errors: ok('oval'), ovalSeq: seqOf.get(`oval${a.requestId}`) ?? -1, ...answered('oval', a.requestId) }), err('oval'), (b) => {
+  const ovalBusy = reportBusy('oval');
+  const oval = new Channel<OvalResult>((a) => store.set({ oval: a, errors: errorsWithout('oval'), ovalSeq: book.seq('oval', a.requestId), ...book.answered('oval', a.requestId) }), reportError('oval'), (b) => {
     ovalBusy(b);
     if (!b && sweepDue) {
       sweepDue = false;
       askSweep();
     }
   });
-  const sites = new Channel<SitesResult>((a) => store.set({ siteResults: a, errors: ok('sites'), ...answered('sites', a.requestId) }), err('sites'), busy('sites'));
-  const sweep = new Channel<SweepResult>((a) => store.set({ sweep: a, errors: ok('sweep'), ...answered('sweep', a.requestId) }), err('sweep'), busy('sweep'));
+  const sites = new Channel<SitesResult>((a) => store.set({ siteResults: a, errors: errorsWithout('sites'), ...book.answered('sites', a.requestId) }), reportError('sites'), reportBusy('sites'));
+  const sweep = new Channel<SweepResult>((a) => store.set({ sweep: a, errors: errorsWithout('sweep'), ...book.answered('sweep', a.requestId) }), reportError('sweep'), reportBusy('sweep'));
 
-  const productOpts = (s: AppState) => ({ altKm: s.products.altKm, sourceRe: s.products.sourceRe });
-
-  const askScene = () =>
-    scene.request((id) => {
-      const s = store.get();
-      remember(`scene${id}`);
-      return api.scene(id, s.conditions, FAN);
-    });
-  const askOval = () =>
-    oval.request((id) => {
-      const s = store.get();
-      remember(`oval${id}`);
-      return api.oval(id, s.conditions, { ...productOpts(s), mltStepHours: OVAL_MLT_STEP_H });
-    });
-  const askSites = () =>
-    sites.request((id) => {
-      const s = store.get();
-      remember(`sites${id}`);
-      return api.sites(id, s.conditions, { ...productOpts(s), conjugateAltKm: 0, minElevationDeg: s.products.minElevationDeg }, s.sites);
-    });
-  const askSweep = () =>
-    sweep.request((id) => {
-      const s = store.get();
-      remember(`sweep${id}`);
-      const v = s.view.sweepVary;
-      return api.sweep(id, s.conditions, { ...productOpts(s), vary: v, ...SWEEP[v], mltHours: s.view.sweepMlt });
-    });
+  const askScene = () => scene.request((id) => api.scene(id, book.remember('scene', id).conditions, FAN));
+  const askOval = () => oval.request((id) => {
+    const s = book.remember('oval', id);
+    return api.oval(id, s.conditions, { ...productOpts(s), mltStepHours: OVAL_MLT_STEP_H });
+  });
+  const askSites = () => sites.request((id) => {
+    const s = book.remember('sites', id);
+    return api.sites(id, s.conditions, { ...productOpts(s), conjugateAltKm: 0, minElevationDeg: s.products.minElevationDeg }, s.sites);
+  });
+  const askSweep = () => sweep.request((id) => {
+    const s = book.remember('sweep', id);
+    const v = s.view.sweepVary;
+    return api.sweep(id, s.conditions, { ...productOpts(s), vary: v, ...SWEEP[v], mltHours: s.view.sweepMlt });
+  });
 
   // Refined products wait until the controls rest a moment, so dragging stays fluid.
   let settle: ReturnType<typeof setTimeout> | undefined;

@@ -5,7 +5,7 @@ import { store } from './store';
 import { writeJson } from '../io/json';
 import { snapshotPng } from './scene/snapshot';
 
-export function exportMeta(): ExportMeta {
+function exportMeta(): ExportMeta {
   const s = store.get();
   return {
     generator: 'Fieldline Atlas (browser)',

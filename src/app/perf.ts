@@ -3,7 +3,7 @@
  * and when the frame that first showed its lines / its oval was rendered.
  * Exposed on window.__atlasPerf (read by bench/browser.ts and the e2e tests).
  */
-export interface PerfRecord {
+interface PerfRecord {
   seq: number;
   changedAt: number;
   sceneDrawnAt?: number;
@@ -45,7 +45,7 @@ export function frameRendered(ms = 0, calls = 0, prims = 0): void {
 }
 
 /** Record when a frame with that change's data was rendered. */
-export function noteDrawn(what: 'scene' | 'oval', seq: number): void {
+function noteDrawn(what: 'scene' | 'oval', seq: number): void {
   const r = records.get(seq);
   if (!r) return;
   const key = what === 'scene' ? 'sceneDrawnAt' : 'ovalDrawnAt';

@@ -9,7 +9,7 @@ import { DEFAULT_SOURCE_RE } from '../physics/mapping';
 import type { SiteInput } from '../../workers/protocol';
 import type { ProductSettings } from './store';
 
-export interface Scenario {
+interface Scenario {
   name: string;
   conditions: FieldConditions;
   products: ProductSettings;

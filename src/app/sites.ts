@@ -3,7 +3,7 @@ import type { SiteInput } from '../../workers/protocol';
 import { store, setSites } from './store';
 
 /** At most this many sites, so a pasted file cannot stall the worker. */
-export const MAX_SITES = 200;
+const MAX_SITES = 200;
 
 function nextName(sites: SiteInput[]): string {
   let k = sites.length + 1;
@@ -12,7 +12,7 @@ function nextName(sites: SiteInput[]): string {
 }
 
 /** Normalise to lat −90..90, lon −180..180 (rounded to 1e-4°, about 10 m). */
-export function normaliseSite(name: string, latDeg: number, lonDeg: number): SiteInput | null {
+function normaliseSite(name: string, latDeg: number, lonDeg: number): SiteInput | null {
   if (!Number.isFinite(latDeg) || !Number.isFinite(lonDeg) || Math.abs(latDeg) > 90) return null;
   let lon = ((((lonDeg + 180) % 360) + 360) % 360) - 180;
   if (lon === -180 && lonDeg > 0) lon = 180;

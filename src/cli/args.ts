@@ -5,6 +5,19 @@
  * a UsageError naming the flag and what is allowed (exit code 2).
  */
 
+import { InputError } from '../physics/errors';
+
+/** The text of a thrown value: an Error's message, else the value as text. */
+export function errorText(e: unknown): string {
+  return e instanceof Error ? e.message : String(e);
+}
+
+/** What an engine InputError says without its leading input name ("pdynNpa: …" → "…"), to re-word it for a flag or a column. */
+export function inputErrorReason(e: InputError): string {
+  const prefix = `${e.field}: `;
+  return e.message.startsWith(prefix) ? e.message.slice(prefix.length) : e.message;
+}
+
 export class UsageError extends Error {
   /** The flag at fault, with its dashes (e.g. "--pdyn"), or "" for the command itself. */
   readonly flag: string;
@@ -15,7 +28,7 @@ export class UsageError extends Error {
   }
 }
 
-export type FlagKind = 'number' | 'integer' | 'enum' | 'switch' | 'string' | 'triple' | 'numbers';
+type FlagKind = 'number' | 'integer' | 'enum' | 'switch' | 'string' | 'triple' | 'numbers';
 
 export interface FlagSpec {
   /** Without dashes, e.g. "tilt-deg". */
@@ -37,7 +50,7 @@ export interface FlagSpec {
   required?: boolean;
 }
 
-export type FlagValue = number | string | boolean | number[];
+type FlagValue = number | string | boolean | number[];
 export type ParsedFlags = Record<string, FlagValue | undefined>;
 
 const NUMBER_RE = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
@@ -54,6 +67,12 @@ function rangeText(s: FlagSpec): string {
   if (s.above !== undefined) return `a number > ${s.above}${u}`;
   if (s.min !== undefined && s.max !== undefined) return `${s.kind === 'integer' ? 'a whole number' : 'a number'} in ${s.min}..${s.max}${u}`;
   return `${s.kind === 'integer' ? 'a whole number' : 'a number'}${u ? ` in${u}` : ''}`;
+}
+
+/** One named item of a flag's value (e.g. the latitude of --geo) against an inclusive range; returns it. */
+export function requireFlagItem(flag: string, item: string, v: number, range: { min: number; max: number }, unit: string): number {
+  if (v < range.min || v > range.max) throw new UsageError(flag, `${item}: expected ${rangeText({ name: '', kind: 'number', help: '', unit, ...range })}, got ${v}`);
+  return v;
 }
 
 function checkNumber(s: FlagSpec, raw: string, label: string): number {

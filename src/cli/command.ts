@@ -5,7 +5,7 @@ import type { FeatureCollection } from '../io/geojson';
 import type { FlagSpec, ParsedFlags } from './args';
 import type { OutputFormat } from './common';
 
-export interface CommandContext {
+interface CommandContext {
   flags: ParsedFlags;
   conditions: FieldConditions;
   /** The model for `conditions` (sweeps prepare more of their own). */
@@ -15,7 +15,7 @@ export interface CommandContext {
   warn(message: string): void;
 }
 
-export interface CommandResult {
+interface CommandResult {
   /** Members after the conditions block. */
   json: Record<string, unknown>;
   /** Header-first CSV text. */

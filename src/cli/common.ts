@@ -7,25 +7,57 @@ import type { FieldConditions } from '../physics/field/conditions';
 import { DEFAULT_CONDITIONS, DEFAULT_IMF_EFFICIENCY, type PreparedModel } from '../physics/field/model';
 import { DEG_PER_RAD } from '../physics/constants';
 import { InputError } from '../physics/errors';
-import { UsageError, type FlagSpec, type ParsedFlags } from './args';
+import { UsageError, inputErrorReason, type FlagSpec, type ParsedFlags } from './args';
+import { DEFAULT_SOURCE_RE, type Hemisphere } from '../physics/mapping';
 
 export type OutputFormat = 'json' | 'csv' | 'geojson';
 
 /** Default footpoint altitude, km (common practice for the auroral emission height, references §7). */
 export const DEFAULT_ALT_KM = 110;
 
+/**
+ * The allowed range of each input kind the CLI reads, shared by its flags and
+ * the batch table's columns (inclusive min/max; `above` an exclusive lower bound).
+ */
+export const INPUT_RANGES = {
+  latDeg: { min: -90, max: 90 },
+  lonDeg: { min: -360, max: 360 },
+  siteHeightKm: { min: -1, max: 100_000 },
+  pdynNpa: { above: 0, max: 1e4 },
+  imfNt: { min: -1000, max: 1000 },
+  altKm: { min: 0, max: 5000 },
+  sourceRe: { min: 1.5, max: 100 },
+} as const;
+
+/** --source-re, the same for every command that finds the equatorward edge. */
+export const SOURCE_RE_FLAG: FlagSpec = { name: 'source-re', kind: 'number', meta: '<RE>', unit: 'RE', ...INPUT_RANGES.sourceRe, help: 'equatorial source distance of the equatorward edge', defaultText: String(DEFAULT_SOURCE_RE) };
+
+/** --hemisphere north|south|both. */
+export const HEMISPHERE_FLAG = (help: string): FlagSpec => ({ name: 'hemisphere', kind: 'enum', meta: 'north|south|both', values: ['north', 'south', 'both'], help, defaultText: 'both' });
+
+/** The hemispheres chosen by --hemisphere (both when not given). */
+export function hemispheresOf(f: ParsedFlags): Hemisphere[] {
+  const choice = f.hemisphere as string | undefined;
+  return choice === 'north' ? ['north'] : choice === 'south' ? ['south'] : ['north', 'south'];
+}
+
+/** --source-re or its default. */
+export function sourceReOf(f: ParsedFlags): number {
+  return (f['source-re'] as number | undefined) ?? DEFAULT_SOURCE_RE;
+}
+
 export function commonFlags(formats: readonly OutputFormat[]): FlagSpec[] {
   return [
     { name: 'time', kind: 'string', meta: '<ISO 8601 UTC>', help: 'instant, e.g. 2025-03-20T22:00:00Z', defaultText: 'now' },
-    { name: 'pdyn', kind: 'number', meta: '<nPa>', unit: 'nPa', above: 0, max: 1e4, help: 'solar-wind dynamic pressure', defaultText: String(DEFAULT_CONDITIONS.pdynNpa) },
-    { name: 'bz', kind: 'number', meta: '<nT>', unit: 'nT', min: -1000, max: 1000, help: 'IMF Bz (GSM)', defaultText: String(DEFAULT_CONDITIONS.bzNt) },
-    { name: 'by', kind: 'number', meta: '<nT>', unit: 'nT', min: -1000, max: 1000, help: 'IMF By (GSM)', defaultText: String(DEFAULT_CONDITIONS.byNt) },
+    { name: 'pdyn', kind: 'number', meta: '<nPa>', unit: 'nPa', ...INPUT_RANGES.pdynNpa, help: 'solar-wind dynamic pressure', defaultText: String(DEFAULT_CONDITIONS.pdynNpa) },
+    { name: 'bz', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.imfNt, help: 'IMF Bz (GSM)', defaultText: String(DEFAULT_CONDITIONS.bzNt) },
+    { name: 'by', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.imfNt, help: 'IMF By (GSM)', defaultText: String(DEFAULT_CONDITIONS.byNt) },
     { name: 'tilt-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'dipole tilt, overrides the tilt from --time', defaultText: 'from --time' },
     { name: 'internal', kind: 'enum', meta: 'dipole|igrf', values: ['dipole', 'igrf'], help: 'main field: centred dipole of the date or full IGRF-14', defaultText: DEFAULT_CONDITIONS.internal },
     { name: 'magnetopause', kind: 'enum', meta: 'on|off', values: ['on', 'off'], help: 'off removes both the compression term and the boundary', defaultText: 'on' },
     { name: 'tail', kind: 'enum', meta: 'on|off', values: ['on', 'off'], help: 'tail current-sheet term (off for the dipole + magnetopause analytic limits)', defaultText: DEFAULT_CONDITIONS.tail ? 'on' : 'off' },
     { name: 'imf-efficiency', kind: 'number', meta: '<0..1>', min: 0, max: 1, help: 'share of the IMF that penetrates the magnetosphere', defaultText: String(DEFAULT_IMF_EFFICIENCY) },
-    { name: 'alt-km', kind: 'number', meta: '<km>', unit: 'km', min: 0, max: 5000, help: 'footpoint altitude above the WGS84 ellipsoid', defaultText: String(DEFAULT_ALT_KM) },
+    { name: 'alt-km', kind: 'number', meta: '<km>', unit: 'km', ...INPUT_RANGES.altKm, help: 'footpoint altitude above the WGS84 ellipsoid', defaultText: String(DEFAULT_ALT_KM) },
     { name: 'format', kind: 'enum', meta: formats.join('|'), values: formats, help: 'output format', defaultText: 'json' },
     { name: 'help', kind: 'switch', help: 'show this help' },
   ];
@@ -62,8 +94,8 @@ export function programVersion(): string {
 }
 
 /**
- * The conditions block: the keys fixed by the CLI contract (references §13) first, then extras (the
- * tail switch, the tilt's origin, the Shue flaring exponent, the dipole of the date, the
+ * The conditions block: the keys fixed by the CLI contract (references §13)
+ * first, then extras (the tail switch, the tilt's origin, the Shue flaring exponent, the dipole of the date, the
  * coefficient epoch and the program version).
  */
 export function conditionsBlock(model: PreparedModel, altKm: number, warnings: readonly string[]): Record<string, unknown> {
@@ -121,8 +153,15 @@ const FLAG_OF_FIELD: Record<string, string> = {
 export function usageFromInputError(e: unknown): UsageError | null {
   if (!(e instanceof InputError)) return null;
   const flag = FLAG_OF_FIELD[e.field];
-  if (!flag) return null;
-  const prefix = `${e.field}: `;
-  const msg = e.message.startsWith(prefix) ? e.message.slice(prefix.length) : e.message;
-  return new UsageError(flag, msg);
+  return flag ? new UsageError(flag, inputErrorReason(e)) : null;
+}
+
+/** Run an engine check of a flag's value; its InputError becomes a UsageError for `flag`. */
+export function checkFlag(flag: string, check: () => void): void {
+  try {
+    check();
+  } catch (e) {
+    if (e instanceof InputError) throw new UsageError(flag, inputErrorReason(e));
+    throw e;
+  }
 }

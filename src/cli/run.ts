@@ -7,7 +7,7 @@
 import { prepareModel, type PreparedModel } from '../physics/field/model';
 import { featureCollection } from '../io/geojson';
 import { writeJson } from '../io/json';
-import { UsageError, parseFlags, flagHelp } from './args';
+import { UsageError, errorText, parseFlags, flagHelp } from './args';
 import { commonFlags, conditionsFromFlags, conditionsBlock, programVersion, usageFromInputError, DEFAULT_ALT_KM, type OutputFormat } from './common';
 import type { CommandDef } from './command';
 import { fieldCommand } from './commands/field';
@@ -15,25 +15,22 @@ import { traceCommand } from './commands/trace';
 import { ovalCommand } from './commands/oval';
 import { sweepCommand } from './commands/sweep';
 import { runBatch, batchHelp, BATCH_SUMMARY } from './batch/index';
+import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE } from './exit-codes';
 
-export interface CliIo {
+interface CliIo {
   stdout(text: string): void;
   stderr(text: string): void;
   /** The default for --time. */
   now(): Date;
 }
 
-export const PROGRAM = 'fieldline-atlas';
-export const COMMANDS: readonly CommandDef[] = [fieldCommand, traceCommand, ovalCommand, sweepCommand];
+const PROGRAM = 'fieldline-atlas';
+const COMMANDS: readonly CommandDef[] = [fieldCommand, traceCommand, ovalCommand, sweepCommand];
 
 /** Every command name, the streamed `batch` included (it parses and prints on its own). */
-export const COMMAND_NAMES: readonly string[] = [...COMMANDS.map((c) => c.name), 'batch'];
+const COMMAND_NAMES: readonly string[] = [...COMMANDS.map((c) => c.name), 'batch'];
 
-export const EXIT_OK = 0;
-export const EXIT_FAILURE = 1;
-export const EXIT_USAGE = 2;
-
-export function topHelp(): string {
+function topHelp(): string {
   const width = Math.max(...COMMANDS.map((c) => c.name.length)) + 4;
   return [
     `${PROGRAM} ${programVersion()}: field lines, footpoints, conjugate points and oval boundaries`,
@@ -56,7 +53,7 @@ export function topHelp(): string {
   ].join('\n');
 }
 
-export function commandHelp(c: CommandDef): string {
+function commandHelp(c: CommandDef): string {
   return [
     `Usage: npm run --silent cli -- ${c.usage}`,
     '',
@@ -83,8 +80,7 @@ function report(io: CliIo, cmd: string, e: unknown): number {
     io.stderr(`${prefix}: ${usage.message}\n(see: ${cmd ? `${cmd} ` : ''}--help)\n`);
     return EXIT_USAGE;
   }
-  const msg = e instanceof Error ? e.message : String(e);
-  io.stderr(`${prefix}: computation failed: ${msg}\n`);
+  io.stderr(`${prefix}: computation failed: ${errorText(e)}\n`);
   return EXIT_FAILURE;
 }
 

@@ -5,7 +5,7 @@
  */
 import { readCsvTable } from './csv';
 
-export interface ImportedSite {
+interface ImportedSite {
   name: string;
   latDeg: number;
   lonDeg: number;

@@ -20,7 +20,7 @@ export interface ExportMeta {
 
 const r = (v: number | null | undefined, d: number): number | null => (v == null || !Number.isFinite(v) ? null : Math.round(v * 10 ** d) / 10 ** d);
 
-export const SITE_HEADER = [
+const SITE_HEADER = [
   'name', 'lat_deg', 'lon_deg', 'line_type', 'conjugate_lat_deg', 'conjugate_lon_deg', 'conjugate_alt_km',
   'equator_distance_re', 'l_shell', 'mlt_h', 'mag_lat_deg', 'oval_relation',
   'sky_elevation_deg', 'sky_azimuth_deg', 'sky_distance_km', 'sky_visible',
@@ -41,7 +41,7 @@ export function sitesCsv(sites: SiteResult[]): string {
   return writeCsv(SITE_HEADER, sites.map(siteRow));
 }
 
-export const BOUNDARY_HEADER = [
+const BOUNDARY_HEADER = [
   'hemisphere', 'mlt_h', 'open_closed_mag_lat_deg', 'open_closed_geo_lat_deg', 'open_closed_geo_lon_deg',
   'equatorward_mag_lat_deg', 'equatorward_geo_lat_deg', 'equatorward_geo_lon_deg',
 ];

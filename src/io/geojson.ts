@@ -10,9 +10,9 @@
 
 export type Position = number[];
 
-export interface PointGeometry { type: 'Point'; coordinates: Position }
-export interface LineStringGeometry { type: 'LineString'; coordinates: Position[] }
-export interface MultiLineStringGeometry { type: 'MultiLineString'; coordinates: Position[][] }
+interface PointGeometry { type: 'Point'; coordinates: Position }
+interface LineStringGeometry { type: 'LineString'; coordinates: Position[] }
+interface MultiLineStringGeometry { type: 'MultiLineString'; coordinates: Position[][] }
 export type Geometry = PointGeometry | LineStringGeometry | MultiLineStringGeometry;
 
 export interface Feature<G extends Geometry | null = Geometry | null> {

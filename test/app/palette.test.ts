@@ -1,20 +1,20 @@
 import { describe, expect, it } from 'vitest';
-import { hexToRgb, kindName, kindRgb, lineLegend, LINE_COLOURS } from '../../src/app/lib/palette';
-import { LINE_KIND_NAMES } from '../../workers/protocol';
+import { hexToRgb, lineTypeName, lineTypeRgb, lineLegend, LINE_COLOURS } from '../../src/app/lib/palette';
+import { LINE_TYPE_NAMES } from '../../src/physics/trace/line-type';
 
 describe('line colours and legend', () => {
-  it('maps every kind code of the protocol to its own colour', () => {
+  it('maps every line-type code of the tracer to its own colour', () => {
     const seen = new Set<string>();
-    LINE_KIND_NAMES.forEach((name, code) => {
-      expect(kindName(code)).toBe(name);
+    LINE_TYPE_NAMES.forEach((name, code) => {
+      expect(lineTypeName(code)).toBe(name);
       seen.add(LINE_COLOURS[name]);
     });
-    expect(seen.size).toBe(LINE_KIND_NAMES.length);
+    expect(seen.size).toBe(LINE_TYPE_NAMES.length);
   });
 
   it('treats unknown codes as unresolved', () => {
-    expect(kindName(7)).toBe('unresolved');
-    expect(kindRgb(7)).toEqual(kindRgb(2));
+    expect(lineTypeName(7)).toBe('unresolved');
+    expect(lineTypeRgb(7)).toEqual(lineTypeRgb(2));
   });
 
   it('converts hex to 0..1 RGB and rejects bad input', () => {
@@ -22,7 +22,7 @@ describe('line colours and legend', () => {
     expect(() => hexToRgb('orange')).toThrow(/expected #rrggbb/);
   });
 
-  it('counts kinds in the legend', () => {
+  it('counts line types in the legend', () => {
     const legend = lineLegend(Uint8Array.from([0, 0, 1, 2, 0]));
     expect(legend.map((l) => l.label)).toEqual(['closed (3)', 'open (1)', 'unresolved (1)']);
   });

@@ -2,10 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { expectClose } from '../helpers';
 import { bundleSegments, graticuleSegments, latLonOf, magnetopauseMesh, ovalBandMesh, sphereXyz } from '../../src/app/lib/sphere';
 import type { BoundaryCurve } from '../../workers/protocol';
+import { RAD_PER_DEG } from '../../src/physics/constants';
 
 // A rotation GSM → GEO (row-major): 30° about z then 20° about x, an arbitrary proper rotation.
 function rotation(): Float64Array {
-  const a = (30 * Math.PI) / 180, b = (20 * Math.PI) / 180;
+  const a = 30 * RAD_PER_DEG, b = 20 * RAD_PER_DEG;
   const rz = [Math.cos(a), -Math.sin(a), 0, Math.sin(a), Math.cos(a), 0, 0, 0, 1];
   const rx = [1, 0, 0, 0, Math.cos(b), -Math.sin(b), 0, Math.sin(b), Math.cos(b)];
   const m = new Float64Array(9);
@@ -38,7 +39,7 @@ describe('display geometry', () => {
   });
 
   it('line bundle: one segment per consecutive point pair, never across lines, colours per kind', () => {
-    const b = { pointsGeo: new Float64Array(3 * 5), offsets: Int32Array.from([0, 3, 3, 5]), kinds: Uint8Array.from([0, 2, 1]) };
+    const b = { pointsGeo: new Float64Array(3 * 5), offsets: Int32Array.from([0, 3, 3, 5]), types: Uint8Array.from([0, 2, 1]) };
     const { index, colours } = bundleSegments(b);
     expect(Array.from(index)).toEqual([0, 1, 1, 2, 3, 4]);
     expect(Array.from(colours.subarray(9, 12))).not.toEqual(Array.from(colours.subarray(0, 3)));

@@ -1,6 +1,7 @@
 /**
- * The batch command's per-site rows (src/cli/batch/site-rows.ts):
- *  - with the exact boundary search they equal the engine's siteReport
+ * The batch command's per-site rows (src/cli/batch/compute.ts calls siteReport
+ * with boundaryFinder and without line points; src/cli/batch/grid-boundaries.ts):
+ *  - with the exact boundary search they equal the engine's unhinted siteReport
  *    (src/physics/mapping/site-report.ts, the app's and worker's report) in every
  *    field but the line points, so the two cannot drift apart;
  *  - the MLT-grid approximation (--boundary-mlt-step) is exact at grid MLTs
@@ -8,8 +9,9 @@
  */
 import { describe, it, expect } from 'vitest';
 import { prepareModel } from '../../src/physics/field/model';
-import { makeTracer, sectorBoundaries, siteReport, type SiteInput } from '../../src/physics/mapping';
-import { siteRow, exactBoundaries, gridBoundaries } from '../../src/cli/batch/site-rows';
+import { makeTracer, sectorBoundaries, boundaryFinder } from '../../src/physics/mapping';
+import { siteReport, type SiteInput } from '../../src/physics/mapping';
+import { gridBoundaries } from '../../src/cli/batch/grid-boundaries';
 import { expectAtMost } from '../helpers';
 
 const OPTS = { conjugateAltKm: 0, altKm: 110, sourceRe: 8, minElevationDeg: 10 };
@@ -21,7 +23,7 @@ const SITES: SiteInput[] = [
   { name: 'low latitude', latDeg: 15.0, lonDeg: -30.0 },
 ];
 
-describe('siteRow with exact boundaries ≡ siteReport (src/physics/mapping/site-report.ts)', () => {
+describe('batch rows (siteReport with boundaryFinder, no line points) ≡ siteReport (src/physics/mapping/site-report.ts)', () => {
   for (const c of [{ pdynNpa: 2, bzNt: -3, byNt: 1 }, { pdynNpa: 6, bzNt: -12, byNt: -5 }]) {
     it(`gives siteReport's result at Pdyn ${c.pdynNpa} nPa, Bz ${c.bzNt} nT (lines of every kind)`, () => {
       const m = prepareModel({ time: '2025-03-20T21:00:00Z', ...c });
@@ -30,7 +32,7 @@ describe('siteRow with exact boundaries ≡ siteReport (src/physics/mapping/site
       const types = new Set<string>();
       for (const s of SITES) {
         const want = siteReport(m, tc, ta, s, OPTS);
-        const got = siteRow(m, tc, ta, s, OPTS, exactBoundaries(m, ta, OPTS.sourceRe));
+        const got = siteReport(m, tc, ta, s, OPTS, boundaryFinder(m, ta, { sourceRe: OPTS.sourceRe }), false);
         types.add(got.type);
         expect({ ...got, lineGeo: null }, s.name).toEqual({ ...want, lineGeo: null });
       }
@@ -56,7 +58,7 @@ describe('gridBoundaries (--boundary-mlt-step, an approximation)', () => {
   it('stays within 0.08° (open–closed) and 0.03° (equatorward) of the exact search between 0.5 h grid MLTs', () => {
     // Measured on this model: 0.0775° and 0.0294° over 24 off-grid MLTs × 2 hemispheres (the exact search itself has a 0.01° tolerance).
     const g = gridBoundaries(m, ta, 8, 0.5);
-    const ex = exactBoundaries(m, ta, 8);
+    const ex = boundaryFinder(m, ta, { sourceRe: 8 });
     let oc = 0, eq = 0;
     for (let k = 0; k < 24; k++) {
       const mlt = k + 0.37;

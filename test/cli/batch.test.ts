@@ -16,6 +16,7 @@ import { makeTracer, sectorBoundaries, DEFAULT_SOURCE_RE } from '../../src/physi
 import type { FieldConditions } from '../../src/physics/field/conditions';
 import { geoJsonProblems } from '../../src/io/geojson';
 import { expectClose } from '../helpers';
+import { EXIT_OK, EXIT_USAGE, EXIT_ROWS_FAILED } from '../../src/cli/exit-codes';
 
 let dir = '';
 const file = (name: string, text: string): string => { const p = join(dir, name); writeFileSync(p, text); return p; };
@@ -53,7 +54,7 @@ beforeAll(() => {
 
 afterAll(() => { rmSync(dir, { recursive: true, force: true }); });
 
-describe('batch: bad rows (references §13, bad-row contract)', () => {
+describe('batch: bad rows (references §13, bad input)', () => {
   it('gives each malformed row an error naming its line and problem, skips fill values and empty cells, and goes on', async () => {
     const bad = file('bad.csv', [
       'time,pdyn_npa,density_cm3,speed_kms,bz_nt,by_nt', // line 1
@@ -73,7 +74,7 @@ describe('batch: bad rows (references §13, bad-row contract)', () => {
     ].join('\n') + '\n');
     const badSites = file('badsites.csv', 'name,lat_deg,lon_deg\nGood Hill,64,20\nFar Pole,95,10\nNo Lat,,10\n');
     const r = await batch(['--sites', badSites, '--conditions', bad, '--format', 'json', '--workers', '1']);
-    expect(r.code, r.err).toBe(3);
+    expect(r.code, r.err).toBe(EXIT_ROWS_FAILED);
     const [meta, ...rows] = jsonl(r.out);
     expect(meta.metadata).toBeTruthy();
     expect(rows.length).toBe(13 * 3);
@@ -109,39 +110,39 @@ describe('batch: bad rows (references §13, bad-row contract)', () => {
   it('exits 0 when rows are only skipped, never failed', async () => {
     const s = file('skiponly.csv', 'time,pdyn_npa,bz_nt\n2025-03-20T20:00:00Z,2,-1\n2025-03-20T21:00:00Z,99.99,-1\n');
     const r = await batch(['--sites', sites, '--conditions', s, '--workers', '1']);
-    expect(r.code, r.err).toBe(0);
+    expect(r.code, r.err).toBe(EXIT_OK);
     expect(r.err).toMatch(/3 computed, 3 skipped, 0 failed/);
   });
 
   it('exits 2 on a wrong or missing header column, listing the expected columns, and writes no rows', async () => {
     const noBz = file('nobz.csv', 'time,pdyn_npa,by_nt\n2025-03-20T20:00:00Z,2,1\n');
     let r = await batch(['--sites', sites, '--conditions', noBz]);
-    expect(r.code).toBe(2);
+    expect(r.code).toBe(EXIT_USAGE);
     expect(r.err).toMatch(/--conditions: missing column "bz_nt".*expected columns: time, bz_nt, and pdyn_npa or both density_cm3 and speed_kms; optional by_nt/);
     expect(r.out).toBe('');
     const typo = file('typo.csv', 'name,lat,lon_deg\nX,1,2\n');
     r = await batch(['--sites', typo, '--conditions', series]);
-    expect(r.code).toBe(2);
+    expect(r.code).toBe(EXIT_USAGE);
     expect(r.err).toMatch(/--sites: missing column "lat_deg"; unknown column "lat".*expected columns: name, lat_deg, lon_deg, optional height_km/);
     const halfPlasma = file('half.csv', 'time,density_cm3,bz_nt\n2025-03-20T20:00:00Z,5,1\n');
     r = await batch(['--sites', sites, '--conditions', halfPlasma]);
-    expect(r.code).toBe(2);
+    expect(r.code).toBe(EXIT_USAGE);
     expect(r.err).toMatch(/missing column "speed_kms"/);
     r = await batch(['--sites', join(dir, 'absent.csv')]);
-    expect(r.code).toBe(2);
+    expect(r.code).toBe(EXIT_USAGE);
     expect(r.err).toMatch(/--sites: cannot read/);
     r = await batch(['--sites', sites, '--conditions', series, '--bz', '-5']);
-    expect(r.code).toBe(2);
+    expect(r.code).toBe(EXIT_USAGE);
     expect(r.err).toMatch(/--bz: is given by the --conditions file/);
     r = await batch(['--sites', sites, '--shard', '3/2']);
-    expect(r.code).toBe(2);
+    expect(r.code).toBe(EXIT_USAGE);
     expect(r.err).toMatch(/--shard: expected k\/n with 1 ≤ k ≤ n/);
   });
 
   it('escapes text cells beginning with = + - @ in CSV output (formula injection) and reads them back', async () => {
     const evil = file('evil.csv', 'name,lat_deg,lon_deg\n=HYPERLINK(1),65,20\n+plus,65,21\n-minus,65,22\n@at,65,23\n');
     const r = await batch(['--sites', evil, '--workers', '1', '--time', '2025-03-20T22:00:00Z']);
-    expect(r.code, r.err).toBe(0);
+    expect(r.code, r.err).toBe(EXIT_OK);
     const [header, ...rows] = csvRows(r.out);
     const j = header.indexOf('site');
     expect(rows.map((x) => x[j])).toEqual(["'=HYPERLINK(1)", "'+plus", "'-minus", "'@at"]);
@@ -151,12 +152,12 @@ describe('batch: bad rows (references §13, bad-row contract)', () => {
   });
 });
 
-describe('batch: order, workers and shards (references §13, batch contract)', () => {
+describe('batch: order, workers and shards (references §13, scale)', () => {
   it('writes the same bytes with --workers 1 (this thread) and --workers 2 (thread pool)', async () => {
     const a = await batch(['--sites', sites, '--conditions', series, '--workers', '1']);
     const b = await batch(['--sites', sites, '--conditions', series, '--workers', '2']);
-    expect(a.code, a.err).toBe(0);
-    expect(b.code, b.err).toBe(0);
+    expect(a.code, a.err).toBe(EXIT_OK);
+    expect(b.code, b.err).toBe(EXIT_OK);
     expect(b.out.length).toBeGreaterThan(1000);
     expect(b.out === a.out).toBe(true);
     // Input order: conditions outer, sites inner.
@@ -170,7 +171,7 @@ describe('batch: order, workers and shards (references §13, batch contract)', (
     const parts: string[] = [];
     for (let k = 1; k <= 3; k++) {
       const r = await batch(['--sites', sites, '--conditions', series, '--workers', '1', '--shard', `${k}/3`]);
-      expect(r.code, r.err).toBe(0);
+      expect(r.code, r.err).toBe(EXIT_OK);
       parts.push(r.out);
     }
     const [header, ...fullRows] = csvRows(full.out);
@@ -189,13 +190,13 @@ describe('batch: agreement with trace and the boundary search (same engine)', ()
       const one = file('one-site.csv', 'name,lat_deg,lon_deg,height_km\nAlder Knoll,66.2,18.4,0.2\n');
       const hour = file('one-hour.csv', 'time,pdyn_npa,bz_nt,by_nt\n2025-03-20T21:00:00Z,4.5,-8.0,-2.0\n');
       const r = await batch(['--sites', one, '--conditions', hour, '--workers', '1', '--format', 'json', ...extra]);
-      expect(r.code, r.err).toBe(0);
+      expect(r.code, r.err).toBe(EXIT_OK);
       const row = jsonl(r.out)[1];
       const common = ['--time', '2025-03-20T21:00:00Z', '--pdyn', '4.5', '--bz', '-8', '--by', '-2', '--lat', '66.2', '--lon', '18.4', '--height-km', '0.2', ...extra];
       const traceJson = async (altKm: string) => {
         let out = '';
         const code = await run(['trace', ...common, '--alt-km', altKm], { stdout: (t) => { out += t; }, stderr: () => {}, now: () => new Date() });
-        expect(code).toBe(0);
+        expect(code).toBe(EXIT_OK);
         return JSON.parse(out) as { conditions: FieldConditions; conjugate: Record<string, number>; siteFootpoint: Record<string, number>; fieldLine: { type: string; equator: { rRe: number } } };
       };
       const ground = await traceJson('0');
@@ -220,7 +221,7 @@ describe('batch: agreement with trace and the boundary search (same engine)', ()
 
   it('writes valid GeoJSON: one Point per row at the conjugate point (RFC 7946), metadata as a foreign member', async () => {
     const r = await batch(['--sites', sites, '--conditions', series, '--workers', '2', '--format', 'geojson', '--shard', '1/2']);
-    expect(r.code, r.err).toBe(0);
+    expect(r.code, r.err).toBe(EXIT_OK);
     const doc = JSON.parse(r.out) as { features: { geometry: { coordinates: number[] } | null; properties: Record<string, unknown> }[]; metadata: Record<string, unknown> };
     expect(geoJsonProblems(doc)).toEqual([]);
     expect(doc.features.length).toBe(9);
@@ -232,7 +233,7 @@ describe('batch: agreement with trace and the boundary search (same engine)', ()
   it('with --out writes the file; without --conditions the flags give one condition', async () => {
     const out = join(dir, 'one.csv');
     const r = await batch(['--sites', sites, '--out', out, '--time', '2025-03-20T22:00:00Z', '--pdyn', '3', '--bz', '-4']);
-    expect(r.code, r.err).toBe(0);
+    expect(r.code, r.err).toBe(EXIT_OK);
     expect(r.out).toBe('');
     const text = readFileSync(out, 'utf8');
     expect(text).toContain('# conditions: flags');

@@ -5,6 +5,7 @@ import { run } from '../../src/cli/run';
 import { readCsv } from '../../src/io/csv';
 import { geoJsonProblems } from '../../src/io/geojson';
 import { expectClose } from '../helpers';
+import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE } from '../../src/cli/exit-codes';
 
 // Source of every expectation here: the CLI contract, references §13 (flag names, JSON keys,
 // exit codes 0/2/1, stdout = result only) and RFC 4180 / RFC 7946 for the file formats.
@@ -51,7 +52,7 @@ describe('JSON results carry the fixed keys', () => {
 
   it('field outside the magnetopause warns on stderr and in the block', async () => {
     const r = await cli('field', '--gsm', '30,0,0', ...T);
-    expect(r.code).toBe(0);
+    expect(r.code).toBe(EXIT_OK);
     const j = JSON.parse(r.out);
     expect(j.inside).toBe(false);
     expect(j.conditions.warnings.join(' ')).toMatch(/outside the magnetopause/);
@@ -104,7 +105,7 @@ describe('CSV output (RFC 4180, units in the header)', () => {
   for (const [what, argv, cols] of cases) {
     it(`${what}: header first, equal widths, CRLF`, async () => {
       const r = await cli(...argv, ...T, '--format', 'csv');
-      expect(r.code, r.err).toBe(0);
+      expect(r.code, r.err).toBe(EXIT_OK);
       expect(r.out.endsWith('\r\n')).toBe(true);
       const rows = readCsv(r.out);
       for (const c of cols) expect(rows[0]).toContain(c);
@@ -118,7 +119,7 @@ describe('CSV output (RFC 4180, units in the header)', () => {
 describe('GeoJSON output (RFC 7946)', () => {
   it('trace: a line of the sub-point track plus Points, [lon, lat] order', async () => {
     const r = await cli('trace', '--lat', '62.5', '--lon', '25.1', ...T, '--format', 'geojson');
-    expect(r.code, r.err).toBe(0);
+    expect(r.code, r.err).toBe(EXIT_OK);
     const fc = JSON.parse(r.out);
     expect(fc.type).toBe('FeatureCollection');
     expect(geoJsonProblems(fc)).toEqual([]);
@@ -133,7 +134,7 @@ describe('GeoJSON output (RFC 7946)', () => {
 
   it('oval: one line per boundary per hemisphere, closed around the pole', async () => {
     const r = await cli('oval', ...T, '--mlt-step', '3', '--bz', '-5', '--format', 'geojson');
-    expect(r.code, r.err).toBe(0);
+    expect(r.code, r.err).toBe(EXIT_OK);
     const fc = JSON.parse(r.out);
     expect(geoJsonProblems(fc)).toEqual([]);
     const keys = fc.features.map((f: { properties: { hemisphere: string; boundary: string } }) => `${f.properties.hemisphere}/${f.properties.boundary}`);
@@ -184,7 +185,7 @@ describe('bad arguments exit 2 with a message naming the flag', () => {
   for (const [what, argv, re] of cases) {
     it(what, async () => {
       const r = await cli(...argv);
-      expect(r.code, r.err).toBe(2);
+      expect(r.code, r.err).toBe(EXIT_USAGE);
       expect(r.err).toMatch(re);
       expect(r.out).toBe('');
     });
@@ -192,7 +193,7 @@ describe('bad arguments exit 2 with a message naming the flag', () => {
 
   it('a point too close to the centre is refused as an argument', async () => {
     const r = await cli('field', '--gsm', '0.001,0,0');
-    expect(r.code).toBe(2);
+    expect(r.code).toBe(EXIT_USAGE);
     expect(r.err).toMatch(/--gsm: expected a point at least 0.01 RE/);
   });
 });
@@ -202,7 +203,7 @@ describe('a failure that is not an argument error exits 1', () => {
     let out = '';
     let err = '';
     const code = await run(['field', '--gsm', '5,0,0'], { stdout: (t) => { out += t; }, stderr: (t) => { err += t; }, now: () => new Date(Number.NaN) });
-    expect(code).toBe(1);
+    expect(code).toBe(EXIT_FAILURE);
     expect(err).toMatch(/computation failed/);
     expect(out).toBe('');
   });
@@ -212,7 +213,7 @@ describe('--help', () => {
   for (const argv of [['--help'], ['help'], ['help', 'oval'], ['help', 'batch'], ['field', '--help'], ['trace', '--help'], ['oval', '--help'], ['sweep', '--help'], ['trace', '--lat', 'x', '-h']]) {
     it(argv.join(' '), async () => {
       const r = await cli(...argv);
-      expect(r.code).toBe(0);
+      expect(r.code).toBe(EXIT_OK);
       expect(r.out).toMatch(/Usage: npm run --silent cli -- /);
       expect(r.err).toBe('');
     });
@@ -226,24 +227,24 @@ describe('--help', () => {
 describe('as a child process (npx tsx src/cli/main.ts)', () => {
   it('stdout carries only the JSON result, exit 0', () => {
     const r = spawnCli('field', '--gsm', '6.6,0,0', ...T);
-    expect(r.code, r.err).toBe(0);
+    expect(r.code, r.err).toBe(EXIT_OK);
     const j = JSON.parse(r.out);
     expect(j.bNt).toBeGreaterThan(0);
   });
   it('bad flag: exit 2, message on stderr, nothing on stdout', () => {
     const r = spawnCli('oval', '--hemisphere', 'east');
-    expect(r.code).toBe(2);
+    expect(r.code).toBe(EXIT_USAGE);
     expect(r.err).toMatch(/--hemisphere: expected north, south or both, got "east"/);
     expect(r.out).toBe('');
   });
   it('through the package script: npm run --silent cli -- --version', () => {
     const p = spawnSync('npm', ['run', '--silent', 'cli', '--', '--version'], { encoding: 'utf8', cwd: new URL('../..', import.meta.url).pathname });
-    expect(p.status, p.stderr).toBe(0);
+    expect(p.status, p.stderr).toBe(EXIT_OK);
     expect(p.stdout.trim()).toMatch(/^\d+\.\d+\.\d+$/);
   });
   it('--help exits 0', () => {
     const r = spawnCli('--help');
-    expect(r.code).toBe(0);
+    expect(r.code).toBe(EXIT_OK);
     expect(r.out).toMatch(/Commands:/);
   });
 });

@@ -1,6 +1,7 @@
 /** Run the CLI in-process or as a child process, capturing stdout, stderr and the exit code. */
 import { spawnSync } from 'node:child_process';
 import { run } from '../../src/cli/run';
+import { EXIT_OK } from '../../src/cli/exit-codes';
 
 export interface CliOutcome {
   code: number;
@@ -21,7 +22,7 @@ export async function cli(...argv: string[]): Promise<CliOutcome> {
 /** JSON stdout of a successful in-process run (fails loudly otherwise). */
 export async function cliJson(...argv: string[]): Promise<Record<string, any>> {
   const r = await cli(...argv);
-  if (r.code !== 0) throw new Error(`exit ${r.code} for ${argv.join(' ')}: ${r.err}`);
+  if (r.code !== EXIT_OK) throw new Error(`exit ${r.code} for ${argv.join(' ')}: ${r.err}`);
   return JSON.parse(r.out);
 }
 

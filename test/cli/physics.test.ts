@@ -2,15 +2,16 @@ import { describe, it, expect } from 'vitest';
 import { cliJson } from './helpers';
 import { geoFromGeodetic } from '../../src/physics/frames/geodesy';
 import { expectClose, expectAtMost } from '../helpers';
+import { RAD_PER_DEG, DEG_PER_RAD } from '../../src/physics/constants';
 
-// Tracer and mapping checks run through the command line, each naming its source.
+// Physics checks run through the command line, each naming its source.
 const T = ['--time', '2025-03-20T22:00:00Z'];
 
 /** Dungey (1961) polar-cap boundary latitude at radius r for a centred dipole B0 plus a uniform southward b (references §5, derived). */
 function dungeyBoundaryLatDeg(b0Nt: number, bNt: number, rRe: number): number {
   const rn = Math.cbrt(b0Nt / bNt); // neutral ring r_n = (B0/b)^(1/3)
   const sin2 = 3 / (2 * rn * (1 / rRe + (bNt * rRe * rRe) / (2 * b0Nt))); // sin²θc
-  return 90 - (Math.asin(Math.sqrt(sin2)) * 180) / Math.PI;
+  return 90 - Math.asin(Math.sqrt(sin2)) * DEG_PER_RAD;
 }
 
 const radiusRe = (latDeg: number, lonDeg: number) => Math.hypot(...geoFromGeodetic(new Float64Array(3), latDeg, lonDeg, 0));
@@ -81,7 +82,7 @@ describe('the open–closed boundary moves equatorward as Bz turns southward (re
   });
 });
 
-describe('the conjugate of the conjugate returns the site (invariant, derived)', () => {
+describe('the conjugate of the conjugate returns the site (invariant of field-line mapping)', () => {
   for (const internal of ['dipole', 'igrf']) {
     it(`${internal}: ground site → conjugate → back, within 0.01°`, async () => {
       const site = { lat: 62.5, lon: 25.1 }; // a fictional site
@@ -92,7 +93,7 @@ describe('the conjugate of the conjugate returns the site (invariant, derived)',
       expect(c.hemisphere).toBe('south');
       const b = await cliJson('trace', '--lat', String(c.geoLatDeg), '--lon', String(c.geoLonDeg), '--height-km', String(c.altKm), ...common);
       expectClose(b.conjugate.geoLatDeg, site.lat, 0.01, 'latitude after two conjugations');
-      expectClose(b.conjugate.geoLonDeg, site.lon, 0.01 / Math.cos((site.lat * Math.PI) / 180), 'longitude after two conjugations (0.01° of arc)');
+      expectClose(b.conjugate.geoLonDeg, site.lon, 0.01 / Math.cos(site.lat * RAD_PER_DEG), 'longitude after two conjugations (0.01° of arc)');
     });
   }
 });
@@ -107,10 +108,10 @@ describe('dipole geometry through `trace` and `field` (references §1, derived)'
     // Mirror in a tilted dipole (the tilt here comes from the date): same magnetic longitude, opposite latitude.
     const [n, s] = j.fieldLine.footpoints;
     expectClose(s.magLonDeg, n.magLonDeg, 1e-9, 'conjugate magnetic longitude');
-    // Each footpoint on its own radius r (110 km above the ellipsoid): cos²λ = r/L, to the tracer's 0.001° (its accuracy target; DEVELOPERS.md, the tracer's step rule).
+    // Each footpoint on its own radius r (110 km above the ellipsoid): cos²λ = r/L, to the tracer's 0.001° accuracy target.
     for (const f of [n, s]) {
       const r = Math.hypot(...geoFromGeodetic(new Float64Array(3), f.geoLatDeg, f.geoLonDeg, f.altKm));
-      const lam = (Math.acos(Math.sqrt(r / 4)) * 180) / Math.PI;
+      const lam = Math.acos(Math.sqrt(r / 4)) * DEG_PER_RAD;
       expectClose(Math.abs(f.magLatDeg), lam, 1e-3, `${f.hemisphere} footpoint latitude vs cos²λ = r/L, r = ${r.toFixed(6)} RE`);
     }
     expect(Math.sign(s.magLatDeg)).toBe(-Math.sign(n.magLatDeg));

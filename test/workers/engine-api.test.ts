@@ -6,6 +6,7 @@ import { createEngineApi } from '../../workers/engine-api';
 import type { EngineApi } from '../../workers/protocol';
 import { prepareModel } from '../../src/physics/field/model';
 import { makeTracer, traceSite } from '../../src/physics/mapping';
+import { LINE_CLOSED } from '../../src/physics/trace/line-type';
 import { expectClose } from '../helpers';
 
 const C = { time: '2025-03-20T22:00:00Z', pdynNpa: 3, bzNt: -5, byNt: 2, internal: 'dipole' as const, magnetopause: true, imfEfficiency: 0.2, tail: false };
@@ -16,12 +17,12 @@ describe('engine worker API (in-process)', () => {
     const api = createEngineApi();
     const r = await api.scene(1, C, { mltHours: [0, 12], magLatDeg: [60, 70, 80] });
     expect(r.error).toBeUndefined();
-    expect(r.lines.kinds.length).toBe(6);
+    expect(r.lines.types.length).toBe(6);
     expect(r.lines.offsets.length).toBe(7);
     expect(r.lines.pointsGeo.length).toBe(3 * r.lines.offsets[6]);
     expect(r.lines.pointsGeo).toBeInstanceOf(Float64Array);
     // The 60° lines are closed (dipole L ≈ 4).
-    expect(r.lines.kinds[0]).toBe(0);
+    expect(r.lines.types[0]).toBe(LINE_CLOSED);
     expect(r.magnetopause.enabled).toBe(true);
     expect(r.frames.geoFromGsm.length).toBe(9);
   });

@@ -4,9 +4,9 @@
  * oval band a bright green (land is a neutral stone so the two never blend), its poleward (open–closed) edge amber, its
  * equatorward edge teal to echo the line types they separate.
  */
-import { LINE_KIND_NAMES, type LineKind } from '../../../workers/protocol';
+import { LINE_TYPE_NAMES, LINE_UNRESOLVED, type LineType } from '../../physics/trace/line-type';
 
-export const LINE_COLOURS: Record<(typeof LINE_KIND_NAMES)[number], string> = {
+export const LINE_COLOURS: Record<LineType, string> = {
   closed: '#2bb5a8',
   open: '#f0a030',
   unresolved: '#9a8fb8',
@@ -19,9 +19,9 @@ export const OVAL_COLOURS = { band: '#5cf07a', openClosed: '#f0a030', equatorwar
 
 export const SITE_COLOURS = { site: '#ffffff', conjugate: '#ff5fa2' } as const;
 
-/** Name of a line kind; out-of-range codes count as unresolved. */
-export function kindName(k: number): (typeof LINE_KIND_NAMES)[number] {
-  return k === 0 || k === 1 || k === 2 ? LINE_KIND_NAMES[k as LineKind] : 'unresolved';
+/** Name of a tracer line-type code; out-of-range codes count as unresolved. */
+export function lineTypeName(code: number): LineType {
+  return LINE_TYPE_NAMES[code] ?? LINE_TYPE_NAMES[LINE_UNRESOLVED];
 }
 
 /** "#rrggbb" → [r, g, b] in 0..1. */
@@ -32,19 +32,19 @@ export function hexToRgb(hex: string): [number, number, number] {
   return [((n >> 16) & 255) / 255, ((n >> 8) & 255) / 255, (n & 255) / 255];
 }
 
-/** RGB (0..1) of a line kind code. */
-export function kindRgb(k: number): [number, number, number] {
-  return hexToRgb(LINE_COLOURS[kindName(k)]);
+/** RGB (0..1) of a tracer line-type code. */
+export function lineTypeRgb(code: number): [number, number, number] {
+  return hexToRgb(LINE_COLOURS[lineTypeName(code)]);
 }
 
-export interface LegendEntry {
+interface LegendEntry {
   label: string;
   colour: string;
 }
 
-/** The legend, with the count of lines of each kind in a bundle. */
-export function lineLegend(kinds: ArrayLike<number>): LegendEntry[] {
-  const counts = [0, 0, 0];
-  for (let i = 0; i < kinds.length; i++) counts[LINE_KIND_NAMES.indexOf(kindName(kinds[i]))]++;
-  return LINE_KIND_NAMES.map((n, i) => ({ label: `${n} (${counts[i]})`, colour: LINE_COLOURS[n] }));
+/** The legend, with the count of lines of each type in a bundle (tracer line-type codes). */
+export function lineLegend(types: ArrayLike<number>): LegendEntry[] {
+  const counts = LINE_TYPE_NAMES.map(() => 0);
+  for (let i = 0; i < types.length; i++) counts[LINE_TYPE_NAMES.indexOf(lineTypeName(types[i]))]++;
+  return LINE_TYPE_NAMES.map((n, i) => ({ label: `${n} (${counts[i]})`, colour: LINE_COLOURS[n] }));
 }

@@ -3,20 +3,19 @@
  * Pure: typed arrays in, typed arrays out; no three.js objects here.
  */
 import type { BoundaryCurve, LineBundle } from '../../../workers/protocol';
-import { kindRgb } from './palette';
-
-const DEG = Math.PI / 180;
+import { lineTypeRgb } from './palette';
+import { RAD_PER_DEG } from '../../physics/constants';
 
 /** Point on a sphere of radius rRe at geocentric lat/lon (display placement). */
 export function sphereXyz(latDeg: number, lonDeg: number, rRe: number): [number, number, number] {
-  const p = latDeg * DEG;
-  const l = lonDeg * DEG;
+  const p = latDeg * RAD_PER_DEG;
+  const l = lonDeg * RAD_PER_DEG;
   return [rRe * Math.cos(p) * Math.cos(l), rRe * Math.cos(p) * Math.sin(l), rRe * Math.sin(p)];
 }
 
 /** Geocentric lat/lon (deg) of a direction. */
 export function latLonOf(x: number, y: number, z: number): [number, number] {
-  return [Math.atan2(z, Math.hypot(x, y)) / DEG, Math.atan2(y, x) / DEG];
+  return [Math.atan2(z, Math.hypot(x, y)) / RAD_PER_DEG, Math.atan2(y, x) / RAD_PER_DEG];
 }
 
 /** v_geo = M v_gsm with M row-major (FrameInfo.geoFromGsm). */
@@ -35,7 +34,7 @@ export function bundleSegments(b: LineBundle): { positions: Float32Array; colour
   const index = new Uint32Array(nSeg * 2);
   let k = 0;
   for (let l = 0; l < nLines; l++) {
-    const [r, g, bl] = kindRgb(b.kinds[l]);
+    const [r, g, bl] = lineTypeRgb(b.types[l]);
     for (let i = b.offsets[l]; i < b.offsets[l + 1]; i++) {
       colours[3 * i] = r;
       colours[3 * i + 1] = g;

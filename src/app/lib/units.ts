@@ -1,4 +1,5 @@
 /** Small display conversions for the controls (no field physics). */
+import { DEG_PER_RAD } from '../../physics/constants';
 
 /** Log-slider position (0..1000) ↔ value in [lo, hi]. */
 export function logToSlider(v: number, lo: number, hi: number): number {
@@ -31,7 +32,7 @@ export function addHours(iso: string, h: number): string {
 
 /** Subsolar (or any direction's) geocentric lat/lon from a unit GEO vector. */
 export function directionLatLon(v: ArrayLike<number>): [number, number] {
-  return [(Math.atan2(v[2], Math.hypot(v[0], v[1])) * 180) / Math.PI, (Math.atan2(v[1], v[0]) * 180) / Math.PI];
+  return [Math.atan2(v[2], Math.hypot(v[0], v[1])) * DEG_PER_RAD, Math.atan2(v[1], v[0]) * DEG_PER_RAD];
 }
 
 /** Format a number for tables: fixed decimals, an en dash for missing. */

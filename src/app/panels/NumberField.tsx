@@ -1,7 +1,7 @@
 /** A labelled number input that keeps what the user is typing and commits only valid values. */
 import { useEffect, useId, useState } from 'react';
 
-export interface NumberFieldProps {
+interface NumberFieldProps {
   label: string;
   value: number;
   min: number;

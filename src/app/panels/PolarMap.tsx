@@ -8,6 +8,7 @@ import { visibilityAngleDeg, visibilityLimit } from '../lib/visibility';
 import { directionLatLon } from '../lib/units';
 import { useStore } from '../store';
 import { addSiteAt } from '../sites';
+import { RAD_PER_DEG } from '../../physics/constants';
 
 const SIZE = 300;
 const RIM_DEG = 50; // colatitude shown: poleward of 40°
@@ -21,7 +22,7 @@ export function PolarMap({ hemisphere }: { hemisphere: 'north' | 'south' }) {
   const altKm = useStore((s) => s.products.altKm);
   const minEl = useStore((s) => s.products.minElevationDeg);
   const proj = useMemo(
-    () => geoAzimuthalEquidistant().rotate([0, north ? -90 : 90, 0]).clipAngle(RIM_DEG).scale(SIZE / 2 / ((RIM_DEG * Math.PI) / 180) * 0.96).translate([SIZE / 2, SIZE / 2]).precision(0.3),
+    () => geoAzimuthalEquidistant().rotate([0, north ? -90 : 90, 0]).clipAngle(RIM_DEG).scale(SIZE / 2 / (RIM_DEG * RAD_PER_DEG) * 0.96).translate([SIZE / 2, SIZE / 2]).precision(0.3),
     [north],
   );
   const path = useMemo(() => geoPath(proj), [proj]);

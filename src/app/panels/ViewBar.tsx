@@ -7,7 +7,7 @@ import { fmt } from '../lib/units';
 export function ViewBar() {
   const scene = useStore((s) => s.scene);
   const pending = useStore((s) => s.pending);
-  const legend = lineLegend(scene?.lines.kinds ?? []);
+  const legend = lineLegend(scene?.lines.types ?? []);
   const f = scene?.frames;
   const mp = scene?.magnetopause;
   return (

@@ -5,7 +5,7 @@ import * as THREE from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import { store } from '../store';
 
-export type ViewPreset = 'overview' | 'dayside' | 'nightside' | 'north' | 'south';
+type ViewPreset = 'overview' | 'dayside' | 'nightside' | 'north' | 'south';
 
 export const VIEW_PRESETS: { id: ViewPreset; label: string }[] = [
   { id: 'overview', label: 'Overview' },

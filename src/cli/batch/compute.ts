@@ -5,16 +5,17 @@
  * threads share the formatting work. Runs the same in a worker or in-process.
  */
 import { prepareModel, type PreparedModel } from '../../physics/field/model';
-import { makeTracer, siteGsm, type SiteInput, type SiteResult } from '../../physics/mapping';
-import { siteRow, exactBoundaries, gridBoundaries } from './site-rows';
-import { applyMat3 } from '../../physics/frames/rotations';
+import { makeTracer, siteGsm, boundaryFinder } from '../../physics/mapping';
+import { splitFootpoints } from '../../physics/mapping';
+import { siteReport, type SiteInput, type SiteResult } from '../../physics/mapping';
+import { gridBoundaries } from './grid-boundaries';
 import { DEG_PER_RAD } from '../../physics/constants';
 import { parseUtc } from '../../physics/frames/time';
-import type { Footpoint } from '../../physics/trace/footpoint';
 import type { FieldConditions } from '../../physics/field/conditions';
 import { csvField, type CsvCell } from '../../io/csv';
 import { writeJson } from '../../io/json';
 import type { RowOutcome, SeriesCondition } from './inputs';
+import { errorText } from '../args';
 
 export type BatchFormat = 'csv' | 'json' | 'geojson';
 
@@ -105,20 +106,6 @@ function fillCondition(r: Row, line: number | null, c: SeriesCondition | null, m
 
 const v3 = new Float64Array(3);
 
-/** The footpoint at the footpoint altitude on the site's side (by the SM z of the site, as traceSite decides) and the far one. */
-function splitFootpoints(m: PreparedModel, site: SiteInput, feet: Footpoint[]): { near: Footpoint | null; far: Footpoint | null } {
-  siteGsm(v3, m, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo');
-  applyMat3(v3, m.frames.smFromGsm, v3[0], v3[1], v3[2]);
-  const north = v3[2] >= 0;
-  let near: Footpoint | null = null;
-  let far: Footpoint | null = null;
-  for (const f of feet) {
-    if ((f.hemisphere === 'north') === north) near = f;
-    else far = f;
-  }
-  return { near, far };
-}
-
 function fillResult(r: Row, m: PreparedModel, site: SiteInput, s: SiteResult): void {
   r[C.line_type] = s.type;
   if (s.conjugate) {
@@ -128,7 +115,8 @@ function fillResult(r: Row, m: PreparedModel, site: SiteInput, s: SiteResult): v
     r[C.conj_mag_lon_deg] = s.conjugate.magLonDeg;
     r[C.conj_mlt_h] = s.conjugate.mltHours;
   }
-  const { near, far } = splitFootpoints(m, site, s.footpoints);
+  // The footpoints at --alt-km on the site's side and the other, split as traceSite splits them.
+  const { near, far } = splitFootpoints(m, siteGsm(v3, m, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo'), s.footpoints);
   if (near) { r[C.foot_geo_lat_deg] = near.geoLatDeg; r[C.foot_geo_lon_deg] = near.geoLonDeg; }
   if (far) { r[C.far_foot_geo_lat_deg] = far.geoLatDeg; r[C.far_foot_geo_lon_deg] = far.geoLonDeg; }
   r[C.equator_r_re] = s.equatorRe;
@@ -150,7 +138,7 @@ function fillResult(r: Row, m: PreparedModel, site: SiteInput, s: SiteResult): v
 }
 
 /** Formats rows; for GeoJSON each row is a Point at the conjugate point (null geometry without one). */
-export class RowFormatter {
+class RowFormatter {
   private readonly parts: string[] = [];
   constructor(private readonly settings: BatchSettings) {}
 
@@ -178,8 +166,6 @@ export class RowFormatter {
   }
 }
 
-const message = (e: unknown): string => (e instanceof Error ? e.message : String(e));
-
 /** All rows of one condition, in site order. Never throws: problems become rows. */
 export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInput>[], st: BatchSettings): JobResult {
   const out = new RowFormatter(st);
@@ -195,12 +181,13 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
     try {
       model = prepareModel({ ...st.model, time: cond!.time, pdynNpa: cond!.pdynNpa, bzNt: cond!.bzNt, byNt: cond!.byNt });
     } catch (e) {
-      condProblem = { error: `${where}: ${message(e)}` };
+      condProblem = { error: `${where}: ${errorText(e)}` };
     }
   }
   const tConj = model ? makeTracer(model, { altKm: st.conjugateAltKm, ellipsoid: true }) : null;
   const tAlt = model ? (st.altKm === st.conjugateAltKm ? tConj : makeTracer(model, { altKm: st.altKm, ellipsoid: true })) : null;
-  const bounds = model ? (st.boundaryMltStep === null ? exactBoundaries(model, tAlt!, st.sourceRe) : gridBoundaries(model, tAlt!, st.sourceRe, st.boundaryMltStep)) : null;
+  // The engine's search at each site's exact MLT, each started from the nearest MLT already answered; or the opt-in grid approximation.
+  const bounds = model ? (st.boundaryMltStep === null ? boundaryFinder(model, tAlt!, { sourceRe: st.sourceRe }) : gridBoundaries(model, tAlt!, st.sourceRe, st.boundaryMltStep)) : null;
   const warnings = model && model.warnings.length ? model.warnings.join('; ') : null;
   if (condProblem) note(condProblem.error ?? condProblem.skipped!);
   for (const site of sites) {
@@ -219,7 +206,7 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
       if (job.seq === 0) note(site.reason);
     } else {
       r[C.warnings] = warnings;
-      const s = siteRow(model!, tConj!, tAlt!, site.value, { conjugateAltKm: st.conjugateAltKm, altKm: st.altKm, sourceRe: st.sourceRe, minElevationDeg: st.minElevationDeg }, bounds!);
+      const s = siteReport(model!, tConj!, tAlt!, site.value, { conjugateAltKm: st.conjugateAltKm, altKm: st.altKm, sourceRe: st.sourceRe, minElevationDeg: st.minElevationDeg }, bounds!, false);
       if (s.error) {
         const err = `sites line ${site.line} (${site.value.name}), ${where}: ${s.error}`;
         r[C.error] = err; res.failed++; note(err);

@@ -8,10 +8,10 @@
  */
 import os from 'node:os';
 import { basename } from 'node:path';
-import { UsageError, parseFlags, flagHelp, type FlagSpec, type ParsedFlags } from '../args';
-import { commonFlags, conditionsFromFlags, programVersion, DEFAULT_ALT_KM } from '../common';
+import { UsageError, errorText, parseFlags, flagHelp, type FlagSpec, type ParsedFlags } from '../args';
+import { commonFlags, conditionsFromFlags, programVersion, checkFlag, sourceReOf, DEFAULT_ALT_KM, SOURCE_RE_FLAG, INPUT_RANGES } from '../common';
 import { CSV_DECIMALS } from '../command';
-import { DEFAULT_SOURCE_RE, mltGrid, type SiteInput } from '../../physics/mapping';
+import { mltGrid, type SiteInput } from '../../physics/mapping';
 import { PDYN_NOMINAL_COEFF } from '../../physics/field/magnetopause';
 import { decimalYear, parseUtc } from '../../physics/frames/time';
 import { sitesHeader, conditionsHeader, parseSite, parseCondition, checkTime, SITES_EXPECTED, CONDITIONS_EXPECTED, type RowOutcome } from './inputs';
@@ -21,30 +21,26 @@ import { fileSink, stdoutSink, outputPrefix, outputSuffix, chunkSeparator, type 
 import { csvRecords, requireFile, countLines } from './read';
 import type { CsvRecord } from '../../io/batch-csv';
 import { Progress } from './progress';
+import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE, EXIT_ROWS_FAILED } from '../exit-codes';
 
-export interface BatchIo {
+interface BatchIo {
   stdout(text: string): void;
   stderr(text: string): void;
   now?(): Date;
 }
 
-export const EXIT_OK = 0;
-export const EXIT_FAILURE = 1;
-export const EXIT_USAGE = 2;
-export const EXIT_ROWS_FAILED = 3;
-
 const NAME = 'fieldline-atlas batch';
 const FORMATS: BatchFormat[] = ['csv', 'json', 'geojson'];
 
-export const BATCH_FLAGS: FlagSpec[] = [
+const BATCH_FLAGS: FlagSpec[] = [
   { name: 'sites', kind: 'string', meta: '<sites.csv>', help: `site table; columns ${SITES_EXPECTED}`, required: true },
   { name: 'conditions', kind: 'string', meta: '<series.csv>', help: `solar-wind series; columns ${CONDITIONS_EXPECTED}`, defaultText: 'one condition from --time --pdyn --bz --by' },
   { name: 'out', kind: 'string', meta: '<file>', help: 'write the table here', defaultText: 'stdout' },
   { name: 'workers', kind: 'integer', meta: '<N>', min: 1, max: 256, help: 'threads computing rows (1 = this thread)', defaultText: 'the number of cores' },
   { name: 'shard', kind: 'string', meta: '<k/n>', help: 'take conditions k, k+n, k+2n, … (1-based) for array jobs; shard outputs concatenate' },
   { name: 'progress', kind: 'switch', help: 'rows/s and ETA on stderr (on by default when stderr is a terminal)' },
-  { name: 'conjugate-alt-km', kind: 'number', meta: '<km>', unit: 'km', min: 0, max: 5000, help: 'altitude of the conjugate point', defaultText: '0, the ground' },
-  { name: 'source-re', kind: 'number', meta: '<RE>', unit: 'RE', min: 1.5, max: 100, help: 'equatorial source distance of the equatorward edge', defaultText: String(DEFAULT_SOURCE_RE) },
+  { name: 'conjugate-alt-km', kind: 'number', meta: '<km>', unit: 'km', ...INPUT_RANGES.altKm, help: 'altitude of the conjugate point', defaultText: '0, the ground' },
+  SOURCE_RE_FLAG,
   { name: 'boundary-mlt-step', kind: 'number', meta: '<h>', unit: 'h', min: 0.05, max: 12, help: 'approximation for speed: boundaries on this MLT grid per condition, interpolated to each site\'s MLT', defaultText: 'off: the exact search at each site\'s MLT' },
   { name: 'min-elevation-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'lowest elevation at which the oval counts as visible', defaultText: '10' },
 ];
@@ -132,18 +128,17 @@ function plan(argv: readonly string[], io: BatchIo): Plan {
     model: { ...modelSwitches, tiltDeg: c.tiltDeg ?? null },
     altKm: (flags['alt-km'] as number | undefined) ?? DEFAULT_ALT_KM,
     conjugateAltKm: (flags['conjugate-alt-km'] as number | undefined) ?? 0,
-    sourceRe: (flags['source-re'] as number | undefined) ?? DEFAULT_SOURCE_RE,
+    sourceRe: sourceReOf(flags),
     minElevationDeg: (flags['min-elevation-deg'] as number | undefined) ?? 10,
     boundaryMltStep: (flags['boundary-mlt-step'] as number | undefined) ?? null,
     format: ((flags.format as string | undefined) ?? 'csv') as BatchFormat,
     csvDecimals: CSV_DECIMALS,
   };
-  if (settings.boundaryMltStep !== null) {
-    try { mltGrid(settings.boundaryMltStep); } catch (e) { throw new UsageError('--boundary-mlt-step', (e as Error).message.replace(/^mltStep: /, '')); }
-  }
+  const step = settings.boundaryMltStep;
+  if (step !== null) checkFlag('--boundary-mlt-step', () => mltGrid(step));
   let flagCondition: Plan['flagCondition'] = null;
   if (conditionsPath === null) {
-    try { checkTime(c.time); } catch (e) { throw new UsageError('--time', (e as Error).message.replace(/^time: /, '')); }
+    checkFlag('--time', () => checkTime(c.time));
     flagCondition = { time: c.time, pdynNpa: c.pdynNpa, bzNt: c.bzNt, byNt: c.byNt };
   }
   return {
@@ -285,7 +280,7 @@ export async function runBatch(argv: readonly string[], io: BatchIo): Promise<nu
       io.stderr(`${NAME}: ${e.message}\n(see: batch --help)\n`);
       return EXIT_USAGE;
     }
-    io.stderr(`${NAME}: failed: ${e instanceof Error ? e.message : String(e)}\n`);
+    io.stderr(`${NAME}: failed: ${errorText(e)}\n`);
     return EXIT_FAILURE;
   } finally {
     if (runner) await runner.close();

@@ -5,15 +5,16 @@
  * line and the problem); it never stops the run.
  */
 import { csvText } from '../../io/csv';
-import { parseNumberText, UsageError } from '../args';
+import { parseNumberText, errorText, inputErrorReason, UsageError } from '../args';
+import { INPUT_RANGES } from '../common';
 import { parseUtc, decimalYear } from '../../physics/frames/time';
 import { igrfCoefficients } from '../../physics/field/mainfield/coefficients';
 import { pdynFromPlasmaNominal } from '../../physics/field/magnetopause';
 import { InputError } from '../../physics/errors';
 import type { SiteInput } from '../../physics/mapping';
 
-export const SITE_COLUMNS = { required: ['name', 'lat_deg', 'lon_deg'], optional: ['height_km'] } as const;
-export const CONDITION_COLUMNS = { required: ['time', 'bz_nt'], pressure: ['pdyn_npa', 'density_cm3', 'speed_kms'], optional: ['by_nt'] } as const;
+const SITE_COLUMNS = { required: ['name', 'lat_deg', 'lon_deg'], optional: ['height_km'] } as const;
+const CONDITION_COLUMNS = { required: ['time', 'bz_nt'], pressure: ['pdyn_npa', 'density_cm3', 'speed_kms'], optional: ['by_nt'] } as const;
 
 export const SITES_EXPECTED = 'name, lat_deg, lon_deg, optional height_km';
 export const CONDITIONS_EXPECTED = 'time, bz_nt, and pdyn_npa or both density_cm3 and speed_kms; optional by_nt';
@@ -35,7 +36,7 @@ export interface SeriesCondition {
 }
 
 /** Column index by name, after checking the header against the expected columns. */
-export type HeaderIndex = Map<string, number>;
+type HeaderIndex = Map<string, number>;
 
 function headerNames(fields: string[]): string[] {
   return fields.map((h) => csvText(h.trim()));
@@ -108,6 +109,15 @@ function num(fields: string[], idx: HeaderIndex, name: string): number {
   return v;
 }
 
+/** A column value against its input kind's range (INPUT_RANGES, shared with the flags); returns it. */
+function inRange(name: string, v: number, range: { min: number; max: number }, unit = ''): number {
+  if (v < range.min || v > range.max) {
+    const lo = range.min < 0 ? `−${-range.min}` : String(range.min);
+    throw new RowProblem(false, `${name}: ${v} is outside ${lo}..${range.max}${unit ? ` ${unit}` : ''}`);
+  }
+  return v;
+}
+
 function outcome<T>(file: string, line: number, width: number, fields: string[], parse: () => T): RowOutcome<T> {
   if (fields.length !== width) {
     const what = fields.length < width ? 'missing value' : 'extra value';
@@ -119,7 +129,7 @@ function outcome<T>(file: string, line: number, width: number, fields: string[],
     if (e instanceof RowProblem) {
       return e.skip ? { kind: 'skipped', line, reason: `${file} line ${line}: ${e.message}; row skipped` } : { kind: 'error', line, error: `${file} line ${line}: ${e.message}` };
     }
-    return { kind: 'error', line, error: `${file} line ${line}: ${e instanceof Error ? e.message : String(e)}` };
+    return { kind: 'error', line, error: `${file} line ${line}: ${errorText(e)}` };
   }
 }
 
@@ -127,15 +137,12 @@ function outcome<T>(file: string, line: number, width: number, fields: string[],
 export function parseSite(fields: string[], line: number, idx: HeaderIndex): RowOutcome<SiteInput> {
   return outcome('sites', line, idx.size, fields, () => {
     const name = cell(fields, idx, 'name') ?? '';
-    const latDeg = num(fields, idx, 'lat_deg');
-    const lonDeg = num(fields, idx, 'lon_deg');
-    if (latDeg < -90 || latDeg > 90) throw new RowProblem(false, `lat_deg: ${latDeg} is outside −90..90`);
-    if (lonDeg < -360 || lonDeg > 360) throw new RowProblem(false, `lon_deg: ${lonDeg} is outside −360..360`);
+    const latDeg = inRange('lat_deg', num(fields, idx, 'lat_deg'), INPUT_RANGES.latDeg);
+    const lonDeg = inRange('lon_deg', num(fields, idx, 'lon_deg'), INPUT_RANGES.lonDeg);
     let heightKm = 0;
     const h = cell(fields, idx, 'height_km');
     if (h !== undefined && h !== '') {
-      heightKm = num(fields, idx, 'height_km');
-      if (heightKm < -1 || heightKm > 100_000) throw new RowProblem(false, `height_km: ${heightKm} is outside −1..100000`);
+      heightKm = inRange('height_km', num(fields, idx, 'height_km'), INPUT_RANGES.siteHeightKm);
     }
     return { name, latDeg, lonDeg, heightKm };
   });
@@ -146,20 +153,14 @@ const FIELD_COLUMN: Record<string, string> = { time: 'time', pdynNpa: 'pdyn_npa'
 /** An engine InputError re-worded for the column it came from. */
 function columnError(e: unknown): RowProblem {
   if (e instanceof InputError) {
-    const col = FIELD_COLUMN[e.field] ?? e.field;
-    const rest = e.message.startsWith(`${e.field}: `) ? e.message.slice(e.field.length + 2) : e.message;
-    return new RowProblem(false, `${col}: ${rest}`);
+    return new RowProblem(false, `${FIELD_COLUMN[e.field] ?? e.field}: ${inputErrorReason(e)}`);
   }
-  return new RowProblem(false, e instanceof Error ? e.message : String(e));
+  return new RowProblem(false, errorText(e));
 }
 
-/** Check a time: ISO 8601 and inside the IGRF-14 span (what prepareModel will need). */
+/** Check a time: ISO 8601 and inside the IGRF-14 span (what prepareModel will need); throws the engine's InputError('time', …). */
 export function checkTime(time: string): void {
-  try {
-    igrfCoefficients(decimalYear(parseUtc(time)), 1);
-  } catch (e) {
-    throw columnError(e);
-  }
+  igrfCoefficients(decimalYear(parseUtc(time)), 1);
 }
 
 /** One conditions record. pdyn_npa wins when it holds a value; else density and speed (2.0e-6·n·v², references §3). */
@@ -175,7 +176,7 @@ function parseConditionValue(fields: string[], line: number, idx: HeaderIndex): 
   return outcome('conditions', line, idx.size, fields, () => {
     const time = cell(fields, idx, 'time') ?? '';
     if (time === '') throw new RowProblem(true, 'time is empty');
-    checkTime(time);
+    try { checkTime(time); } catch (e) { throw columnError(e); }
     let pdynNpa: number;
     let pdynSource: SeriesCondition['pdynSource'] = 'pdyn_npa';
     const hasPlasma = idx.has('density_cm3') && idx.has('speed_kms');
@@ -199,11 +200,10 @@ function parseConditionValue(fields: string[], line: number, idx: HeaderIndex): 
       try { pdynNpa = pdynFromPlasmaNominal(n, v); } catch (e) { throw columnError(e); }
       pdynSource = 'density_speed';
     }
-    if (pdynNpa > 1e4) throw new RowProblem(false, `pdyn_npa: ${pdynNpa} nPa is above the allowed 10000 nPa`);
-    const bzNt = num(fields, idx, 'bz_nt');
-    if (Math.abs(bzNt) > 1000) throw new RowProblem(false, `bz_nt: ${bzNt} is outside −1000..1000 nT`);
-    const byNt = idx.has('by_nt') ? num(fields, idx, 'by_nt') : 0;
-    if (Math.abs(byNt) > 1000) throw new RowProblem(false, `by_nt: ${byNt} is outside −1000..1000 nT`);
+    const pdynMax = INPUT_RANGES.pdynNpa.max;
+    if (pdynNpa > pdynMax) throw new RowProblem(false, `pdyn_npa: ${pdynNpa} nPa is above the allowed ${pdynMax} nPa`);
+    const bzNt = inRange('bz_nt', num(fields, idx, 'bz_nt'), INPUT_RANGES.imfNt, 'nT');
+    const byNt = idx.has('by_nt') ? inRange('by_nt', num(fields, idx, 'by_nt'), INPUT_RANGES.imfNt, 'nT') : 0;
     return { time, pdynNpa, bzNt, byNt, pdynSource };
   });
 }

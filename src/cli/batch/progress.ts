@@ -25,7 +25,7 @@ export class Progress {
   }
 }
 
-export function formatDuration(seconds: number): string {
+function formatDuration(seconds: number): string {
   const s = Math.round(seconds);
   const h = Math.floor(s / 3600), m = Math.floor((s % 3600) / 60), r = s % 60;
   return h > 0 ? `${h}h${String(m).padStart(2, '0')}m` : m > 0 ? `${m}m${String(r).padStart(2, '0')}s` : `${r}s`;

@@ -4,8 +4,12 @@ import { gsmFromGeo, geoFromGsm } from '../../physics/frames/rotations';
 import { describePoint } from '../../physics/trace/footpoint';
 import { writeCsv } from '../../io/csv';
 import { pointFeature } from '../../io/geojson';
-import { UsageError } from '../args';
+import { UsageError, requireFlagItem } from '../args';
+import { INPUT_RANGES } from '../common';
 import { CSV_DECIMALS, type CommandDef } from '../command';
+
+/** Heights --geo accepts, km: from below the surface to 1000 RE. */
+const GEO_HEIGHT_RANGE_KM = { min: -1000, max: 6_371_200 };
 
 export const fieldCommand: CommandDef = {
   name: 'field',
@@ -39,9 +43,9 @@ export const fieldCommand: CommandDef = {
       if (r > 1000) throw new UsageError('--gsm', `expected a point within 1000 RE, got r = ${r} RE`);
     } else {
       const [lat, lon, alt] = geoIn!;
-      if (lat < -90 || lat > 90) throw new UsageError('--geo', `latitude: expected a number in -90..90 deg, got ${lat}`);
-      if (lon < -360 || lon > 360) throw new UsageError('--geo', `longitude: expected a number in -360..360 deg, got ${lon}`);
-      if (alt < -1000 || alt > 6_371_200) throw new UsageError('--geo', `height: expected a number in -1000..6371200 km, got ${alt}`);
+      requireFlagItem('--geo', 'latitude', lat, INPUT_RANGES.latDeg, 'deg');
+      requireFlagItem('--geo', 'longitude', lon, INPUT_RANGES.lonDeg, 'deg');
+      requireFlagItem('--geo', 'height', alt, GEO_HEIGHT_RANGE_KM, 'km');
       gsmFromGeo(p, geoFromGeodetic(new Float64Array(3), lat, lon, alt), f);
     }
     const b = new Float64Array(3);

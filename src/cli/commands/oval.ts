@@ -1,16 +1,13 @@
 /** `oval`: the open–closed boundary and the equatorward precipitation edge per MLT and hemisphere. */
-import { makeTracer, ovalBoundaries, mltGrid, DEFAULT_SOURCE_RE, type Hemisphere, type BoundaryPoint } from '../../physics/mapping';
+import { makeTracer, ovalBoundaries, mltGrid, type BoundaryPoint } from '../../physics/mapping';
 import { writeCsv, type CsvCell } from '../../io/csv';
 import { lineFeature, type Feature, type Position } from '../../io/geojson';
 import { CSV_DECIMALS, type CommandDef } from '../command';
+import { HEMISPHERE_FLAG, SOURCE_RE_FLAG, hemispheresOf, sourceReOf } from '../common';
 
-export const OVAL_HEADER = ['hemisphere', 'mlt_h',
+const OVAL_HEADER = ['hemisphere', 'mlt_h',
   'open_closed_mag_lat_deg', 'open_closed_geo_lat_deg', 'open_closed_geo_lon_deg',
   'equatorward_mag_lat_deg', 'equatorward_geo_lat_deg', 'equatorward_geo_lon_deg'];
-
-export function hemispheresOf(choice: string | undefined): Hemisphere[] {
-  return choice === 'north' ? ['north'] : choice === 'south' ? ['south'] : ['north', 'south'];
-}
 
 const BOUNDARIES = [
   { key: 'openClosed', name: 'open-closed boundary' },
@@ -31,16 +28,16 @@ export const ovalCommand: CommandDef = {
   ].join('\n'),
   flags: [
     { name: 'mlt-step', kind: 'number', meta: '<h>', unit: 'h', min: 0.05, max: 12, help: 'MLT sector spacing; must divide 24', defaultText: '1' },
-    { name: 'hemisphere', kind: 'enum', meta: 'north|south|both', values: ['north', 'south', 'both'], help: 'hemispheres to compute', defaultText: 'both' },
-    { name: 'source-re', kind: 'number', meta: '<RE>', unit: 'RE', min: 1.5, max: 100, help: 'equatorial source distance of the equatorward edge', defaultText: String(DEFAULT_SOURCE_RE) },
+    HEMISPHERE_FLAG('hemispheres to compute'),
+    SOURCE_RE_FLAG,
   ],
   formats: ['json', 'csv', 'geojson'],
   examples: ['oval --time 2025-03-20T22:00:00Z --bz -5 --format csv', 'oval --mlt-step 0.5 --hemisphere north --format geojson'],
   run(ctx) {
     const step = (ctx.flags['mlt-step'] as number | undefined) ?? 1;
-    const sourceRe = (ctx.flags['source-re'] as number | undefined) ?? DEFAULT_SOURCE_RE;
+    const sourceRe = sourceReOf(ctx.flags);
     const mlts = mltGrid(step);
-    const hems = hemispheresOf(ctx.flags.hemisphere as string | undefined);
+    const hems = hemispheresOf(ctx.flags);
     const tracer = makeTracer(ctx.model, { altKm: ctx.altKm, ellipsoid: true });
     const hemispheres = ovalBoundaries(ctx.model, tracer, hems, mlts, { sourceRe });
     for (const h of hemispheres) {

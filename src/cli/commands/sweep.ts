@@ -1,8 +1,9 @@
 /** `sweep`: boundary latitudes against Pdyn or Bz, other conditions held. */
-import { sweepBoundaries, type SweepRows, DEFAULT_SOURCE_RE, type SectorBoundaries } from '../../physics/mapping';
+import { sweepBoundaries, type SweepRows } from '../../physics/mapping';
+import type { SectorBoundaries } from '../../physics/mapping';
 import { writeCsv, type CsvCell } from '../../io/csv';
 import { CSV_DECIMALS, type CommandDef } from '../command';
-import { hemispheresOf } from './oval';
+import { HEMISPHERE_FLAG, SOURCE_RE_FLAG, hemispheresOf, sourceReOf } from '../common';
 
 export const sweepCommand: CommandDef = {
   name: 'sweep',
@@ -20,8 +21,8 @@ export const sweepCommand: CommandDef = {
     { name: 'to', kind: 'number', meta: '<b>', min: -1000, max: 1e4, help: 'last value (nPa or nT)', required: true },
     { name: 'steps', kind: 'integer', meta: '<n>', min: 1, max: 1000, help: 'number of values', required: true },
     { name: 'mlt', kind: 'numbers', meta: '<h>[,<h>…]', unit: 'h', min: 0, max: 24, help: 'MLT sectors', defaultText: '0' },
-    { name: 'hemisphere', kind: 'enum', meta: 'north|south|both', values: ['north', 'south', 'both'], help: 'hemispheres to report', defaultText: 'both' },
-    { name: 'source-re', kind: 'number', meta: '<RE>', unit: 'RE', min: 1.5, max: 100, help: 'equatorial source distance of the equatorward edge', defaultText: String(DEFAULT_SOURCE_RE) },
+    HEMISPHERE_FLAG('hemispheres to report'),
+    SOURCE_RE_FLAG,
   ],
   formats: ['json', 'csv'],
   examples: ['sweep --vary bz --from 5 --to -15 --steps 5 --mlt 0,12', 'sweep --vary pdyn --from 1 --to 10 --steps 6 --format csv'],
@@ -31,8 +32,8 @@ export const sweepCommand: CommandDef = {
     const to = ctx.flags.to as number;
     const steps = ctx.flags.steps as number;
     const mlts = (ctx.flags.mlt as number[] | undefined) ?? [0];
-    const sourceRe = (ctx.flags['source-re'] as number | undefined) ?? DEFAULT_SOURCE_RE;
-    const hems = hemispheresOf(ctx.flags.hemisphere as string | undefined);
+    const sourceRe = sourceReOf(ctx.flags);
+    const hems = hemispheresOf(ctx.flags);
     const c = ctx.conditions;
     if (vary === 'pdyn' && ctx.flags.pdyn !== undefined) ctx.warn('--pdyn is replaced by the swept values');
     if (vary === 'bz' && ctx.flags.bz !== undefined) ctx.warn('--bz is replaced by the swept values');

@@ -5,6 +5,7 @@ import { writeCsv, type CsvCell } from '../../io/csv';
 import { lineFeature, pointFeature, type Feature } from '../../io/geojson';
 import { triples } from '../../io/json';
 import { CSV_DECIMALS, type CommandDef } from '../command';
+import { INPUT_RANGES } from '../common';
 
 const FOOT_HEADER = ['role', 'hemisphere', 'geo_lat_deg', 'geo_lon_deg', 'mag_lat_deg', 'mag_lon_deg', 'mlt_h', 'alt_km',
   'line_type', 'length_re', 'equator_r_re', 'equator_b_nt'];
@@ -26,9 +27,9 @@ export const traceCommand: CommandDef = {
     'MultiLineString where it crosses the antimeridian) and Points for the site and footpoints.',
   ].join('\n'),
   flags: [
-    { name: 'lat', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'site latitude', required: true },
-    { name: 'lon', kind: 'number', meta: '<deg>', unit: 'deg', min: -360, max: 360, help: 'site longitude, east positive', required: true },
-    { name: 'height-km', kind: 'number', meta: '<km>', unit: 'km', min: -1, max: 100_000, help: 'site height', defaultText: '0' },
+    { name: 'lat', kind: 'number', meta: '<deg>', unit: 'deg', ...INPUT_RANGES.latDeg, help: 'site latitude', required: true },
+    { name: 'lon', kind: 'number', meta: '<deg>', unit: 'deg', ...INPUT_RANGES.lonDeg, help: 'site longitude, east positive', required: true },
+    { name: 'height-km', kind: 'number', meta: '<km>', unit: 'km', ...INPUT_RANGES.siteHeightKm, help: 'site height', defaultText: '0' },
     { name: 'coords', kind: 'enum', meta: 'geo|mag', values: ['geo', 'mag'], help: 'coordinates of --lat/--lon', defaultText: 'geo' },
     { name: 'points', kind: 'switch', help: 'include the line\'s points (GSM, RE)' },
   ],

@@ -19,7 +19,7 @@ export {
   type BoundaryPoint, type SectorBoundaries, type BoundaryOptions, type BoundaryHint,
 } from './boundaries';
 export { predictHint, boundaryFinder } from './hints';
-export { mltGrid, ovalBoundaries, ovalRelation, type HemisphereBoundaries, type OvalRelation } from './oval';
+export { mltGrid, ovalSectors, ovalBoundaries, ovalRelation, type HemisphereBoundaries, type OvalRelation } from './oval';
 export { openFluxWb, type OpenFluxOptions } from './flux';
 export { sweepBoundaries, type SweepOptions, type SweepRows } from './sweep';
 export { skyPosition, horizonCentralAngleDeg, elevationAtCentralAngleDeg, type SkyPosition } from './sky';

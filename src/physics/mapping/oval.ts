@@ -21,19 +21,24 @@ export interface HemisphereBoundaries {
   sectors: SectorBoundaries[];
 }
 
-/** Boundaries per MLT for the chosen hemispheres, each sector's search started from its neighbours' answers. */
+/**
+ * The oval loop of one hemisphere: one sector per MLT, each search started from
+ * the two previous sectors' answers. A generator, so a caller can pause or stop
+ * between sectors (the worker checks for stale requests there).
+ */
+export function* ovalSectors(model: PreparedModel, tracer: Tracer, hemisphere: Hemisphere, mlts: readonly number[], opts: Partial<BoundaryOptions> = {}): Generator<SectorBoundaries, void, void> {
+  let prev: SectorBoundaries | null = null, prev2: SectorBoundaries | null = null;
+  for (const m of mlts) {
+    const b = sectorBoundaries(model, tracer, hemisphere, m, opts, predictHint(prev, prev2));
+    yield b;
+    prev2 = prev;
+    prev = b;
+  }
+}
+
+/** Boundaries per MLT for the chosen hemispheres (ovalSectors collected). */
 export function ovalBoundaries(model: PreparedModel, tracer: Tracer, hemispheres: Hemisphere[], mlts: number[], opts: Partial<BoundaryOptions> = {}): HemisphereBoundaries[] {
-  return hemispheres.map((h) => {
-    const sectors: SectorBoundaries[] = [];
-    let prev: SectorBoundaries | null = null, prev2: SectorBoundaries | null = null;
-    for (const m of mlts) {
-      const b = sectorBoundaries(model, tracer, h, m, opts, predictHint(prev, prev2));
-      sectors.push(b);
-      prev2 = prev;
-      prev = b;
-    }
-    return { hemisphere: h, sectors };
-  });
+  return hemispheres.map((h) => ({ hemisphere: h, sectors: [...ovalSectors(model, tracer, h, mlts, opts)] }));
 }
 
 /** Where a footpoint stands against the oval. */

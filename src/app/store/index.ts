@@ -1,12 +1,14 @@
 /**
- * The app's one store: a plain object, a setter and subscribers, with a thin
- * React hook. Components read slices; the frame loop never touches React state.
+ * The app's one store: its state, the instance (a framework-free core,
+ * ./core.ts), the setters the panels call, and a thin React hook.
+ * Components read slices; the frame loop never touches React state.
  */
 import { useSyncExternalStore } from 'react';
-import type { FieldConditions } from '../physics/field/conditions';
-import type { OvalResult, SceneResult, SiteInput, SitesResult, SweepResult } from '../../workers/protocol';
-import { DEMO_SCENARIO } from './scenario';
-import { noteChange } from './perf';
+import type { FieldConditions } from '../../physics/field/conditions';
+import type { OvalResult, SceneResult, SiteInput, SitesResult, SweepResult } from '../../../workers/protocol';
+import { DEMO_SCENARIO } from '../scenario';
+import { noteChange } from '../perf';
+import { createStore, type Store } from './core';
 
 export type AltPreset = 'ground' | 'green' | 'red' | 'custom';
 
@@ -17,7 +19,7 @@ export interface ProductSettings {
   minElevationDeg: number;
 }
 
-export interface ViewSettings {
+interface ViewSettings {
   magGraticule: boolean;
   fan: boolean;
   magnetopauseSurface: boolean;
@@ -26,7 +28,7 @@ export interface ViewSettings {
   sweepMlt: number;
 }
 
-export interface PerfMark {
+interface PerfMark {
   /** Sequence number of the latest condition change and when it happened (performance.now()). */
   seq: number;
   changedAt: number;
@@ -60,31 +62,7 @@ export interface AnsweredFor {
   view: ViewSettings;
 }
 
-export interface Store<T> {
-  get(): T;
-  set(patch: Partial<T> | ((s: T) => Partial<T>)): void;
-  subscribe(fn: (s: T, prev: T) => void): () => void;
-}
-
-export function createStore<T extends object>(initial: T): Store<T> {
-  let state = initial;
-  const listeners = new Set<(s: T, prev: T) => void>();
-  return {
-    get: () => state,
-    set(patch) {
-      const prev = state;
-      const p = typeof patch === 'function' ? patch(state) : patch;
-      state = { ...state, ...p };
-      for (const fn of listeners) fn(state, prev);
-    },
-    subscribe(fn) {
-      listeners.add(fn);
-      return () => listeners.delete(fn);
-    },
-  };
-}
-
-export function initialState(): AppState {
+function initialState(): AppState {
   return {
     scenarioName: DEMO_SCENARIO.name,
     conditions: { ...DEMO_SCENARIO.conditions },

@@ -1,0 +1,9 @@
+/**
+ * Exit codes of every CLI command (the contract of docs/references.md §13):
+ * 0 success, 1 the computation or run failed, 2 bad arguments (or, for
+ * `batch`, a wrong input header), 3 `batch` finished but some rows failed.
+ */
+export const EXIT_OK = 0;
+export const EXIT_FAILURE = 1;
+export const EXIT_USAGE = 2;
+export const EXIT_ROWS_FAILED = 3;

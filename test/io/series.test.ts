@@ -220,7 +220,7 @@ describe('format detection and choice', () => {
   it('fails with a message listing what is allowed', () => {
     expect(() => readSeriesText('\n2027 302 14 1.0 2.0\n')).toThrow('format: cannot tell the series format from line 2 ("2027 302 14 1.0 2.0": 5 blank-separated words, no comma). Expected a CSV header');
     expect(() => readSeriesText('')).toThrow('series: the input is empty');
-    expect(() => readSeriesText('a', { format: 'omni' as never })).toThrow('format: expected one of auto, csv, hourly, highres; got "omni"');
+    expect(() => readSeriesText('a', { format: 'tsv' as never })).toThrow('format: expected one of auto, csv, hourly, highres; got "tsv"');
   });
 
   it('an explicit format is used as given (a high-resolution line read as hourly is a word-count error)', () => {

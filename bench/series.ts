@@ -1,5 +1,5 @@
 /**
- * Section "series" (project issue 13): the solar-wind series reader
+ * Section "series": the solar-wind series reader
  * (src/io/series) streaming a generated file from disk in 64 KiB chunks —
  * a year of 1-minute high-resolution lines (525,600), twenty years of hourly
  * lines, a year of 1-minute CSV rows — with invented values.

@@ -36,7 +36,7 @@ export interface SeriesCondition {
 }
 
 /** Column index by name, after checking the header against the expected columns. */
-type HeaderIndex = Map<string, number>;
+export type HeaderIndex = Map<string, number>;
 
 function headerNames(fields: string[]): string[] {
   return fields.map((h) => csvText(h.trim()));

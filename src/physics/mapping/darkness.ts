@@ -11,7 +11,7 @@
  * site matters). Pure: no DOM, React, three or Node APIs.
  */
 import * as Astro from 'astronomy-engine';
-import { DEG, RAD } from '../constants';
+import { RAD_PER_DEG, DEG_PER_RAD } from '../constants';
 import { requireFinite, requireInRange } from '../errors';
 import { gmstRad, sunDirectionGei } from '../frames/time';
 
@@ -72,10 +72,10 @@ export function sunElevationDegUnchecked(latDeg: number, lonDeg: number, ms: num
   const sx = cg * sun[0] + sg * sun[1];
   const sy = -sg * sun[0] + cg * sun[1];
   const sz = sun[2];
-  const la = latDeg * DEG, lo = lonDeg * DEG;
+  const la = latDeg * RAD_PER_DEG, lo = lonDeg * RAD_PER_DEG;
   const cla = Math.cos(la);
   const up = cla * Math.cos(lo) * sx + cla * Math.sin(lo) * sy + Math.sin(la) * sz;
-  return Math.asin(Math.max(-1, Math.min(1, up))) * RAD;
+  return Math.asin(Math.max(-1, Math.min(1, up))) * DEG_PER_RAD;
 }
 
 function checkSite(latDeg: number, lonDeg: number, heightKm: number, ms: number): void {

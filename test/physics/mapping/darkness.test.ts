@@ -13,7 +13,7 @@ import { moonSky, skyDarkness, sunElevationDeg, twilightClass, TWILIGHT_LIMIT_DE
 import { InputError } from '../../../src/physics/errors';
 import { expectAtMost, expectClose } from '../../helpers';
 
-const RAD = 180 / Math.PI;
+import { DEG_PER_RAD } from '../../../src/physics/constants';
 /** Sea-level sites (invented), both hemispheres, polar to equatorial. */
 const SITES: [number, number][] = [[65.1, 20.4], [-43.5, 172.6], [0.3, -78.2], [52.2, -1.3], [-69.0, 77.5]];
 const STARTS = [Date.UTC(2027, 2, 3), Date.UTC(2027, 9, 29), Date.UTC(2028, 11, 20), Date.UTC(1961, 5, 14)];
@@ -41,7 +41,7 @@ describe('Sun elevation (Hapgood 1992) against astronomy-engine', () => {
         const rise = Astro.SearchRiseSet(Astro.Body.Sun, obs, +1, new Date(start), 2);
         if (!rise) continue;
         const distKm = Astro.Equator(Astro.Body.Sun, rise, obs, true, true).dist * Astro.KM_PER_AU;
-        const want = -(34 / 60 + Math.asin(695_700 / distKm) * RAD);
+        const want = -(34 / 60 + Math.asin(695_700 / distKm) * DEG_PER_RAD);
         expectClose(sunElevationDeg(lat, lon, 0, rise.date.getTime()), want, 0.009, `sunrise ${lat}°, ${rise.date.toISOString()}`);
       }
     }
@@ -98,7 +98,7 @@ describe('Moon elevation and illuminated fraction (astronomy-engine)', () => {
         const rise = Astro.SearchRiseSet(Astro.Body.Moon, obs, +1, new Date(start), 2);
         if (!rise) continue;
         const distKm = Astro.Equator(Astro.Body.Moon, rise, obs, true, true).dist * Astro.KM_PER_AU;
-        const want = -(34 / 60 + Math.asin(1738.1 / distKm) * RAD);
+        const want = -(34 / 60 + Math.asin(1738.1 / distKm) * DEG_PER_RAD);
         expectClose(moonSky(lat, lon, 0, rise.date.getTime()).elevationDeg, want, 0.0005, `moonrise ${lat}°, ${rise.date.toISOString()}`);
         n++;
       }

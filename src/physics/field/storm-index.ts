@@ -151,3 +151,38 @@ export function integrateDstStar(timesMs: ArrayLike<number>, speedKms: ArrayLike
   }
   return out;
 }
+
+/** The storm index a model uses, and where it came from (metadata of every export). */
+export interface StormState {
+  /** 'given': the user's Dst/SYM-H; 'estimated': the O'Brien–McPherron steady state for the solar wind. */
+  dstSource: 'given' | 'estimated';
+  /** The index (given, or the estimate converted back with the pressure correction), nT. */
+  dstNt: number;
+  /** Pressure-corrected index used by the ring current, nT. */
+  dstStarNt: number;
+  /** Solar-wind speed used, km/s, and whether it was given or the nominal value. */
+  speedKms: number;
+  speedSource: 'given' | 'nominal';
+  warnings: string[];
+}
+
+/** Resolve the storm index for one condition (given, or estimated from Bz and speed). */
+export function stormState(pdynNpa: number, bzNt: number, dstNt: number | null, speedKms: number | null): StormState {
+  const speed = speedKms === null ? NOMINAL_SPEED_KMS : requireSpeed('speedKms', speedKms);
+  const speedSource = speedKms === null ? 'nominal' : 'given';
+  if (dstNt !== null) {
+    const d = requireDst('dstNt', dstNt);
+    return { dstSource: 'given', dstNt: d, dstStarNt: pressureCorrectedDst(d, pdynNpa), speedKms: speed, speedSource, warnings: [] };
+  }
+  const star = steadyDstStar(speed, bzNt);
+  // Fixed text (the values are in the metadata), so a sweep counts it once.
+  const how = speedKms === null ? `the nominal solar-wind speed ${NOMINAL_SPEED_KMS} km/s` : 'the given solar-wind speed';
+  return {
+    dstSource: 'estimated',
+    dstNt: dstFromCorrected(star, pdynNpa),
+    dstStarNt: star,
+    speedKms: speed,
+    speedSource,
+    warnings: [`storm index: none given, so Dst* is estimated from IMF Bz and ${how} (O'Brien–McPherron steady state; give the Dst or SYM-H index for a storm in progress or recovering)`],
+  };
+}

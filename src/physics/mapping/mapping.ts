@@ -169,7 +169,8 @@ function boundaryPoint(model: PreparedModel, t: Tracer, signedLat: number, mltH:
  * the answer beyond latTolDeg.
  */
 export function sectorBoundaries(model: PreparedModel, t: Tracer, hemisphere: Hemisphere, mltH: number, opts: Partial<BoundaryOptions> = {}, hint?: BoundaryHint | null): SectorBoundaries {
-  const o = { ...DEFAULT_BOUNDARY_OPTIONS, ...opts };
+  // The source distance follows the conditions (model.sourceRe, issue 10) unless the caller sets one.
+  const o = { ...DEFAULT_BOUNDARY_OPTIONS, ...opts, sourceRe: opts.sourceRe ?? model.sourceRe ?? DEFAULT_SOURCE_RE };
   const sgn = hemisphere === 'north' ? 1 : -1;
   const probe = (lat: number) => closedAt(model, t, sgn * lat, mltH);
   const samples: Sample[] = [];

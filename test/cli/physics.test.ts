@@ -58,8 +58,10 @@ describe('north/south symmetry at zero tilt with By = 0 (derived: mirror symmetr
     });
     // Footpoints sit on the WGS84 ellipsoid, which is not symmetric about the dipole equator: its
     // radius differs by a few km between mirror points, which can move a bisection by its last
-    // interval (2°/2⁸ = 0.0078°; measured: 0 for the open–closed boundary, 0.0078° for the edge).
-    expectAtMost(worst, 0.008, 'largest |north + south| magnetic latitude');
+    // interval (2°/2⁸ = 0.0078°; measured: 0 for the open–closed boundary, 0.0078° for the edge),
+    // or the equatorward edge's regula falsi by its tolerance latTolDeg 0.01° (measured 0.0088° with the
+    // storm-following source distance of issue 10).
+    expectAtMost(worst, 0.01, 'largest |north + south| magnetic latitude');
   });
 });
 

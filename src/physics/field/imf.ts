@@ -44,7 +44,8 @@ export interface ImfField {
  * references §10) applied to the model's driver, the penetrated field. B_s = 20 nT is our
  * calibration: with it and ε = 0.913 the penetrated field at Bz −5 nT is the issue-6 value
  * (3.5 nT, so the quiet calibration holds), and the open flux levels off (< 0.15 GWb more from
- * Bz −30 to −50 nT, ≤ 1.2 GWb; references §10). Infinity turns the saturation off.
+ * Bz −30 to −50 nT, ≤ 1.2 GWb; references §10). Infinity turns the saturation off; the model
+ * (model.ts) applies it only with the magnetopause on (bare Dungey superposition without it).
  */
 export const DEFAULT_IMF_SATURATION_NT = 15;
 

@@ -16,7 +16,7 @@ import { prepareMainField, type MainFieldModel } from './mainfield/synthesis';
 import { addTiltedDipoleField } from './dipole';
 import { shueMagnetopause, isInsideMagnetopause, type MagnetopauseShape } from './magnetopause';
 import { prepareCompression, type CompressionField } from './compression/fit';
-import { prepareImf, DEFAULT_IMF_EFFICIENCY } from './imf';
+import { prepareImf, DEFAULT_IMF_EFFICIENCY, DEFAULT_IMF_SATURATION_NT } from './imf';
 import { prepareTail, tailParameters, DEFAULT_TAIL_CALIBRATION, type TailCalibration, type TailField } from './tail';
 import type { TraceField } from '../trace/tracer';
 // Storm-time terms (issue 10).
@@ -105,7 +105,7 @@ export interface ModelOptions {
   compression?: import('./compression/fit').CompressionOptions;
   /** Ring current on (default true); off reproduces the pre-storm model (calibration studies). */
   ringCurrent?: boolean;
-  /** Saturation field of the penetrated IMF, nT (default DEFAULT_IMF_SATURATION_NT; Infinity: none). */
+  /** Saturation field of the penetrated IMF, nT (default DEFAULT_IMF_SATURATION_NT with the magnetopause on, none with it off; Infinity: none). */
   imfSaturationNt?: number;
   /** Distance of the distant neutral line down the tail, RE (default DISTANT_NEUTRAL_LINE_RE; Infinity: none). */
   neutralLineRe?: number;
@@ -207,7 +207,9 @@ export function prepareModel(input: Partial<FieldConditions> & { time: string },
     }
   }
   // The IMF term is uniform: its penetrated components are folded into the sum below (imf.ts holds the formula).
-  const imf = prepareImf(c.byNt, c.bzNt, c.imfEfficiency, options.imfSaturationNt);
+  // Storm block: the saturation is a property of the bounded magnetosphere (Region-1 currents on the
+  // magnetopause, Hill–Siscoe); with the magnetopause off the term is Dungey's bare vacuum superposition.
+  const imf = prepareImf(c.byNt, c.bzNt, c.imfEfficiency, options.imfSaturationNt ?? (c.magnetopause ? DEFAULT_IMF_SATURATION_NT : Infinity));
   const imfBy = imf.byNt;
   const imfBz = imf.bzNt;
 

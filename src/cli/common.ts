@@ -9,6 +9,7 @@ import { DEG_PER_RAD } from '../physics/constants';
 import { InputError } from '../physics/errors';
 import { UsageError, inputErrorReason, type FlagSpec, type ParsedFlags } from './args';
 import { DEFAULT_SOURCE_RE, type Hemisphere } from '../physics/mapping';
+import { DST_LIMIT_NT, SPEED_LIMIT_KMS, NOMINAL_SPEED_KMS } from '../physics/field/storm-index';
 
 export type OutputFormat = 'json' | 'csv' | 'geojson';
 
@@ -27,6 +28,8 @@ export const INPUT_RANGES = {
   imfNt: { min: -1000, max: 1000 },
   altKm: { min: 0, max: 5000 },
   sourceRe: { min: 1.5, max: 100 },
+  dstNt: { min: -DST_LIMIT_NT, max: DST_LIMIT_NT },
+  speedKms: { above: 0, max: SPEED_LIMIT_KMS },
 } as const;
 
 /** --source-re, the same for every command that finds the equatorward edge. */
@@ -52,6 +55,8 @@ export function commonFlags(formats: readonly OutputFormat[]): FlagSpec[] {
     { name: 'pdyn', kind: 'number', meta: '<nPa>', unit: 'nPa', ...INPUT_RANGES.pdynNpa, help: 'solar-wind dynamic pressure', defaultText: String(DEFAULT_CONDITIONS.pdynNpa) },
     { name: 'bz', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.imfNt, help: 'IMF Bz (GSM)', defaultText: String(DEFAULT_CONDITIONS.bzNt) },
     { name: 'by', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.imfNt, help: 'IMF By (GSM)', defaultText: String(DEFAULT_CONDITIONS.byNt) },
+    { name: 'dst', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.dstNt, help: 'storm index (Dst or SYM-H); sets the ring current', defaultText: 'estimated from --bz and --speed, and said so' },
+    { name: 'speed', kind: 'number', meta: '<km/s>', unit: 'km/s', ...INPUT_RANGES.speedKms, help: 'solar-wind speed, for the storm-index estimate', defaultText: `${NOMINAL_SPEED_KMS} (nominal)` },
     { name: 'tilt-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'dipole tilt, overrides the tilt from --time', defaultText: 'from --time' },
     { name: 'internal', kind: 'enum', meta: 'dipole|igrf', values: ['dipole', 'igrf'], help: 'main field: centred dipole of the date or full IGRF-14', defaultText: DEFAULT_CONDITIONS.internal },
     { name: 'magnetopause', kind: 'enum', meta: 'on|off', values: ['on', 'off'], help: 'off removes both the compression term and the boundary', defaultText: 'on' },
@@ -75,6 +80,8 @@ export function conditionsFromFlags(f: ParsedFlags, now: Date): FieldConditions 
     magnetopause: f.magnetopause === undefined ? DEFAULT_CONDITIONS.magnetopause : f.magnetopause === 'on',
     imfEfficiency: (f['imf-efficiency'] as number | undefined) ?? DEFAULT_IMF_EFFICIENCY,
     tail: f.tail === undefined ? DEFAULT_CONDITIONS.tail : f.tail === 'on',
+    dstNt: (f.dst as number | undefined) ?? null,
+    speedKms: (f.speed as number | undefined) ?? null,
   };
 }
 
@@ -121,6 +128,13 @@ export function conditionsBlock(model: PreparedModel, altKm: number, warnings: r
     poleLonDeg: model.dipole.poleLonDeg,
     igrfEpoch: model.decimalYear,
     coefficients: 'IGRF-14',
+    dstNt: model.storm.dstNt,
+    dstStarNt: model.storm.dstStarNt,
+    dstSource: model.storm.dstSource,
+    speedKms: model.storm.speedKms,
+    speedSource: model.storm.speedSource,
+    ringCurrentEnergyJ: model.ringEnergyJ,
+    sourceRe: model.sourceRe,
     version: programVersion(),
   };
 }
@@ -147,6 +161,8 @@ const FLAG_OF_FIELD: Record<string, string> = {
   to: '--to',
   steps: '--steps',
   sourceRe: '--source-re',
+  dstNt: '--dst',
+  speedKms: '--speed',
 };
 
 /** An engine InputError re-worded for the flag that set the value, or null when no flag did. */

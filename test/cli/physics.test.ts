@@ -19,7 +19,7 @@ const radiusRe = (latDeg: number, lonDeg: number) => Math.hypot(...geoFromGeodet
 describe('Dungey polar cap through `oval` (references §5: Dungey 1961, derived)', () => {
   for (const [b, worked] of [[5, 73.28], [10, 71.17]]) {
     it(`b = ${b} nT: boundary latitude from the formula with the model's B0, and the worked value ${worked}° (B0 = 29,800 nT)`, async () => {
-      const j = await cliJson('oval', ...T, '--magnetopause', 'off', '--tail', 'off', '--imf-efficiency', '1', '--bz', String(-b), '--tilt-deg', '0', '--alt-km', '0', '--internal', 'dipole', '--mlt-step', '6');
+      const j = await cliJson('oval', ...T, '--magnetopause', 'off', '--tail', 'off', '--imf-efficiency', '1', '--bz', String(-b), '--tilt-deg', '0', '--alt-km', '0', '--internal', 'dipole', '--mlt-step', '6', '--dst', '0'); // Dst 0: Dst* > 0, no ring current, as in Dungey's model
       const b0 = j.conditions.b0Nt as number;
       let worst = 0;
       for (const h of j.hemispheres)
@@ -59,8 +59,10 @@ describe('north/south symmetry at zero tilt with By = 0 (derived: mirror symmetr
     });
     // Footpoints sit on the WGS84 ellipsoid, which is not symmetric about the dipole equator: its
     // radius differs by a few km between mirror points, which can move a bisection by its last
-    // interval (2°/2⁸ = 0.0078°; measured: 0 for the open–closed boundary, 0.0078° for the edge).
-    expectAtMost(worst, 0.008, 'largest |north + south| magnetic latitude');
+    // interval (2°/2⁸ = 0.0078°; measured: 0 for the open–closed boundary, 0.0078° for the edge),
+    // or the equatorward edge's regula falsi by its tolerance latTolDeg 0.01° (measured 0.0088° with the
+    // storm-following source distance).
+    expectAtMost(worst, 0.01, 'largest |north + south| magnetic latitude');
   });
 });
 

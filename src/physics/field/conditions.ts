@@ -36,6 +36,13 @@ export interface FieldConditions {
   imfEfficiency: number;
   /** Tail current-sheet term on/off (calibrated with it on: references §12). */
   tail?: boolean;
+  /**
+   * Storm index (Dst or SYM-H), nT, |Dst| ≤ 2000; null/undefined = estimated from the solar wind
+   * (O'Brien–McPherron steady state; src/physics/field/storm-index.ts).
+   */
+  dstNt?: number | null;
+  /** Solar-wind speed, km/s, 0 < V ≤ 3000; null/undefined = the nominal 400 km/s (storm-index.ts). */
+  speedKms?: number | null;
 }
 
 /** Options of the mapping products (not of the field). */

@@ -66,6 +66,10 @@ export interface TailParameters {
 export interface TailCalibration {
   /** Lobe field at Pdyn 2 nPa, Bz ≥ 0, nT. */
   lobeNt: number;
+  /** Saturation of the lobe field, nT (soft cap, see `tailParameters`). */
+  lobeCapNt: number;
+  /** Least distance of the outermost band's far end, RE (beyond the distant neutral line). */
+  farEndMinRe: number;
   /** Fractional growth of the lobe field per nT of southward IMF Bz. */
   lobePerSouthNt: number;
   /** Largest lobe growth factor from Bz (saturation). */
@@ -108,12 +112,21 @@ export interface TailCalibration {
  *  - thicknessRe 3.5: plasma-sheet half-thickness of a few RE in quiet times (from memory, references §12);
  *    thinner sheets stretch more but the fit residual grows (2 RE: > 1 %);
  *  - hingeRe 8: hinging distance of order 8–10 RE (from memory, references §12);
+ *  - lobeCapNt 80: the lobe field saturates instead of growing as √Pdyn without limit;
+ *    near-Earth lobe fields in intense storms reach several tens of nT, of order 50–80 nT at
+ *    10–20 RE (storm-time lobe studies, from memory). Soft cap L/(1 + (L/cap)⁴)^¼: −0.4 % at the
+ *    quiet 28 nT, 80 nT at most (our choice of form);
+ *  - farEndMinRe 150: the outermost band ends at least 150 RE down the tail, well
+ *    beyond the distant neutral line of the model (model.ts), so lobe lines never close round the
+ *    sheet's far end inside it (the band lengths alone scale with r0 and ended at ~76 RE at 50 nPa);
  *  - widthRe 21.5, taperPower 3: the taper falls to 1/8 at y = ±21.5 RE, about the tail's flank
  *    radius (Shue et al., 1998: ≈ 20 RE at x = −10 RE for 2 nPa), chosen for the fit residual
  *    (scan 20–22 RE: lowest worst-case rms near 21–22 RE).
  */
 export const DEFAULT_TAIL_CALIBRATION: Readonly<TailCalibration> = Object.freeze({
   lobeNt: 28,
+  lobeCapNt: 80,
+  farEndMinRe: 150,
   lobePerSouthNt: 0.065,
   lobeMaxFactor: 1.6,
   innerRe: 9,
@@ -136,18 +149,26 @@ function shueStandoffRe(pdynNpa: number, bzNt: number): number {
 
 /**
  * Tail parameters for dynamic pressure (nPa) and IMF Bz (nT):
- *  lobe = lobeNt · √(Pdyn/2) · min(1 + lobePerSouthNt·max(0, −Bz), lobeMaxFactor),
- *  lengths scale with r0/r0_ref (Shue et al., 1998),
- *  inner = max(innerMinRe, innerRe·r0/r0_ref − innerPerSouthNt·max(0, −Bz)).
+ *  L = lobeNt · √(Pdyn/2) · min(1 + lobePerSouthNt·max(0, −Bz), lobeMaxFactor),
+ *  lobe = L/(1 + (L/lobeCapNt)⁴)^¼ (saturation),
+ *  lengths scale with r0/r0_ref (Shue et al., 1998), the last far end at least farEndMinRe,
+ *  inner = max(innerMinRe, minInnerRe, innerRe·r0/r0_ref − innerPerSouthNt·max(0, −Bz)).
+ * `minInnerRe` ties the inner edge to the equatorward-edge source: the sheet's current
+ * starts beyond it, so the near-Earth field does not reverse inside the source.
  */
-export function tailParameters(pdynNpa: number, bzNt: number, cal: Readonly<TailCalibration> = DEFAULT_TAIL_CALIBRATION): TailParameters {
+export function tailParameters(pdynNpa: number, bzNt: number, cal: Readonly<TailCalibration> = DEFAULT_TAIL_CALIBRATION, minInnerRe = 0): TailParameters {
   requireInRange('pdynNpa', pdynNpa, Number.MIN_VALUE, 1e4, 'nPa');
   requireInRange('bzNt', bzNt, -1000, 1000, 'nT');
+  requireInRange('minInnerRe', minInnerRe, 0, 1e3, 'RE');
   const south = Math.max(0, -bzNt);
   const scale = shueStandoffRe(pdynNpa, bzNt) / R0_REF_RE;
-  const lobeNt = cal.lobeNt * Math.sqrt(pdynNpa / 2) * Math.min(1 + cal.lobePerSouthNt * south, cal.lobeMaxFactor);
-  const innerRe = Math.max(cal.innerMinRe, cal.innerRe * scale - cal.innerPerSouthNt * south);
+  const raw = cal.lobeNt * Math.sqrt(pdynNpa / 2) * Math.min(1 + cal.lobePerSouthNt * south, cal.lobeMaxFactor);
+  const q = raw / cal.lobeCapNt;
+  const lobeNt = raw / Math.sqrt(Math.sqrt(1 + q * q * q * q));
+  const innerRe = Math.max(cal.innerMinRe, minInnerRe, cal.innerRe * scale - cal.innerPerSouthNt * south);
   const outerRe = cal.bandLengthsRe.map((l) => innerRe + l * scale);
+  const last = outerRe.length - 1;
+  if (last >= 0 && outerRe[last] < cal.farEndMinRe) outerRe[last] = Math.max(cal.farEndMinRe, innerRe + 1);
   return { lobeNt, innerRe, outerRe, thicknessRe: cal.thicknessRe, hingeRe: cal.hingeRe, widthRe: cal.widthRe * scale, taperPower: cal.taperPower };
 }
 

@@ -102,7 +102,8 @@ type ClosedProbe = (lat: number) => { closed: boolean; eqR: number };
  * the answer beyond latTolDeg.
  */
 export function sectorBoundaries(model: PreparedModel, tracer: Tracer, hemisphere: Hemisphere, mltH: number, opts: Partial<BoundaryOptions> = {}, hint?: BoundaryHint | null): SectorBoundaries {
-  const o = { ...DEFAULT_BOUNDARY_OPTIONS, ...opts };
+  // The source distance follows the conditions (model.sourceRe) unless the caller sets one.
+  const o = { ...DEFAULT_BOUNDARY_OPTIONS, ...opts, sourceRe: opts.sourceRe ?? model.sourceRe };
   const sgn = hemisphere === 'north' ? 1 : -1;
   const probe: ClosedProbe = (lat) => closedAt(model, tracer, sgn * lat, mltH);
   const samples: Sample[] = [];

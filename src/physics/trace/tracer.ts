@@ -14,7 +14,8 @@
  *    located by secant iteration (kept inside a bracket) on the length of a
  *    partial RK4 step, so the footpoint lies on the surface to 1e-10 RE, not at
  *    the last full step;
- *  - open: the line leaves through the magnetopause, or passes rMaxRe;
+ *  - open: the line leaves through the magnetopause, passes rMaxRe, or reaches tailward of
+ *    the field's distant neutral line (`neutralLineXRe`);
  *  - unresolved: the step or length budget is exhausted (reported, never dropped).
  */
 import { ellipsoidRadiusRe } from '../frames/geodesy';
@@ -31,6 +32,12 @@ export interface TraceField {
   readonly boundaryMinRe: number;
   /** Row of the GSM→GEO matrix giving z_GEO, for the ellipsoidal stop surface. */
   readonly geoZRow: Float64Array;
+  /**
+   * GSM x of the model's distant neutral line, RE (negative; optional). A line that reaches
+   * tailward of it is open (it would cross the sheet beyond the neutral line), whatever the
+   * trace limit.
+   */
+  readonly neutralLineXRe?: number;
 }
 
 export interface TraceOptions {
@@ -217,6 +224,7 @@ export class Tracer {
     let end = END_BUDGET;
     this.upIndex = -1;
     const bMin = f.boundaryMinRe;
+    const xNeutral = f.neutralLineXRe ?? -Infinity;
     for (let step = 0; step < maxSteps; step++) {
       let h = o.stepFactor * r;
       if (h < o.hMinRe) h = o.hMinRe;
@@ -255,7 +263,7 @@ export class Tracer {
       out[3 * n] = x; out[3 * n + 1] = y; out[3 * n + 2] = z; outB[n] = bmag;
       n++;
       if (r >= bMin && !f.isInside(x, y, z)) { end = END_MAGNETOPAUSE; break; }
-      if (r > o.rMaxRe) { end = END_DISTANCE; break; }
+      if (r > o.rMaxRe || x < xNeutral) { end = END_DISTANCE; break; }
       if (length > o.maxLengthRe) { end = END_BUDGET; break; }
       if (!(bmag > 0)) { end = END_BUDGET; break; }
     }

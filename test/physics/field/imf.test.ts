@@ -3,7 +3,7 @@ import { expectAtMost, expectBetween, expectClose } from '../../helpers';
 import { addTiltedDipoleField } from '../../../src/physics/field/dipole';
 import { RE_KM } from '../../../src/physics/constants';
 import { InputError } from '../../../src/physics/errors';
-import { DEFAULT_IMF_EFFICIENCY, prepareImf } from '../../../src/physics/field/imf';
+import { DEFAULT_IMF_EFFICIENCY, DEFAULT_IMF_SATURATION_NT, prepareImf } from '../../../src/physics/field/imf';
 
 /** B0 of the references §5 worked values. */
 const B0 = 29800;
@@ -29,9 +29,9 @@ function bisect(f: (r: number) => number, lo: number, hi: number): number {
 }
 
 describe('penetrating IMF term (Dungey 1961, Phys. Rev. Lett. 6, 47)', () => {
-  it('adds exactly ε·(0, By, Bz) everywhere, on top of what is in out', () => {
+  it('without saturation adds exactly ε·(0, By, Bz) everywhere, on top of what is in out', () => {
     const eps = 0.37;
-    const imf = prepareImf(4.5, -7.25, eps);
+    const imf = prepareImf(4.5, -7.25, eps, Infinity);
     for (const [x, y, z] of [[0, 0, 0], [12, -3, 5], [-200, 40, -60]]) {
       const o = new Float64Array([1.5, -2, 3]);
       imf.evaluate(o, x, y, z);
@@ -60,13 +60,14 @@ describe('penetrating IMF term (Dungey 1961, Phys. Rev. Lett. 6, 47)', () => {
     }
     expect(() => prepareImf(Number.NaN, 0, 0.5)).toThrow(/byNt/);
     expect(() => prepareImf(0, 2000, 0.5)).toThrow(/bzNt.*−1000\.\.1000 nT/);
-    expect(prepareImf(0, -5, 1).bzNt).toBe(-5);
+    expect(prepareImf(0, -5, 1, Infinity).bzNt).toBe(-5);
+    expect(() => prepareImf(0, -5, 1, 0)).toThrow(/imfSaturationNt/);
   });
 
   it('Dungey neutral ring: total Bz vanishes at r_n = (B0/(εb))^(1/3) on the equator (references §5, derived)', () => {
     // Worked value (references §5): b = 5 nT → r_n = 18.131 RE; b = 10 nT → 14.390 RE.
     for (const [b, rn] of [[5, 18.131], [10, 14.39]]) {
-      const imf = prepareImf(0, -b, 1);
+      const imf = prepareImf(0, -b, 1, Infinity);
       for (const phi of [0, 1.1, Math.PI, -2.3]) {
         const root = bisect((r) => equatorialBz(imf, r, phi), 2, 60);
         expectClose(root, rn, 5e-4, `null radius, b ${b} nT, φ ${phi}`);
@@ -77,13 +78,13 @@ describe('penetrating IMF term (Dungey 1961, Phys. Rev. Lett. 6, 47)', () => {
       }
     }
     // With efficiency ε the ring sits at (B0/(ε b))^(1/3).
-    const half = prepareImf(0, -5, 0.5);
+    const half = prepareImf(0, -5, 0.5, Infinity);
     expectClose(bisect((r) => equatorialBz(half, r, 0.4), 2, 80), Math.cbrt(B0 / 2.5), 1e-9, 'null radius with ε 0.5');
   });
 
   it('northward IMF puts the nulls on the dipole axis at (2B0/b)^(1/3) (references §5, derived)', () => {
     const b = 5;
-    const imf = prepareImf(0, b, 1);
+    const imf = prepareImf(0, b, 1, Infinity);
     const zn = Math.cbrt((2 * B0) / b);
     for (const s of [1, -1]) {
       const o = new Float64Array(3);
@@ -95,7 +96,9 @@ describe('penetrating IMF term (Dungey 1961, Phys. Rev. Lett. 6, 47)', () => {
 
   it('DEFAULT_IMF_EFFICIENCY gives an open flux inside the typical 0.3–0.9 GWb for Bz −5 nT (Boakes et al. 2009; Dungey formulas, references §5)', () => {
     expectBetween(DEFAULT_IMF_EFFICIENCY, 0, 1, 'default efficiency');
-    const b = DEFAULT_IMF_EFFICIENCY * 5;
+    // The default penetrated field at Bz −5 nT (with the saturation) is the earlier calibration's value ε·b = 0.7 × 5 = 3.5 nT.
+    const b = -prepareImf(0, -5, DEFAULT_IMF_EFFICIENCY).bzNt;
+    expectClose(b, 3.5, 1e-3, 'default penetrated field at Bz −5 nT');
     const rn = Math.cbrt(B0 / b);
     // sin²θc = 3 / [2 r_n (1 + b/(2B0))] at r = 1 (references §5).
     const s2 = 3 / (2 * rn * (1 + b / (2 * B0)));
@@ -106,5 +109,21 @@ describe('penetrating IMF term (Dungey 1961, Phys. Rev. Lett. 6, 47)', () => {
     expectBetween(fluxGwb, 0.3, 0.9, 'open flux per hemisphere with the default ε, Bz −5 nT');
     const latDeg = 90 - (Math.asin(Math.sqrt(s2)) * 180) / Math.PI;
     expectClose(latDeg, 74.3, 0.05, 'boundary latitude quoted in the doc comment (74.3° for ε = 0.7)');
+  });
+
+  it('saturates in the Hill–Siscoe form b = εB·B_s/(εB + B_s) (Hill 1984; Siscoe et al. 2002; references §10)', () => {
+    const bs = DEFAULT_IMF_SATURATION_NT;
+    for (const [by, bz] of [[0, -50], [0, -30], [20, -20], [-5, 10]]) {
+      const e = DEFAULT_IMF_EFFICIENCY;
+      const bt = e * Math.hypot(by, bz);
+      const f = bs / (bt + bs);
+      const imf = prepareImf(by, bz, e);
+      expectClose(imf.bzNt, e * bz * f, 1e-12, `penetrated Bz for (${by}, ${bz})`);
+      expectClose(imf.byNt, e * by * f, 1e-12, `penetrated By for (${by}, ${bz})`);
+      expectAtMost(Math.hypot(imf.byNt, imf.bzNt), bs, 'never above the saturation field');
+    }
+    // Worked (derived): ε 0.913, Bz −30 → 9.689 nT; −50 → 11.290 nT; growth 1.6 nT where the unsaturated term grows 18.3 nT.
+    expectClose(-prepareImf(0, -30, 0.913).bzNt, (27.39 * 15) / 42.39, 1e-9, 'Bz −30 worked value');
+    expectClose(-prepareImf(0, -50, 0.913).bzNt, (45.65 * 15) / 60.65, 1e-9, 'Bz −50 worked value');
   });
 });

@@ -9,7 +9,7 @@ const base = { time: T, pdynNpa: 2, bzNt: -3, byNt: 2, internal: 'dipole' as con
 
 describe('model composition (DESIGN: B = B_internal + B_compression + B_imf)', () => {
   it('with every external term off the field is the tilted dipole of the date (derived)', () => {
-    const m = prepareModel({ ...base, magnetopause: false, imfEfficiency: 0, tail: false });
+    const m = prepareModel({ ...base, magnetopause: false, imfEfficiency: 0, tail: false }, { ringCurrent: false });
     const out = new Float64Array(3), ref = new Float64Array(3);
     for (const [x, y, z] of [[3, 1, 2], [-6, 2, -1], [0.5, -0.7, 1.1]]) {
       m.evaluate(out, x, y, z);
@@ -20,8 +20,9 @@ describe('model composition (DESIGN: B = B_internal + B_compression + B_imf)', (
   });
 
   it('the IMF term adds exactly ε·(0, By, Bz) (Dungey 1961 superposition)', () => {
-    const off = prepareModel({ ...base, magnetopause: false, imfEfficiency: 0 });
-    const on = prepareModel({ ...base, magnetopause: false, imfEfficiency: 0.3 });
+    // Saturation off (Infinity): the bare superposition.
+    const off = prepareModel({ ...base, magnetopause: false, imfEfficiency: 0 }, { imfSaturationNt: Infinity });
+    const on = prepareModel({ ...base, magnetopause: false, imfEfficiency: 0.3 }, { imfSaturationNt: Infinity });
     const a = new Float64Array(3), b = new Float64Array(3);
     off.evaluate(a, 4, -2, 1);
     on.evaluate(b, 4, -2, 1);

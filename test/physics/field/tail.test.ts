@@ -118,14 +118,22 @@ describe('tail current sheet (2D vector potential, derived)', () => {
   it('parameters: lobe ∝ √Pdyn, stronger (to the saturation) and closer for southward Bz, lengths scale with the Shue standoff', () => {
     const c = DEFAULT_TAIL_CALIBRATION;
     const q = tailParameters(2, 0), q8 = tailParameters(8, 0);
-    expectClose(q.lobeNt, c.lobeNt, 1e-12, 'lobe field at the reference conditions');
-    expectClose(q8.lobeNt / q.lobeNt, 2, 1e-12, 'lobe ∝ √Pdyn (pressure balance)');
+    // Soft cap L/(1 + (L/cap)⁴)^¼ (tail.ts): −0.4 % at the quiet 28 nT.
+    const capped = (l: number): number => l / Math.pow(1 + (l / c.lobeCapNt) ** 4, 0.25);
+    expectClose(q.lobeNt, capped(c.lobeNt), 1e-12, 'lobe field at the reference conditions');
+    expectClose(q.lobeNt, c.lobeNt, 0.005 * c.lobeNt, 'the cap leaves the quiet lobe within 0.5 %');
+    expectClose(q8.lobeNt, capped(2 * c.lobeNt), 1e-12, 'lobe ∝ √Pdyn (pressure balance) before the cap');
+    // Saturation: never above the cap, however high the pressure.
+    expectAtMost(tailParameters(30, -40).lobeNt, c.lobeCapNt, 'lobe at Pdyn 30, Bz −40');
+    expectAtMost(tailParameters(1000, -100).lobeNt, c.lobeCapNt, 'lobe at Pdyn 1000');
+    expect(tailParameters(50, -50).outerRe.at(-1)).toBeGreaterThanOrEqual(c.farEndMinRe);
+    expect(tailParameters(2, 0, c, 9.5).innerRe).toBe(9.5);
     // At Pdyn 2, Bz 0 the Shue standoff is the reference 10.2519 RE (references §3), so the scale is 1.
     expectClose(q.innerRe, c.innerRe, 1e-4, 'inner edge at Pdyn 2, Bz 0');
     expect(q8.innerRe).toBeLessThan(q.innerRe);
     const s5 = tailParameters(2, -5), s50 = tailParameters(2, -50), n5 = tailParameters(2, 5);
-    expectClose(s5.lobeNt / q.lobeNt, 1 + 5 * c.lobePerSouthNt, 1e-12, 'lobe growth with southward Bz');
-    expectClose(s50.lobeNt / q.lobeNt, c.lobeMaxFactor, 1e-12, 'lobe growth saturates');
+    expectClose(s5.lobeNt, capped(c.lobeNt * (1 + 5 * c.lobePerSouthNt)), 1e-12, 'lobe growth with southward Bz');
+    expectClose(s50.lobeNt, capped(c.lobeNt * c.lobeMaxFactor), 1e-12, 'lobe growth saturates');
     expectClose(n5.lobeNt, q.lobeNt, 1e-12, 'northward Bz: no growth');
     expect(s5.innerRe).toBeLessThan(q.innerRe);
     expectBetween(s50.innerRe, c.innerMinRe, c.innerMinRe, 'closest inner edge');
@@ -154,9 +162,10 @@ describe('tail in the model: the compression fit shields internal + tail', () =>
       for (let j = 0; j < 40; j++) {
         magnetopausePoint(p, mp, th, ((j + 0.21) * 2 * Math.PI) / 40);
         magnetopauseNormal(n, mp, p[0], p[1], p[2]);
-        // The shielded field: internal + tail + compression (the IMF is not shielded).
+        // The shielded field: internal + tail + ring current + compression (the IMF is not shielded).
         m.evaluateInternal(b, p[0], p[1], p[2]);
         m.tail!.evaluate(b, p[0], p[1], p[2]);
+        m.ringCurrent.evaluate(b, p[0], p[1], p[2]);
         m.compression!.evaluate(b, p[0], p[1], p[2]);
         const res = Math.abs(b[0] * n[0] + b[1] * n[1] + b[2] * n[2]) / Math.hypot(b[0], b[1], b[2]);
         sw += w; sr += w * res * res;
@@ -165,7 +174,7 @@ describe('tail in the model: the compression fit shields internal + tail', () =>
     return Math.sqrt(sr / sw);
   }
 
-  it('rms |B·n|/|B| over the fitted region (x ≥ −2 r0), Pdyn 0.5–10 nPa, Bz −10..10 nT: ≤ 1 % at zero tilt, ≤ 1.8 % at tilt ±35° (target 1 %, not met when tilted)', () => {
+  it('rms |B·n|/|B| over the fitted region (x ≥ −max(2 r0, 20.5 RE)), Pdyn 0.5–10 nPa, Bz −10..10 nT: ≤ 1.75 % at zero tilt, ≤ 2.45 % at tilt ±35° (target 1 %, not met)', () => {
     let worst0 = 0, worstTilt = 0;
     for (const pd of [0.5, 2, 10]) {
       for (const bz of [-10, 0, 10]) {
@@ -177,9 +186,12 @@ describe('tail in the model: the compression fit shields internal + tail', () =>
         }
       }
     }
-    // Measured: 0.97 % (tilt 0), 1.71 % (tilt ±35°, worst at 0.5 nPa, Bz −10).
-    expectAtMost(worst0, 0.01, 'worst rms residual at zero tilt');
-    expectAtMost(worstTilt, 0.018, 'worst rms residual at tilt ±35°');
+    // Measured before the storm-time model: 0.97 % (tilt 0), 1.71 % (tilt ±35°). The storm-time model fits at least 20.5 RE down
+    // the tail (2.9 r0 at 10 nPa, so the compression field stays small far down the tail) and shields
+    // the ring current too (estimated Dst* −114 nT at Bz −10): measured 1.70 % (tilt 0, 10 nPa, Bz −10)
+    // and 2.38 % (tilt ±35°, 10 nPa).
+    expectAtMost(worst0, 0.0175, 'worst rms residual at zero tilt');
+    expectAtMost(worstTilt, 0.0245, 'worst rms residual at tilt ±35°');
   }, 60_000);
 
   it('switches: tail off gives no tail term; on adds the sheet and changes the field; default is on', () => {
@@ -200,7 +212,8 @@ describe('openFluxWb (flux through the polar cap, derived)', () => {
   it('reproduces the Dungey open flux: b = 5 nT → 0.63 GWb, b = 10 nT → 0.79 GWb (references §5, B0 = 29,800 nT, r = 1, ε = 1)', () => {
     for (const [b, worked] of [[5, 0.63], [10, 0.79]]) {
       // 2020.0: B0 = 29,804.7 nT (references §2), within 0.02 % of the worked 29,800.
-      const m = prepareModel({ time: '2020-01-01T00:00:00Z', tiltDeg: 0, magnetopause: false, tail: false, imfEfficiency: 1, bzNt: -b, byNt: 0 });
+      // Bare Dungey superposition: no saturation, no ring current.
+      const m = prepareModel({ time: '2020-01-01T00:00:00Z', tiltDeg: 0, magnetopause: false, tail: false, imfEfficiency: 1, bzNt: -b, byNt: 0 }, { imfSaturationNt: Infinity, ringCurrent: false });
       const t = makeTracer(m, { altKm: 0, ellipsoid: false });
       const [north, south] = ovalBoundaries(m, t, ['north', 'south'], mltGrid(3));
       const b0 = m.dipole.b0Nt;

@@ -17,7 +17,7 @@
 import { InputError } from '../../errors';
 import type { MainFieldCoefficients } from './coefficients';
 import { coefCount, coefIndex } from './layout';
-import { truncationRadii } from './truncation';
+import { truncationRadii, footpointTruncationRadii } from './truncation';
 
 export interface MainFieldModel {
   readonly nmax: number;
@@ -50,7 +50,7 @@ class SphericalHarmonicField implements MainFieldModel {
   private readonly sph: Float64Array; // (Br, Bθ, Bφ) work array for addGeo
   private readonly rCut: Float64Array; // rCut[n]: beyond this radius (RE) degrees ≥ n are negligible
 
-  constructor(c: MainFieldCoefficients, truncationRelTol: number) {
+  constructor(c: MainFieldCoefficients, rCut: Float64Array) {
     const N = c.nmax;
     this.nmax = N;
     this.source = c.source;
@@ -82,7 +82,7 @@ class SphericalHarmonicField implements MainFieldModel {
         this.bk[k] = n > m ? Math.sqrt((n - 1) * (n - 1) - m * m) / d : 0;
       }
     }
-    this.rCut = truncationRadii(c, truncationRelTol);
+    this.rCut = rCut;
   }
 
   /** Writes (Br, Bθ, Bφ) for 1/r (in 1/RE), cos θ, sin θ, cos φ, sin φ. */
@@ -203,6 +203,13 @@ export interface MainFieldOptions {
    * to ~1e-7 rad) sums about degree 10 at 4 RE and 7 at 10 RE instead of 13.
    */
   truncationRelTol?: number;
+  /**
+   * Alternative rule, for tracing: drop the degrees that cannot move a traced footpoint by more
+   * than this many degrees of arc (sharper per-degree bound, mainfield/truncation.ts). 0.001° keeps
+   * degree 13 near the ground and sums about degree 5 at 3 RE and 3 at 10 RE.
+   * Exclusive with truncationRelTol.
+   */
+  footpointTolDeg?: number;
 }
 
 /**
@@ -227,5 +234,12 @@ export function prepareMainField(c: MainFieldCoefficients, options: MainFieldOpt
   if (!Number.isFinite(tol) || tol < 0 || tol > 1e-3) {
     throw new InputError('truncationRelTol', `expected a number in 0..0.001, got ${String(tol)}`);
   }
-  return new SphericalHarmonicField(c, tol);
+  const footTol = options.footpointTolDeg ?? 0;
+  if (!Number.isFinite(footTol) || footTol < 0 || footTol > 0.1) {
+    throw new InputError('footpointTolDeg', `expected a number of degrees in 0..0.1, got ${String(footTol)}`);
+  }
+  if (tol > 0 && footTol > 0) {
+    throw new InputError('footpointTolDeg', 'give either truncationRelTol or footpointTolDeg, not both');
+  }
+  return new SphericalHarmonicField(c, footTol > 0 ? footpointTruncationRadii(c, footTol) : truncationRadii(c, tol));
 }

@@ -40,3 +40,68 @@ export function truncationRadii(c: MainFieldCoefficients, relTol: number): Float
   for (let n = N - 1; n >= 2; n--) rCut[n] = Math.max(rCut[n], rCut[n + 1]);
   return rCut;
 }
+
+/**
+ * Largest field of degree n anywhere on the reference sphere, nT:
+ * |B_n| ≤ √((n+1)(2n+1)) · √(Σm g²+h²) (Cauchy–Schwarz with the addition theorem for Schmidt
+ * semi-normalised functions, Σm (P_n^m)² = 1, and its gradient form Σm |∇₁(P_n^m cos mφ)|² +
+ * |∇₁(P_n^m sin mφ)|² = n(n+1) (Unsöld's theorem); derived, and checked by sampling in
+ * test/physics/field/mainfield/truncation.test.ts). Beyond r the bound falls as r^−(n+2).
+ */
+export function degreeBoundsNt(c: MainFieldCoefficients): Float64Array {
+  const N = c.nmax;
+  const u = new Float64Array(N + 1);
+  for (let n = 1; n <= N; n++) {
+    let ss = 0;
+    for (let m = 0; m <= n; m++) {
+      const g = c.g[coefIndex(n, m)], h = m === 0 ? 0 : c.h[coefIndex(n, m)];
+      ss += g * g + h * h;
+    }
+    u[n] = Math.sqrt((n + 1) * (2 * n + 1) * ss);
+  }
+  return u;
+}
+
+/**
+ * Ratio of the footpoint tolerance (rad) to the relative field tolerance used by
+ * footpointTruncationRadii: degrees ≥ n are dropped where their summed bound is below
+ * FOOTPOINT_REL_PER_RAD · tol · B0/r³. Calibrated by measurement (test/physics/field/mainfield/
+ * accelerated-trace.test.ts): footpoints traced with the truncated field stay within the
+ * tolerance of the full synthesis over random sites and dates, with a margin of about 2.
+ */
+export const FOOTPOINT_REL_PER_RAD = 5;
+
+/**
+ * rCut[n] for a footpoint tolerance (degrees of arc on the ground): degrees ≥ n are summed
+ * only below rCut[n]. Uses the sharper per-degree bound of degreeBoundsNt.
+ */
+export function footpointTruncationRadii(c: MainFieldCoefficients, footpointTolDeg: number, relPerRad = FOOTPOINT_REL_PER_RAD): Float64Array {
+  const N = c.nmax;
+  const rCut = new Float64Array(N + 2).fill(Number.POSITIVE_INFINITY);
+  if (!(footpointTolDeg > 0) || N < 2) return rCut;
+  const relTol = relPerRad * footpointTolDeg * (Math.PI / 180);
+  const b0 = Math.hypot(c.g[1], c.g[2], c.h[2]);
+  const U = degreeBoundsNt(c);
+  return cutRadii(U, N, relTol * b0, rCut);
+}
+
+/** Bisection for rCut[n]: Σ_{j ≥ n} U_j r^−(j−1) = limit (U_j the degree bound at r = 1), then made non-increasing in n. */
+function cutRadii(U: Float64Array, N: number, limit: number, rCut: Float64Array): Float64Array {
+  const excess = (n: number, r: number): number => {
+    let e = 0;
+    for (let j = n; j <= N; j++) e += U[j] * Math.pow(r, -(j - 1));
+    return e - limit;
+  };
+  for (let n = 2; n <= N; n++) {
+    if (excess(n, 1) <= 0) { rCut[n] = 1; continue; }
+    let lo = 1, hi = 2;
+    while (excess(n, hi) > 0 && hi < 1e6) hi *= 2;
+    for (let i = 0; i < 60; i++) {
+      const mid = 0.5 * (lo + hi);
+      if (excess(n, mid) > 0) lo = mid; else hi = mid;
+    }
+    rCut[n] = hi;
+  }
+  for (let n = N - 1; n >= 2; n--) rCut[n] = Math.max(rCut[n], rCut[n + 1]);
+  return rCut;
+}

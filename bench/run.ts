@@ -48,6 +48,7 @@ function optional(name: string, file: string, exportName: string): SectionEntry 
 export const SECTIONS: SectionEntry[] = [
   { name: 'field', load: async () => (await import('./evaluation')).fieldSection },
   { name: 'tracer', load: async () => (await import('./tracer')).tracerSection },
+  { name: 'igrf', load: async () => (await import('./igrf')).igrfSection },
   optional('batch', 'batch.ts', 'batchSection'), // project issue 5
 ];
 

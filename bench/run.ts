@@ -50,6 +50,7 @@ export const SECTIONS: SectionEntry[] = [
   { name: 'tracer', load: async () => (await import('./tracer')).tracerSection },
   { name: 'igrf', load: async () => (await import('./igrf')).igrfSection },
   optional('batch', 'batch.ts', 'batchSection'), // project issue 5
+  { name: 'app', load: async () => (await import('./app')).appSection }, // browser figures (needs the e2e browser)
 ];
 
 interface Args { json: boolean; only: string | null; quick: boolean; inProcess: boolean; child: string | null; part: string | null }

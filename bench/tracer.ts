@@ -293,7 +293,7 @@ interface Scene { ms: number; cpuMs: number; prepareMs: number; linesMs: number;
  * points copied out as the scene needs them) and both hemispheres' boundaries
  * at 1 h MLT steps. Median of reps after 2 warm-ups.
  */
-function sceneTime(conditions: Parameters<typeof prepareModel>[0], reps: number): Scene {
+export function sceneTime(conditions: Parameters<typeof prepareModel>[0], reps: number): Scene {
   const lats = range(0, 24, 1).map((i) => 55 + 1.25 * i);
   const mltHours = mltGrid(1);
   const p = new Float64Array(3);
@@ -326,7 +326,7 @@ function sceneTime(conditions: Parameters<typeof prepareModel>[0], reps: number)
   return { ms: med('total'), cpuMs: med('cpu'), prepareMs: med('prep'), linesMs: med('lines'), boundariesMs: med('bnd'), lines, boundaryTraces: counting.count };
 }
 
-function sceneNote(s: Scene, what: string): string {
+export function sceneNote(s: Scene, what: string): string {
   return `${what}: prepare ${s.prepareMs.toFixed(1)} + ${s.lines} lines ${s.linesMs.toFixed(1)} + boundaries (2 hemispheres × 24 MLT, ${s.boundaryTraces} traces) ${s.boundariesMs.toFixed(1)} ms`;
 }
 

@@ -8,7 +8,12 @@
  * `BenchSection` (see bench/lib.ts) and add one line to SECTIONS. The `batch`
  * section (project issue 5: site-conditions per second, peak memory) is
  * already registered: it loads bench/batch.ts, exporting `batchSection`, once
- * that file exists.
+ * that file exists. `igrf` (bench/igrf.ts) times IGRF against dipole traces at the same
+ * footpoint accuracy; `app` (bench/app.ts) runs the browser bench (bench/browser.ts) and
+ * needs the e2e browser. With --json every figure of issue 14's table is a top-level key:
+ * batchRowsPerSecond100x1000, batchRowsPerSecond10x10000, batchRowsPerSecond1000x100,
+ * batchPeakRssMb, overheadRatio(WithTail), overheadRatioIgrf(WithTail), igrfTraceCostRatio
+ * (WithTail), sceneMs, sceneMsIgrf, appRefinedOvalMs, appLinesDrawnMs.
  *
  * Each section runs in its own Node process, one after the other (one core, no
  * workers); --in-process runs them all in this process instead (e.g. under

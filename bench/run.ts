@@ -8,7 +8,12 @@
  * `BenchSection` (see bench/lib.ts) and add one line to SECTIONS. The `batch`
  * section (site-conditions per second, peak memory) is
  * already registered: it loads bench/batch.ts, exporting `batchSection`, once
- * that file exists.
+ * that file exists. `igrf` (bench/igrf.ts) times IGRF against dipole traces at the same
+ * footpoint accuracy; `app` (bench/app.ts) runs the browser bench (bench/browser.ts) and
+ * needs the e2e browser. With --json every figure of the speed targets (DEVELOPERS.md) is a top-level key:
+ * batchRowsPerSecond100x1000, batchRowsPerSecond10x10000, batchRowsPerSecond1000x100,
+ * batchPeakRssMb, overheadRatio(WithTail), overheadRatioIgrf(WithTail), igrfTraceCostRatio
+ * (WithTail), sceneMs, sceneMsIgrf, appRefinedOvalMs, appLinesDrawnMs.
  *
  * Each section runs in its own Node process, one after the other (one core, no
  * workers); --in-process runs them all in this process instead (e.g. under
@@ -48,7 +53,10 @@ function optional(name: string, file: string, exportName: string): SectionEntry 
 export const SECTIONS: SectionEntry[] = [
   { name: 'field', load: async () => (await import('./evaluation')).fieldSection },
   { name: 'tracer', load: async () => (await import('./tracer')).tracerSection },
+  { name: 'igrf', load: async () => (await import('./igrf')).igrfSection },
   optional('batch', 'batch.ts', 'batchSection'), // batch throughput (references §13)
+  { name: 'app', load: async () => (await import('./app')).appSection }, // browser figures (needs the e2e browser)
+  { name: 'series', load: async () => (await import('./series')).seriesSection }, // solar-wind series reading
 ];
 
 interface Args { json: boolean; only: string | null; quick: boolean; inProcess: boolean; child: string | null; part: string | null }

@@ -193,8 +193,9 @@ function prepareStorm(c: FieldConditions, dipole: CentredDipole, options: ModelO
 /** The main field as a writer (GSM in, GSM out): the tilted centred dipole, or the full IGRF synthesis rotated through GEO. */
 function prepareInternal(c: FieldConditions, coeffs: ReturnType<typeof igrfCoefficients>, dipole: CentredDipole, frames: FrameSet, warnings: string[]): FieldWriter {
   if (c.internal === 'igrf') {
-    // Degrees whose bounded contribution is < 1e-7 of the dipole at the radius are skipped (mainfield/truncation.ts).
-    const mf: MainFieldModel = prepareMainField(coeffs, { truncationRelTol: 1e-7 });
+    // Degrees that cannot move a traced footpoint by 0.001° at the radius are skipped (mainfield/truncation.ts;
+    // every degree below 1.2 RE, so ground values are the full synthesis).
+    const mf: MainFieldModel = prepareMainField(coeffs, { footpointTolDeg: 0.001 });
     const m = frames.gsmFromGeo; // row-major GSM ← GEO
     const geo = new Float64Array(3);
     if (c.tiltDeg !== null && c.tiltDeg !== undefined) {

@@ -2,23 +2,12 @@
  * Defects of the batch command found by a hostile-user review, each pinned by
  * a test that failed before the fix: nothing lost, nothing silent.
  */
-import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { mkdtempSync, writeFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { runBatch } from '../../src/cli/batch/index';
+import { describe, it, expect, afterAll } from 'vitest';
+import { batchCli as batch, scratchDir } from './helpers';
 
-let dir = '';
-const file = (name: string, text: string): string => { const p = join(dir, name); writeFileSync(p, text); return p; };
-
-async function batch(args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '', err = '';
-  const code = await runBatch(args, { stdout: (t) => { out += t; }, stderr: (t) => { err += t; }, now: () => new Date('2025-03-20T22:00:00Z') });
-  return { code, out, err };
-}
-
-beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'batch-robust-')); });
-afterAll(() => { rmSync(dir, { recursive: true, force: true }); });
+const scratch = scratchDir('batch-robust-');
+const file = scratch.file;
+afterAll(() => scratch.remove());
 
 describe('batch: one bad quote does not end the run or drop rows (defect 3)', () => {
   it('a malformed quoted field past the first 64 KiB read chunk becomes an error row; every other row is written', async () => {

@@ -2,6 +2,10 @@
 import { spawnSync } from 'node:child_process';
 import { run } from '../../src/cli/run';
 import { EXIT_OK } from '../../src/cli/exit-codes';
+import { runBatch } from '../../src/cli/batch/index';
+import { mkdtempSync, writeFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 
 export interface CliOutcome {
   code: number;
@@ -30,4 +34,21 @@ export async function cliJson(...argv: string[]): Promise<Record<string, any>> {
 export function spawnCli(...argv: string[]): CliOutcome {
   const p = spawnSync('npx', ['tsx', 'src/cli/main.ts', ...argv], { encoding: 'utf8', cwd: new URL('../..', import.meta.url).pathname });
   return { code: p.status ?? -1, out: p.stdout, err: p.stderr };
+}
+
+/** The batch command in-process, at a fixed "now" (2025-03-20T22:00Z). */
+export async function batchCli(args: string[]): Promise<CliOutcome> {
+  let out = '', err = '';
+  const code = await runBatch(args, { stdout: (t) => { out += t; }, stderr: (t) => { err += t; }, now: () => new Date('2025-03-20T22:00:00Z') });
+  return { code, out, err };
+}
+
+/** A scratch folder for input files: `file(name, text)` writes one and returns its path. */
+export function scratchDir(prefix: string): { file(name: string, text: string): string; path(name: string): string; remove(): void } {
+  const dir = mkdtempSync(join(tmpdir(), prefix));
+  return {
+    file: (name, text) => { const p = join(dir, name); writeFileSync(p, text); return p; },
+    path: (name) => join(dir, name),
+    remove: () => rmSync(dir, { recursive: true, force: true }),
+  };
 }

@@ -203,6 +203,25 @@ export function realismMarkdown(rows: RealismRow[]): string {
   return lines.join('\n') + '\n';
 }
 
+/** The four boundary curves (noon/midnight, open–closed/equatorward) against xs, with their legend from (legendX, top); returns the next legend row's y. */
+function drawBoundarySeries(out: string[], xs: readonly number[], c: Omit<RealismCurves, 'bz'>, px: (v: number) => number, py: (v: number) => number, legendX: number, top: number): number {
+  const series: [string, number[], string, string][] = [
+    ['open–closed, noon', c.noonOc, '#e76f51', ''],
+    ['open–closed, midnight', c.midOc, '#264653', ''],
+    ['equatorward edge, noon', c.noonEq, '#e76f51', '2,3'],
+    ['equatorward edge, midnight', c.midEq, '#264653', '2,3'],
+  ];
+  series.forEach(([name, ys, color, dash], k) => {
+    const pts = xs.map((b, i) => [b, ys[i]] as const).filter(([, y]) => Number.isFinite(y));
+    out.push(`<polyline fill="none" stroke="${color}" stroke-width="2"${dash ? ` stroke-dasharray="${dash}"` : ''} points="${pts.map(([b, y]) => `${px(b).toFixed(1)},${py(y).toFixed(1)}`).join(' ')}"/>`);
+    for (const [b, y] of pts) out.push(`<circle cx="${px(b).toFixed(1)}" cy="${py(y).toFixed(1)}" r="2.5" fill="${color}"/>`);
+    const ly = top + 14 + 20 * k;
+    out.push(`<line x1="${legendX + 12}" y1="${ly}" x2="${legendX + 36}" y2="${ly}" stroke="${color}" stroke-width="2"${dash ? ` stroke-dasharray="${dash}"` : ''}/>`);
+    out.push(`<text x="${legendX + 42}" y="${ly + 4}">${name}</text>`);
+  });
+  return top + 14 + 20 * series.length;
+}
+
 /** A small hand-written SVG: boundary latitude against Bz at Pdyn 2 nPa, with the published bands. */
 export function realismSvg(c: RealismCurves): string {
   const W = 720, H = 400, L = 60, R = 230, T = 30, B = 50;
@@ -225,21 +244,7 @@ export function realismSvg(c: RealismCurves): string {
   out.push(`<text x="${(L + W - R) / 2}" y="${H - 12}" text-anchor="middle">IMF Bz (nT), Pdyn 2 nPa</text>`);
   out.push(`<text x="14" y="${(T + H - B) / 2}" text-anchor="middle" transform="rotate(-90 14 ${(T + H - B) / 2})">magnetic latitude</text>`);
   out.push(`<rect x="${L}" y="${T}" width="${W - L - R}" height="${H - T - B}" fill="none" stroke="#333333"/>`);
-  const series: [string, number[], string, string][] = [
-    ['open–closed, noon', c.noonOc, '#e76f51', ''],
-    ['open–closed, midnight', c.midOc, '#264653', ''],
-    ['equatorward edge, noon', c.noonEq, '#e76f51', '2,3'],
-    ['equatorward edge, midnight', c.midEq, '#264653', '2,3'],
-  ];
-  series.forEach(([name, ys, color, dash], k) => {
-    const pts = c.bz.map((b, i) => [b, ys[i]] as const).filter(([, y]) => Number.isFinite(y));
-    out.push(`<polyline fill="none" stroke="${color}" stroke-width="2"${dash ? ` stroke-dasharray="${dash}"` : ''} points="${pts.map(([b, y]) => `${px(b).toFixed(1)},${py(y).toFixed(1)}`).join(' ')}"/>`);
-    for (const [b, y] of pts) out.push(`<circle cx="${px(b).toFixed(1)}" cy="${py(y).toFixed(1)}" r="2.5" fill="${color}"/>`);
-    const ly = T + 14 + 20 * k;
-    out.push(`<line x1="${W - R + 12}" y1="${ly}" x2="${W - R + 36}" y2="${ly}" stroke="${color}" stroke-width="2"${dash ? ` stroke-dasharray="${dash}"` : ''}/>`);
-    out.push(`<text x="${W - R + 42}" y="${ly + 4}">${name}</text>`);
-  });
-  const ly = T + 14 + 20 * series.length;
+  const ly = drawBoundarySeries(out, c.bz, c, px, py, W - R, T);
   out.push(`<rect x="${W - R + 12}" y="${ly - 6}" width="24" height="10" fill="#f4a261" fill-opacity="0.25"/><text x="${W - R + 42}" y="${ly + 4}">noon 76–80° (§8)</text>`);
   out.push(`<rect x="${W - R + 12}" y="${ly + 14}" width="24" height="10" fill="#2a9d8f" fill-opacity="0.25"/><text x="${W - R + 42}" y="${ly + 24}">midnight 66–72° (§8)</text>`);
   out.push(`<line x1="${W - R + 12}" y1="${ly + 40}" x2="${W - R + 36}" y2="${ly + 40}" stroke="#e76f51" stroke-dasharray="5,4"/><text x="${W - R + 42}" y="${ly + 44}">cusp, Zhou et al. 2000</text>`);
@@ -269,21 +274,7 @@ export function realismStormSvg(c: StormCurves): string {
     out.push(`<line x1="${px(d)}" y1="${py(lat + 3)}" x2="${px(d)}" y2="${py(lat - 3)}" stroke="#7b5ea7" stroke-width="1.5"/>`);
     out.push(`<rect x="${px(d) - 4}" y="${py(lat) - 4}" width="8" height="8" fill="#ffffff" stroke="#7b5ea7" stroke-width="1.5"/>`);
   }
-  const series: [string, number[], string, string][] = [
-    ['open–closed, noon', c.noonOc, '#e76f51', ''],
-    ['open–closed, midnight', c.midOc, '#264653', ''],
-    ['equatorward edge, noon', c.noonEq, '#e76f51', '2,3'],
-    ['equatorward edge, midnight', c.midEq, '#264653', '2,3'],
-  ];
-  series.forEach(([name, ys, color, dash], k) => {
-    const pts = c.dstStar.map((d, i) => [d, ys[i]] as const).filter(([, y]) => Number.isFinite(y));
-    out.push(`<polyline fill="none" stroke="${color}" stroke-width="2"${dash ? ` stroke-dasharray="${dash}"` : ''} points="${pts.map(([d, y]) => `${px(d).toFixed(1)},${py(y).toFixed(1)}`).join(' ')}"/>`);
-    for (const [d, y] of pts) out.push(`<circle cx="${px(d).toFixed(1)}" cy="${py(y).toFixed(1)}" r="2.5" fill="${color}"/>`);
-    const ly = T + 14 + 20 * k;
-    out.push(`<line x1="${W - R + 12}" y1="${ly}" x2="${W - R + 36}" y2="${ly}" stroke="${color}" stroke-width="2"${dash ? ` stroke-dasharray="${dash}"` : ''}/>`);
-    out.push(`<text x="${W - R + 42}" y="${ly + 4}">${name}</text>`);
-  });
-  const ly = T + 14 + 20 * series.length;
+  const ly = drawBoundarySeries(out, c.dstStar, c, px, py, W - R, T);
   out.push(`<rect x="${W - R + 20}" y="${ly - 4}" width="8" height="8" fill="#ffffff" stroke="#7b5ea7" stroke-width="1.5"/><text x="${W - R + 42}" y="${ly + 4}">midnight edge, Yokoyama</text>`);
   out.push(`<text x="${W - R + 42}" y="${ly + 20}">et al. 1998, derived, ±3° (§10)</text>`);
   out.push('</svg>');

@@ -33,7 +33,7 @@ export const INPUT_RANGES = {
 } as const;
 
 /** --source-re, the same for every command that finds the equatorward edge. */
-export const SOURCE_RE_FLAG: FlagSpec = { name: 'source-re', kind: 'number', meta: '<RE>', unit: 'RE', ...INPUT_RANGES.sourceRe, help: 'equatorial source distance of the equatorward edge', defaultText: String(DEFAULT_SOURCE_RE) };
+export const SOURCE_RE_FLAG: FlagSpec = { name: 'source-re', kind: 'number', meta: '<RE>', unit: 'RE', ...INPUT_RANGES.sourceRe, help: 'equatorial source distance of the equatorward edge', defaultText: `follows the storm (${DEFAULT_SOURCE_RE} in quiet times)` };
 
 /** --hemisphere north|south|both. */
 export const HEMISPHERE_FLAG = (help: string): FlagSpec => ({ name: 'hemisphere', kind: 'enum', meta: 'north|south|both', values: ['north', 'south', 'both'], help, defaultText: 'both' });
@@ -44,9 +44,9 @@ export function hemispheresOf(f: ParsedFlags): Hemisphere[] {
   return choice === 'north' ? ['north'] : choice === 'south' ? ['south'] : ['north', 'south'];
 }
 
-/** --source-re or its default. */
-export function sourceReOf(f: ParsedFlags): number {
-  return (f['source-re'] as number | undefined) ?? DEFAULT_SOURCE_RE;
+/** --source-re, or undefined when not given (the engine then uses the storm-following distance, model.sourceRe). */
+export function sourceReOf(f: ParsedFlags): number | undefined {
+  return f['source-re'] as number | undefined;
 }
 
 export function commonFlags(formats: readonly OutputFormat[]): FlagSpec[] {
@@ -105,7 +105,7 @@ export function programVersion(): string {
  * first, then extras (the tail switch, the tilt's origin, the Shue flaring exponent, the dipole of the date, the
  * coefficient epoch and the program version).
  */
-export function conditionsBlock(model: PreparedModel, altKm: number, warnings: readonly string[]): Record<string, unknown> {
+export function conditionsBlock(model: PreparedModel, altKm: number, warnings: readonly string[], sourceRe?: number): Record<string, unknown> {
   const c = model.conditions;
   const mp = model.magnetopause;
   return {
@@ -134,7 +134,8 @@ export function conditionsBlock(model: PreparedModel, altKm: number, warnings: r
     speedKms: model.storm.speedKms,
     speedSource: model.storm.speedSource,
     ringCurrentEnergyJ: model.ringEnergyJ,
-    sourceRe: model.sourceRe,
+    sourceRe: sourceRe ?? model.sourceRe,
+    sourceReSource: sourceRe === undefined ? 'storm-following' : 'given',
     version: programVersion(),
   };
 }

@@ -8,7 +8,7 @@ import { prepareModel, type PreparedModel } from '../physics/field/model';
 import { featureCollection } from '../io/geojson';
 import { writeJson } from '../io/json';
 import { UsageError, errorText, parseFlags, flagHelp } from './args';
-import { commonFlags, conditionsFromFlags, conditionsBlock, programVersion, usageFromInputError, DEFAULT_ALT_KM, type OutputFormat } from './common';
+import { commonFlags, conditionsFromFlags, conditionsBlock, programVersion, sourceReOf, usageFromInputError, DEFAULT_ALT_KM, type OutputFormat } from './common';
 import type { CommandDef } from './command';
 import { fieldCommand } from './commands/field';
 import { traceCommand } from './commands/trace';
@@ -127,7 +127,7 @@ export async function run(argv: readonly string[], io: CliIo): Promise<number> {
     const warnings: string[] = [...model.warnings];
     const warn = (m: string) => { if (!warnings.includes(m)) warnings.push(m); };
     const result = await cmd.run({ flags, conditions: model.conditions, model, altKm, warn });
-    const block = conditionsBlock(model, altKm, warnings);
+    const block = conditionsBlock(model, altKm, warnings, sourceReOf(flags));
     let text: string;
     if (format === 'csv' && result.csv) text = result.csv();
     else if (format === 'geojson' && result.geojson) text = writeJson(featureCollection(result.geojson(), { conditions: block }));

@@ -12,7 +12,7 @@ import { runBatch } from '../../src/cli/batch/index';
 import { run } from '../../src/cli/run';
 import { readCsv, csvText } from '../../src/io/csv';
 import { prepareModel } from '../../src/physics/field/model';
-import { makeTracer, sectorBoundaries, DEFAULT_SOURCE_RE } from '../../src/physics/mapping';
+import { makeTracer, sectorBoundaries } from '../../src/physics/mapping';
 import type { FieldConditions } from '../../src/physics/field/conditions';
 import { geoJsonProblems } from '../../src/io/geojson';
 import { expectClose } from '../helpers';
@@ -212,7 +212,7 @@ describe('batch: agreement with trace and the boundary search (same engine)', ()
       // Boundaries: the engine's sector search at the row's MLT in the site's hemisphere, for trace's conditions.
       const c = ground.conditions;
       const m = prepareModel({ time: '2025-03-20T21:00:00Z', pdynNpa: 4.5, bzNt: -8, byNt: -2, internal: c.internal, imfEfficiency: c.imfEfficiency, tail: c.tail, magnetopause: c.magnetopause });
-      const b = sectorBoundaries(m, makeTracer(m, { altKm: 110, ellipsoid: true }), 'north', row.mlt_h as number, { sourceRe: DEFAULT_SOURCE_RE });
+      const b = sectorBoundaries(m, makeTracer(m, { altKm: 110, ellipsoid: true }), 'north', row.mlt_h as number); // the storm-following source (model.sourceRe), as the batch without --source-re
       expect(b.openClosed && b.equatorward, 'both boundaries found').toBeTruthy();
       expectClose(row.open_closed_mag_lat_deg as number, b.openClosed!.magLatDeg, 1e-12, 'open–closed boundary vs sectorBoundaries');
       expectClose(row.equatorward_mag_lat_deg as number, b.equatorward!.magLatDeg, 1e-12, 'equatorward edge vs sectorBoundaries');

@@ -4,7 +4,7 @@
  * loop of ovalBoundaries) taken one sector at a time, so a newer request
  * stops it between sectors.
  */
-import { mltGrid, DEFAULT_SOURCE_RE, type SectorBoundaries, type Hemisphere } from '../../src/physics/mapping';
+import { mltGrid, type SectorBoundaries, type Hemisphere } from '../../src/physics/mapping';
 import { ovalSectors } from '../../src/physics/mapping';
 import type { BoundaryCurve, EngineApi, OvalResult } from '../protocol';
 import type { EngineContext } from './context';
@@ -34,7 +34,7 @@ export function ovalChannel(ctx: EngineContext): EngineApi['oval'] {
     const m = ctx.model(c);
     const t = ctx.tracer(m, o.altKm);
     const mlts = mltGrid(o.mltStepHours);
-    const opts = { sourceRe: o.sourceRe ?? DEFAULT_SOURCE_RE, latTolDeg: o.latTolDeg ?? 0.01 };
+    const opts = { sourceRe: o.sourceRe, latTolDeg: o.latTolDeg ?? 0.01 };
     const curves: BoundaryCurve[] = [];
     for (const hemisphere of ['north', 'south'] as const) {
       const cur = emptyCurve(hemisphere, mlts);

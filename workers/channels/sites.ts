@@ -1,5 +1,4 @@
 /** The `sites` channel: the per-site report (siteReport) for each site, a newer request stopping it between sites. */
-import { DEFAULT_SOURCE_RE } from '../../src/physics/mapping';
 import { siteReport } from '../../src/physics/mapping';
 import type { EngineApi, SiteResult, SitesResult } from '../protocol';
 import type { EngineContext } from './context';
@@ -13,7 +12,7 @@ export function sitesChannel(ctx: EngineContext): EngineApi['sites'] {
     const conjugateAltKm = o.conjugateAltKm ?? 0;
     const tConj = ctx.tracer(m, conjugateAltKm);
     const tAlt = ctx.tracer(m, o.altKm);
-    const options = { conjugateAltKm, altKm: o.altKm, sourceRe: o.sourceRe ?? DEFAULT_SOURCE_RE, minElevationDeg: o.minElevationDeg ?? DEFAULT_MIN_ELEVATION_DEG };
+    const options = { conjugateAltKm, altKm: o.altKm, sourceRe: o.sourceRe, minElevationDeg: o.minElevationDeg ?? DEFAULT_MIN_ELEVATION_DEG };
     const out: SiteResult[] = [];
     for (const site of sites) {
       await ctx.pause('sites', requestId);

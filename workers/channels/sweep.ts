@@ -1,5 +1,4 @@
 /** The `sweep` channel: boundaries at one MLT while Pdyn or Bz steps through a range (sweepBoundaries), stoppable between steps. */
-import { DEFAULT_SOURCE_RE } from '../../src/physics/mapping';
 import { sweepBoundaries } from '../../src/physics/mapping';
 import type { EngineApi, SweepResult } from '../protocol';
 import type { EngineContext } from './context';
@@ -11,7 +10,7 @@ export function sweepChannel(ctx: EngineContext): EngineApi['sweep'] {
     return ctx.run<SweepResult>('sweep', requestId,
       () => ({ requestId, warnings: [], vary: o.vary, mltHours: o.mltHours, values: none, northOpenClosedMagLatDeg: none, northEquatorwardMagLatDeg: none, southOpenClosedMagLatDeg: none, southEquatorwardMagLatDeg: none }),
       async () => {
-        const rows = await sweepBoundaries(c, { vary: o.vary, from: o.from, to: o.to, steps, mltHours: o.mltHours, altKm: o.altKm, sourceRe: o.sourceRe ?? DEFAULT_SOURCE_RE },
+        const rows = await sweepBoundaries(c, { vary: o.vary, from: o.from, to: o.to, steps, mltHours: o.mltHours, altKm: o.altKm, sourceRe: o.sourceRe },
           () => ctx.pause('sweep', requestId));
         return {
           requestId, warnings: rows.warnings, vary: o.vary, mltHours: o.mltHours, values: Float64Array.from(rows.values),

@@ -25,7 +25,8 @@ export interface BatchSettings {
   model: Omit<FieldConditions, 'time' | 'pdynNpa' | 'bzNt' | 'byNt'>;
   altKm: number;
   conjugateAltKm: number;
-  sourceRe: number;
+  /** undefined: each condition's storm-following source distance (model.sourceRe). */
+  sourceRe?: number;
   minElevationDeg: number;
   /** null: the engine's boundary search at each site's exact MLT; else an MLT grid step (h), interpolated (approximation). */
   boundaryMltStep: number | null;

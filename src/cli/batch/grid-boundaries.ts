@@ -16,7 +16,7 @@ import type { BoundaryProvider } from '../../physics/mapping';
  * asked MLT; null when either node has none. The interpolated point's
  * geographic position is exact for its (magnetic latitude, MLT).
  */
-export function gridBoundaries(m: PreparedModel, tAlt: Tracer, sourceRe: number, stepH: number): BoundaryProvider {
+export function gridBoundaries(m: PreparedModel, tAlt: Tracer, sourceRe: number | undefined, stepH: number): BoundaryProvider {
   const n = mltGrid(stepH).length;
   const nodes = new Map<string, SectorBoundaries>();
   const node = (h: Hemisphere, i: number): SectorBoundaries => {

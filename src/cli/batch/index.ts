@@ -210,7 +210,7 @@ function metadata(p: Plan, sites: number): Record<string, unknown> {
     tiltDeg: s.model.tiltDeg ?? 'from each row\'s time',
     altKm: s.altKm,
     conjugateAltKm: s.conjugateAltKm,
-    sourceRe: s.sourceRe,
+    sourceRe: s.sourceRe ?? 'storm-following: each condition\'s own distance (quiet times 7 RE)',
     minElevationDeg: s.minElevationDeg,
     boundaries: s.boundaryMltStep === null ? 'exact search at each site\'s MLT (as oval)' : `interpolated from a ${s.boundaryMltStep} h MLT grid (approximation)`,
     pdynFromDensitySpeed: `${PDYN_NOMINAL_COEFF.toExponential()} * density_cm3 * speed_kms^2 nPa`,

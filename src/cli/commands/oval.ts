@@ -7,7 +7,8 @@ import { HEMISPHERE_FLAG, SOURCE_RE_FLAG, hemispheresOf, sourceReOf } from '../c
 
 const OVAL_HEADER = ['hemisphere', 'mlt_h',
   'open_closed_mag_lat_deg', 'open_closed_geo_lat_deg', 'open_closed_geo_lon_deg',
-  'equatorward_mag_lat_deg', 'equatorward_geo_lat_deg', 'equatorward_geo_lon_deg'];
+  'equatorward_mag_lat_deg', 'equatorward_geo_lat_deg', 'equatorward_geo_lon_deg',
+  'open_closed_missing_reason', 'equatorward_missing_reason'];
 
 const BOUNDARIES = [
   { key: 'openClosed', name: 'open-closed boundary' },
@@ -21,8 +22,9 @@ export const ovalCommand: CommandDef = {
   notes: [
     'For each MLT sector (0 h = midnight) and hemisphere: the open–closed boundary (root search',
     'in magnetic latitude to 0.01°) and the equatorward edge, the footprint of the closed line',
-    'whose minimum-|B| point lies at --source-re. Each is {magLatDeg, geoLatDeg, geoLonDeg} at',
-    '--alt-km, or null where it does not exist (e.g. no open lines with --imf-efficiency 0).',
+    'whose minimum-|B| point lies at --source-re (default: follows the storm). Each is {magLatDeg, geoLatDeg, geoLonDeg} at',
+    '--alt-km, or null where it does not exist, with the reason in openClosedReason /\n' +
+    'equatorwardReason (e.g. closed to the pole with --imf-efficiency 0). Searches reach down to 30°.',
     'GeoJSON: one line per boundary per hemisphere, in MLT order and closed around the pole',
     '(a LineString, or a MultiLineString where it is cut at the antimeridian or at missing sectors).',
   ].join('\n'),
@@ -40,18 +42,19 @@ export const ovalCommand: CommandDef = {
     const hems = hemispheresOf(ctx.flags);
     const tracer = makeTracer(ctx.model, { altKm: ctx.altKm, ellipsoid: true });
     const hemispheres = ovalBoundaries(ctx.model, tracer, hems, mlts, { sourceRe });
+    const sourceReUsed = sourceRe ?? ctx.model.sourceRe;
     for (const h of hemispheres) {
       const missing = h.sectors.filter((s) => s.openClosed === null).length;
-      if (missing === h.sectors.length) ctx.warn(`${h.hemisphere}: no open–closed boundary in any sector (all lines closed, or none closed above 50° magnetic latitude)`);
+      if (missing === h.sectors.length) ctx.warn(`${h.hemisphere}: no open–closed boundary in any sector (all lines closed, or none closed above 30° magnetic latitude)`);
     }
     return {
-      json: { mltStepHours: step, sourceRe, hemispheres },
+      json: { mltStepHours: step, sourceRe: sourceReUsed, hemispheres },
       csv: () => {
         const rows: CsvCell[][] = [];
         for (const h of hemispheres)
           for (const s of h.sectors) {
             const oc = s.openClosed, eq = s.equatorward;
-            rows.push([h.hemisphere, s.mltHours, oc?.magLatDeg, oc?.geoLatDeg, oc?.geoLonDeg, eq?.magLatDeg, eq?.geoLatDeg, eq?.geoLonDeg]);
+            rows.push([h.hemisphere, s.mltHours, oc?.magLatDeg, oc?.geoLatDeg, oc?.geoLonDeg, eq?.magLatDeg, eq?.geoLatDeg, eq?.geoLonDeg, s.openClosedReason ?? null, s.equatorwardReason ?? null]);
           }
         return writeCsv(OVAL_HEADER, rows, { maxDecimals: CSV_DECIMALS });
       },

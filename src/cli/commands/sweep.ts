@@ -62,12 +62,15 @@ export const sweepCommand: CommandDef = {
             openClosedGeoLonDeg: s.openClosed?.geoLonDeg ?? null,
             equatorwardGeoLatDeg: s.equatorward?.geoLatDeg ?? null,
             equatorwardGeoLonDeg: s.equatorward?.geoLonDeg ?? null,
+            sourceRe: r.sourceRe[i],
+            openClosedReason: s.openClosedReason ?? null,
+            equatorwardReason: s.equatorwardReason ?? null,
           });
         }
     });
     const valueColumn = vary === 'pdyn' ? 'pdyn_npa' : 'bz_nt';
     return {
-      json: { vary, unit: vary === 'pdyn' ? 'nPa' : 'nT', values, sourceRe, rows },
+      json: { vary, unit: vary === 'pdyn' ? 'nPa' : 'nT', values, sourceRe: sourceRe ?? null, rows },
       csv: () =>
         writeCsv(
           [valueColumn, 'mlt_h', 'hemisphere', 'open_closed_mag_lat_deg', 'equatorward_mag_lat_deg',

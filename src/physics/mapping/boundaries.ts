@@ -5,7 +5,9 @@
  */
 import type { PreparedModel } from '../field/model';
 import type { Tracer } from '../trace/tracer';
-import { LINE_CLOSED } from '../trace/line-type';
+import { LINE_CLOSED, LINE_UNRESOLVED } from '../trace/line-type';
+import { shueRadius } from '../field/magnetopause';
+import { DEG_PER_RAD, RAD_PER_DEG } from '../constants';
 import { describePoint, equatorCrossing, gsmAtMagneticLatMlt, type Hemisphere } from '../trace/footpoint';
 import { bisectBoundary, illinoisRoot } from '../numeric/roots';
 
@@ -25,10 +27,33 @@ export interface BoundaryPoint {
   geoLonDeg: number;
 }
 
+/**
+ * Why a boundary is missing at one MLT (plain words every output can show as they are).
+ *  - 'no closed lines at this MLT': the line at the lowest latitude searched is already open.
+ *  - 'closed to the pole': no open line up to the pole (no open–closed boundary).
+ *  - 'unresolved lines': the lowest line's trace ran out of its budget, so the region is unknown.
+ *  - 'the source distance lies outside the magnetopause': no closed line can reach it here.
+ *  - 'the closed region ends before the source distance': the last closed line crosses the
+ *    equator inside the source distance.
+ *  - 'the source distance maps below the lowest latitude searched': the line at the lowest
+ *    latitude already crosses the equator beyond the source distance.
+ */
+export type MissingBoundaryReason =
+  | 'no closed lines at this MLT'
+  | 'closed to the pole'
+  | 'unresolved lines'
+  | 'the source distance lies outside the magnetopause'
+  | 'the closed region ends before the source distance'
+  | 'the source distance maps below the lowest latitude searched';
+
 export interface SectorBoundaries {
   mltHours: number;
   openClosed: BoundaryPoint | null;
   equatorward: BoundaryPoint | null;
+  /** Why openClosed is null (null when it was found). Set by sectorBoundaries; records assembled elsewhere (e.g. interpolated) may leave it out. */
+  openClosedReason?: MissingBoundaryReason | null;
+  /** Why equatorward is null (null when it was found); as openClosedReason. */
+  equatorwardReason?: MissingBoundaryReason | null;
 }
 
 export interface BoundaryOptions {
@@ -45,9 +70,18 @@ export interface BoundaryOptions {
 export const DEFAULT_BOUNDARY_OPTIONS: Readonly<BoundaryOptions> = Object.freeze({
   latTolDeg: 0.01,
   sourceRe: DEFAULT_SOURCE_RE,
-  minLatDeg: 50,
+  minLatDeg: 30,
   scanStepDeg: 2,
 });
+
+/**
+ * Highest latitude an unhinted scan starts from, deg: the search floor before storm-time
+ * boundaries (quiet answers stay those of a 50° floor). The scan starts lower when the source
+ * distance is small (scanStartLatDeg) and walks down to minLatDeg when its first line is open.
+ */
+export const SCAN_START_MAX_LAT_DEG = 50;
+/** The scan starts at the dipole footprint of this fraction of the source distance (lines stretched by the tail or ring current reach it lower still; compression moves it up by less than this margin). */
+const SCAN_START_SOURCE_FRACTION = 0.6;
 
 /** Predicted |magnetic latitudes| (deg) for a sector, e.g. extrapolated from its neighbours. */
 export interface BoundaryHint {
@@ -65,14 +99,16 @@ const TOP_LAT_DEG = 89.99;
 
 const tmp = new Float64Array(3);
 
+interface Probe { closed: boolean; unresolved: boolean; eqR: number }
+
 /** Closed / not-closed test of the line from (magLat, MLT) at the footpoint altitude; eqR is its equatorial distance, RE. */
-function closedAt(model: PreparedModel, tracer: Tracer, magLatDeg: number, mltH: number): { closed: boolean; eqR: number } {
+function closedAt(model: PreparedModel, tracer: Tracer, magLatDeg: number, mltH: number): Probe {
   const o = tracer.options;
   gsmAtMagneticLatMlt(tmp, model.frames, magLatDeg, mltH, o.altKm, o.ellipsoid);
   const type = tracer.trace(tmp[0], tmp[1], tmp[2]);
-  if (type !== LINE_CLOSED) return { closed: false, eqR: NaN };
+  if (type !== LINE_CLOSED) return { closed: false, unresolved: type === LINE_UNRESOLVED, eqR: NaN };
   const eq = equatorCrossing(tracer.points, tracer.bMag, tracer.nPoints);
-  return { closed: true, eqR: eq ? eq.rRe : NaN };
+  return { closed: true, unresolved: false, eqR: eq ? eq.rRe : NaN };
 }
 
 /** The boundary record of the point at signed magnetic latitude and MLT, at the tracer's footpoint altitude. */
@@ -86,15 +122,21 @@ export function boundaryPoint(model: PreparedModel, tracer: Tracer, signedMagLat
 /** A closed line met during the searches: |magnetic latitude| (deg) and equatorial distance (RE). */
 interface Sample { lat: number; eqR: number }
 
-type ClosedProbe = (lat: number) => { closed: boolean; eqR: number };
+type ClosedProbe = (lat: number) => Probe;
+
+/** What a bracket search found: a bracket, or why there is none. */
+type BracketResult = [number, number] | 'none' | 'unresolved' | 'closed-to-pole';
 
 /**
  * Boundaries at one MLT in one hemisphere. The open–closed boundary is the
- * poleward edge of the closed region met first when scanning from minLatDeg
- * poleward, refined by bisection to latTolDeg. The equatorward edge is the
+ * poleward edge of the lowest closed region above minLatDeg: the scan starts at
+ * scanStartLatDeg (near the expected edge, never above 50°), walks poleward to the
+ * first line that is not closed (or down to minLatDeg when its first line is not
+ * closed) and refines by bisection to latTolDeg. The equatorward edge is the
  * footprint of the closed line whose minimum-|B| point lies at sourceRe
  * (the equatorial distance grows with latitude: a safeguarded regula falsi,
- * Illinois variant, on r_eq − sourceRe); null if the closed region ends first.
+ * Illinois variant, on r_eq − sourceRe). A missing boundary comes with its reason
+ * (openClosedReason, equatorwardReason).
  *
  * `hint` (the neighbouring sector's answer) lets the search start from a
  * narrow bracket around it; the bracket is verified by tracing both ends and
@@ -107,21 +149,17 @@ export function sectorBoundaries(model: PreparedModel, tracer: Tracer, hemispher
   const sgn = hemisphere === 'north' ? 1 : -1;
   const probe: ClosedProbe = (lat) => closedAt(model, tracer, sgn * lat, mltH);
   const samples: Sample[] = [];
-  const none = { mltHours: mltH, openClosed: null, equatorward: null };
+  const missing = (reason: MissingBoundaryReason): SectorBoundaries =>
+    ({ mltHours: mltH, openClosed: null, equatorward: null, openClosedReason: reason, equatorwardReason: reason });
 
-  let bracket: [number, number] | null | 'none' = null;
+  let bracket: BracketResult | null = null;
   const h = hint?.openClosedLatDeg ?? NaN;
   if (Number.isFinite(h)) bracket = hintedBracket(probe, h, hintWidth(hint), o, samples);
-  if (bracket === 'none') return none;
-  let ocFound = true;
-  if (!bracket) {
-    const scanned = scannedBracket(probe, o, samples);
-    if (scanned === 'none') return none;
-    if (scanned === 'closed-to-pole') ocFound = false;
-    else bracket = scanned;
-  }
+  if (!bracket) bracket = scannedBracket(probe, o, samples);
+  if (bracket === 'none') return missing('no closed lines at this MLT');
+  if (bracket === 'unresolved') return missing('unresolved lines');
   let ocLat = NaN;
-  if (bracket) {
+  if (bracket !== 'closed-to-pole') {
     ocLat = bisectBoundary(bracket[0], bracket[1], o.latTolDeg, (mid) => {
       const r = probe(mid);
       if (r.closed) samples.push({ lat: mid, eqR: r.eqR });
@@ -129,19 +167,32 @@ export function sectorBoundaries(model: PreparedModel, tracer: Tracer, hemispher
     });
   }
   const eqHint = hint?.equatorwardLatDeg ?? NaN;
+  const eq = equatorwardEdge(model, tracer, sgn, mltH, samples, ocLat, o, eqHint, hintWidth(hint));
   return {
     mltHours: mltH,
-    openClosed: ocFound ? boundaryPoint(model, tracer, sgn * ocLat, mltH) : null,
-    equatorward: equatorwardEdge(model, tracer, sgn, mltH, samples, ocLat, o, eqHint, hintWidth(hint)),
+    openClosed: Number.isNaN(ocLat) ? null : boundaryPoint(model, tracer, sgn * ocLat, mltH),
+    equatorward: typeof eq === 'string' ? null : eq,
+    openClosedReason: Number.isNaN(ocLat) ? 'closed to the pole' : null,
+    equatorwardReason: typeof eq === 'string' ? eq : null,
   };
 }
+
+/** Dipole footprint latitude (deg) of the line through L·0.6·sourceRe, clamped to [minLatDeg, 50°]: where an unhinted scan starts. */
+export function scanStartLatDeg(o: Pick<BoundaryOptions, 'minLatDeg' | 'sourceRe'>): number {
+  const l = SCAN_START_SOURCE_FRACTION * o.sourceRe;
+  const dipoleLat = l > 1 ? Math.acos(Math.sqrt(1 / l)) * DEG_PER_RAD : 0;
+  return Math.max(o.minLatDeg, Math.min(SCAN_START_MAX_LAT_DEG, dipoleLat));
+}
+
+/** Why a search at the lowest latitude found nothing closed. */
+const notClosedAtFloor = (p: Probe): 'none' | 'unresolved' => (p.unresolved ? 'unresolved' : 'none');
 
 /**
  * Expand a bracket [closed, not closed] outward from the predicted latitude
  * (at most a few steps). Returns null when none was found (the caller scans),
- * 'none' when the lowest latitude is already not closed.
+ * 'none' / 'unresolved' when the lowest latitude is already not closed.
  */
-function hintedBracket(probe: ClosedProbe, predictedLat: number, w: number, o: BoundaryOptions, samples: Sample[]): [number, number] | null | 'none' {
+function hintedBracket(probe: ClosedProbe, predictedLat: number, w: number, o: BoundaryOptions, samples: Sample[]): BracketResult | null {
   let lo = Math.max(o.minLatDeg, predictedLat - w), hi = Math.min(TOP_LAT_DEG, predictedLat + w);
   let a = probe(lo);
   if (a.closed) {
@@ -155,24 +206,35 @@ function hintedBracket(probe: ClosedProbe, predictedLat: number, w: number, o: B
     }
     return null;
   }
+  if (lo <= o.minLatDeg) return notClosedAtFloor(a);
   for (let k = 0; k < 4; k++) {
     hi = lo; lo = Math.max(o.minLatDeg, lo - 2 * w * (k + 1));
     a = probe(lo);
     if (a.closed) { samples.push({ lat: lo, eqR: a.eqR }); return [lo, hi]; }
-    if (lo <= o.minLatDeg) return 'none';
+    if (lo <= o.minLatDeg) return notClosedAtFloor(a);
   }
   return null;
 }
 
 /**
- * Coarse scan poleward from minLatDeg for the first line that is not closed.
- * Returns the bracket [last closed, first not closed], 'none' when the lowest
- * latitude is not closed, 'closed-to-pole' when no open line was met.
+ * Coarse scan from scanStartLatDeg for the first line that is not closed: poleward
+ * while lines are closed, else downward to the first closed line (at most down to
+ * minLatDeg). Returns the bracket [last closed, first not closed]; 'none' /
+ * 'unresolved' when nothing down to minLatDeg is closed, 'closed-to-pole' when no
+ * open line was met.
  */
-function scannedBracket(probe: ClosedProbe, o: BoundaryOptions, samples: Sample[]): [number, number] | 'none' | 'closed-to-pole' {
-  let lo = o.minLatDeg;
+function scannedBracket(probe: ClosedProbe, o: BoundaryOptions, samples: Sample[]): BracketResult {
+  let lo = scanStartLatDeg(o);
   const first = probe(lo);
-  if (!first.closed) return 'none';
+  if (!first.closed) {
+    let hi = lo, last = first;
+    while (lo > o.minLatDeg) {
+      hi = lo; lo = Math.max(o.minLatDeg, lo - o.scanStepDeg);
+      last = probe(lo);
+      if (last.closed) { samples.push({ lat: lo, eqR: last.eqR }); return [lo, hi]; }
+    }
+    return notClosedAtFloor(last);
+  }
   samples.push({ lat: lo, eqR: first.eqR });
   for (let lat = lo + o.scanStepDeg; lat < 90; lat += o.scanStepDeg) {
     const r = probe(lat);
@@ -189,7 +251,18 @@ function hintWidth(hint: BoundaryHint | null | undefined): number {
   return w !== undefined && Number.isFinite(w) ? Math.max(0.05, w) : HINT_HALF_WIDTH_DEG;
 }
 
-function equatorwardEdge(model: PreparedModel, tracer: Tracer, sgn: number, mltH: number, samples: Sample[], ocLat: number, o: BoundaryOptions, hintLat: number, hintW: number): BoundaryPoint | null {
+/** Why no closed line reaches the source distance at this MLT: the magnetopause lies inside it, or the closed region ends first. */
+function sourceBeyondReason(model: PreparedModel, mltH: number, sourceRe: number): MissingBoundaryReason {
+  const mp = model.magnetopause;
+  if (mp) {
+    // Angle from +x_GSM of the equatorial direction at this MLT (noon = 0, midnight = π).
+    const thetaRad = Math.abs(((((mltH - 12) % 24) + 36) % 24) - 12) * 15 * RAD_PER_DEG;
+    if (sourceRe >= shueRadius(mp, thetaRad)) return 'the source distance lies outside the magnetopause';
+  }
+  return 'the closed region ends before the source distance';
+}
+
+function equatorwardEdge(model: PreparedModel, tracer: Tracer, sgn: number, mltH: number, samples: Sample[], ocLat: number, o: BoundaryOptions, hintLat: number, hintW: number): BoundaryPoint | MissingBoundaryReason {
   const src = o.sourceRe;
   const g = (lat: number): number => {
     const r = closedAt(model, tracer, sgn * lat, mltH);
@@ -208,23 +281,24 @@ function equatorwardEdge(model: PreparedModel, tracer: Tracer, sgn: number, mltH
   if (Number.isNaN(lo)) {
     samples.sort((p, q) => p.lat - q.lat);
     if (samples.length === 0 || (!(samples[0].eqR <= src) && samples[0].lat > o.minLatDeg)) {
-      // A hinted search samples only near the boundary: add the lowest latitude.
+      // A hinted or source-started search samples only near the boundary: add the lowest latitude.
       const r = closedAt(model, tracer, sgn * o.minLatDeg, mltH);
       if (r.closed) samples.unshift({ lat: o.minLatDeg, eqR: r.eqR });
     }
-    if (samples.length === 0 || !(samples[0].eqR <= src)) return null; // beyond the source already at the lowest latitude
+    if (samples.length === 0) return 'no closed lines at this MLT';
+    if (!(samples[0].eqR <= src)) return 'the source distance maps below the lowest latitude searched';
     for (const s of samples) {
       if (s.eqR <= src) { lo = s.lat; glo = s.eqR - src; }
       else { hi = s.lat; ghi = s.eqR - src; break; }
     }
     if (Number.isNaN(hi)) {
-      if (Number.isNaN(ocLat)) return null;
+      if (Number.isNaN(ocLat)) return sourceBeyondReason(model, mltH, src); // closed to the pole, source never reached
       hi = ocLat; // the source lies beyond the last closed line sampled: search up to the boundary
       ghi = NaN;
     }
   }
   // Illinois regula falsi, falling back to bisection where the far end is not closed.
   const lat = illinoisRoot(g, lo, glo, hi, ghi, o.latTolDeg);
-  if (!Number.isNaN(ocLat) && lat >= ocLat - o.latTolDeg) return null; // the source lies on open lines here
+  if (!Number.isNaN(ocLat) && lat >= ocLat - o.latTolDeg) return sourceBeyondReason(model, mltH, src); // the source lies on open lines here
   return boundaryPoint(model, tracer, sgn * lat, mltH);
 }

@@ -16,10 +16,10 @@ export { makeTracer, traceGsm, type LineResult } from './lines';
 export { siteGsm, splitFootpoints, traceSite, type NearFarFootpoints, type SiteLine } from './sites';
 export {
   sectorBoundaries, boundaryPoint, DEFAULT_SOURCE_RE, DEFAULT_BOUNDARY_OPTIONS,
-  type BoundaryPoint, type SectorBoundaries, type BoundaryOptions, type BoundaryHint,
+  type BoundaryPoint, type SectorBoundaries, type MissingBoundaryReason, type BoundaryOptions, type BoundaryHint,
 } from './boundaries';
 export { predictHint, boundaryFinder } from './hints';
-export { mltGrid, ovalSectors, ovalBoundaries, ovalRelation, type HemisphereBoundaries, type OvalRelation } from './oval';
+export { mltGrid, ovalSectors, ovalBoundaries, ovalRelation, ovalRelationReason, type HemisphereBoundaries, type OvalRelation } from './oval';
 export { openFluxWb, type OpenFluxOptions } from './flux';
 export { sweepBoundaries, type SweepOptions, type SweepRows } from './sweep';
 export { skyPosition, horizonCentralAngleDeg, elevationAtCentralAngleDeg, type SkyPosition } from './sky';

@@ -46,12 +46,29 @@ export type OvalRelation = 'poleward' | 'inside' | 'equatorward' | 'unknown';
 
 /**
  * Where a footpoint stands against the oval at its MLT: poleward of the
- * open–closed boundary, inside (between the edges), or equatorward.
+ * open–closed boundary, inside (between the two edges, both found), or
+ * equatorward of the equatorward edge; 'unknown' when the edge that would decide
+ * is missing (ovalRelationReason says which and why).
  */
 export function ovalRelation(magLatDeg: number, sector: SectorBoundaries): OvalRelation {
+  return relationAndReason(magLatDeg, sector).relation;
+}
+
+/** Why ovalRelation is 'unknown' (plain words, naming the missing edge and its reason); null when it is known. */
+export function ovalRelationReason(magLatDeg: number, sector: SectorBoundaries): string | null {
+  return relationAndReason(magLatDeg, sector).reason;
+}
+
+function relationAndReason(magLatDeg: number, sector: SectorBoundaries): { relation: OvalRelation; reason: string | null } {
   const a = Math.abs(magLatDeg);
-  if (sector.openClosed && a >= Math.abs(sector.openClosed.magLatDeg)) return 'poleward';
-  if (sector.equatorward && a < Math.abs(sector.equatorward.magLatDeg)) return 'equatorward';
-  if (sector.openClosed) return 'inside'; // with or without an equatorward edge
-  return 'unknown';
+  if (!Number.isFinite(a)) return { relation: 'unknown', reason: 'no magnetic latitude' };
+  const { openClosed: oc, equatorward: eq } = sector;
+  if (oc && a >= Math.abs(oc.magLatDeg)) return { relation: 'poleward', reason: null };
+  if (eq && a < Math.abs(eq.magLatDeg)) return { relation: 'equatorward', reason: null };
+  if (oc && eq) return { relation: 'inside', reason: null };
+  const why = (what: string, r: string | null | undefined) => `${what} not found${r ? ` (${r})` : ''}`;
+  if (!eq && !oc) return { relation: 'unknown', reason: `${why('open–closed boundary', sector.openClosedReason)}; ${why('equatorward edge', sector.equatorwardReason)}` };
+  return eq
+    ? { relation: 'unknown', reason: `poleward of the equatorward edge, ${why('open–closed boundary', sector.openClosedReason)}` }
+    : { relation: 'unknown', reason: `equatorward of the open–closed boundary, ${why('equatorward edge', sector.equatorwardReason)}` };
 }

@@ -5,8 +5,8 @@
 import type { PreparedModel } from '../field/model';
 import type { Tracer } from '../trace/tracer';
 import { traceSite } from './sites';
-import { sectorBoundaries, type SectorBoundaries } from './boundaries';
-import { ovalRelation, type OvalRelation } from './oval';
+import { sectorBoundaries, type MissingBoundaryReason, type SectorBoundaries } from './boundaries';
+import { ovalRelation, ovalRelationReason, type OvalRelation } from './oval';
 import type { LineType } from '../trace/line-type';
 import type { Hemisphere } from '../trace/footpoint';
 import { skyPosition } from './sky';
@@ -34,10 +34,16 @@ export interface SiteResult {
   magLatDeg: number;
   /** Relative to the oval at the site's MLT in its hemisphere. */
   ovalRelation: OvalRelation;
+  /** Why ovalRelation is 'unknown' (plain words; e.g. which edge is missing and why); null or absent when it is known. */
+  ovalRelationReason?: string | null;
   /** Nearest oval point at the emission altitude as seen from the site. */
   sky: { elevationDeg: number; azimuthDeg: number; distanceKm: number; visible: boolean } | null;
   /** Boundaries at the site's MLT in its hemisphere (magnetic latitude, deg), null when not found. */
-  boundaries: { openClosedMagLatDeg: number | null; equatorwardMagLatDeg: number | null } | null;
+  boundaries: {
+    openClosedMagLatDeg: number | null; equatorwardMagLatDeg: number | null;
+    /** Why a boundary is null (SectorBoundaries' reasons); null when found. */
+    openClosedReason?: MissingBoundaryReason | null; equatorwardReason?: MissingBoundaryReason | null;
+  } | null;
   /** The site's own field line, GEO RE, xyz. */
   lineGeo: Float64Array;
   error?: string;
@@ -48,7 +54,8 @@ export interface SiteReportOptions {
   conjugateAltKm: number;
   /** Emission / footpoint altitude (km). tAlt must be a tracer at this altitude. */
   altKm: number;
-  sourceRe: number;
+  /** Equatorial source distance of the equatorward edge, RE; undefined = the model's storm-following one (model.sourceRe). */
+  sourceRe?: number;
   minElevationDeg: number;
 }
 
@@ -83,12 +90,18 @@ export function siteReport(model: PreparedModel, tConj: Tracer, tAlt: Tracer, si
     const mlt = near ? near.mltHours : NaN;
     const hemisphere = magLat >= 0 ? 'north' : 'south';
     let relation: SiteResult['ovalRelation'] = 'unknown';
+    let relationReason: string | null = near ? null : 'no footpoint at the emission altitude';
     let boundaries: SiteResult['boundaries'] = null;
     let sky: SiteResult['sky'] = null;
     if (Number.isFinite(mlt)) {
       const b: SectorBoundaries = boundaryAt ? boundaryAt(hemisphere, mlt) : sectorBoundaries(model, tAlt, hemisphere, mlt, { sourceRe });
-      boundaries = { openClosedMagLatDeg: b.openClosed ? b.openClosed.magLatDeg : null, equatorwardMagLatDeg: b.equatorward ? b.equatorward.magLatDeg : null };
-      relation = atAlt.type === 'closed' || atAlt.type === 'open' ? ovalRelation(magLat, b) : 'unknown';
+      boundaries = {
+        openClosedMagLatDeg: b.openClosed ? b.openClosed.magLatDeg : null, equatorwardMagLatDeg: b.equatorward ? b.equatorward.magLatDeg : null,
+        openClosedReason: b.openClosedReason ?? null, equatorwardReason: b.equatorwardReason ?? null,
+      };
+      const resolved = atAlt.type === 'closed' || atAlt.type === 'open';
+      relation = resolved ? ovalRelation(magLat, b) : 'unknown';
+      relationReason = resolved ? ovalRelationReason(magLat, b) : 'the site\'s field line is unresolved';
       // Nearest oval edge point at the emission altitude, seen from the site.
       let best: { el: number; az: number; d: number } | null = null;
       for (const p of [b.openClosed, b.equatorward]) {
@@ -106,10 +119,10 @@ export function siteReport(model: PreparedModel, tConj: Tracer, tAlt: Tracer, si
     return {
       ...base, type: line.type, conjugate: line.conjugate, footpoints: atAlt.footpoints,
       equatorRe: line.equator ? line.equator.rRe : null, lShell: line.type === 'closed' && line.equator ? line.equator.rRe : null,
-      mltHours: mlt, magLatDeg: magLat, ovalRelation: relation, sky, lineGeo, boundaries,
+      mltHours: mlt, magLatDeg: magLat, ovalRelation: relation, ovalRelationReason: relationReason, sky, lineGeo, boundaries,
     };
   } catch (e) {
-    return { ...base, type: 'unresolved', conjugate: null, footpoints: [], equatorRe: null, lShell: null, mltHours: NaN, magLatDeg: NaN, ovalRelation: 'unknown', sky: null, boundaries: null, lineGeo: new Float64Array(0), error: e instanceof Error ? e.message : String(e) };
+    return { ...base, type: 'unresolved', conjugate: null, footpoints: [], equatorRe: null, lShell: null, mltHours: NaN, magLatDeg: NaN, ovalRelation: 'unknown', ovalRelationReason: 'the site could not be computed', sky: null, boundaries: null, lineGeo: new Float64Array(0), error: e instanceof Error ? e.message : String(e) };
   }
 }
 

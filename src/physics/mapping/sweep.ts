@@ -6,7 +6,7 @@ import type { FieldConditions } from '../field/conditions';
 import { InputError, expectedGot, requireInRange } from '../errors';
 import { prepareModel } from '../field/model';
 import { makeTracer } from './lines';
-import { sectorBoundaries, DEFAULT_SOURCE_RE, DEFAULT_BOUNDARY_OPTIONS, type SectorBoundaries } from './boundaries';
+import { sectorBoundaries, DEFAULT_BOUNDARY_OPTIONS, type SectorBoundaries } from './boundaries';
 
 export interface SweepOptions {
   vary: 'pdyn' | 'bz';
@@ -15,6 +15,7 @@ export interface SweepOptions {
   steps: number;
   mltHours: number;
   altKm: number;
+  /** Equatorial source distance, RE; undefined = each step's storm-following one (model.sourceRe). */
   sourceRe?: number;
   latTolDeg?: number;
 }
@@ -23,6 +24,8 @@ export interface SweepRows {
   values: number[];
   north: SectorBoundaries[];
   south: SectorBoundaries[];
+  /** Source distance used at each step, RE. */
+  sourceRe: number[];
   /** Warnings of all steps, each once. */
   warnings: string[];
 }
@@ -49,15 +52,17 @@ export async function sweepBoundaries(c: FieldConditions, o: SweepOptions, betwe
   requireInRange('mlt', o.mltHours, 0, 24, 'h');
   const north: SectorBoundaries[] = [];
   const south: SectorBoundaries[] = [];
+  const sourceRe: number[] = [];
   const warnings = new Set<string>();
   for (const v of values) {
     if (between) await between();
     const m = prepareModel({ ...c, ...(o.vary === 'pdyn' ? { pdynNpa: v } : { bzNt: v }) });
     for (const w of m.warnings) warnings.add(w);
     const t = makeTracer(m, { altKm: o.altKm, ellipsoid: true });
-    const opts = { sourceRe: o.sourceRe ?? DEFAULT_SOURCE_RE, latTolDeg: o.latTolDeg ?? DEFAULT_BOUNDARY_OPTIONS.latTolDeg };
+    const opts = { sourceRe: o.sourceRe ?? m.sourceRe, latTolDeg: o.latTolDeg ?? DEFAULT_BOUNDARY_OPTIONS.latTolDeg };
+    sourceRe.push(opts.sourceRe);
     north.push(sectorBoundaries(m, t, 'north', o.mltHours % 24, opts));
     south.push(sectorBoundaries(m, t, 'south', o.mltHours % 24, opts));
   }
-  return { values, north, south, warnings: [...warnings] };
+  return { values, north, south, sourceRe, warnings: [...warnings] };
 }

@@ -56,7 +56,7 @@ describe.skipIf(!HAVE_BROWSER)('app data rules', () => {
     const s = await atlas((st) => ({ sites: st.sites, c: st.conditions }));
     expect(s.sites).toEqual([{ name: 'Tarrow Fen', latDeg: 56.5, lonDeg: -20 }]);
     expect(s.c.time).toBe('2025-03-20T22:00:00Z');
-    expect(await b.page.getByLabel('Lowest boundary latitude (deg)', { exact: true }).inputValue()).toBe('35');
+    expect(await b.page.getByLabel('Lowest boundary MLAT (deg)', { exact: true }).inputValue()).toBe('35');
   });
 
   it('clears the site results and refuses exports (with the reason) when the time leaves the model range; recovers after', async () => {

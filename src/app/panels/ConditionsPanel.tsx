@@ -123,7 +123,7 @@ export function ConditionsPanel() {
       </label>
       <NumberField label="Source distance (RE)" value={p.sourceRe ?? Number((used?.sourceRe ?? NaN).toFixed(2))} range={APP_RANGES.sourceRe} step={0.5} disabled={p.sourceRe === null} onCommit={(v) => setProducts({ sourceRe: v })} hint="equatorial distance whose footprint is the equatorward edge" />
       <NumberField label="Minimum elevation (deg)" value={p.minElevationDeg} range={APP_RANGES.minElevationDeg} step={1} onCommit={(v) => setProducts({ minElevationDeg: v })} />
-      <NumberField label="Lowest boundary latitude (deg)" value={p.minLatDeg} range={APP_RANGES.minLatDeg} step={1} onCommit={(v) => setProducts({ minLatDeg: v })} hint="magnetic latitude the boundary searches start from" />
+      <NumberField label="Lowest boundary MLAT (deg)" value={p.minLatDeg} range={APP_RANGES.minLatDeg} step={1} onCommit={(v) => setProducts({ minLatDeg: v })} hint="magnetic latitude the boundary searches start from" />
       <fieldset>
         <legend>Show</legend>
         <label><input type="checkbox" checked={c.magnetopause} onChange={(e) => setConditions({ magnetopause: e.target.checked })} /> magnetopause term</label>

@@ -80,7 +80,7 @@ describe.skipIf(!HAVE_BROWSER)('app data rules', () => {
 
   it('imports the good rows of a file with a short row, hex and exponent values, and states the 200-site limit', async () => {
     const rows = ['name,lat_deg,lon_deg', 'Corrie Vane,62.25,-18.5', 'Short,61', 'Hexa,0x3C,10', 'Expo,6e1,10'];
-    for (let i = 0; i < 300; i++) rows.push(`Grid ${i},${50 + (i % 30)},${(i * 7) % 360 - 180}`);
+    for (let i = 0; i < 300; i++) rows.push(`Survey grid point ${i},${50 + (i % 30)}.25,${(i * 7) % 360 - 180}.5`);
     await b.page.getByLabel('Import sites (CSV: name, lat_deg, lon_deg)').setInputFiles({ name: 'survey.csv', mimeType: 'text/csv', buffer: Buffer.from(rows.join('\n')) });
     await status('Imported 199 of 304 site rows from survey.csv.');
     await status('301 sites: the first 199 imported, 102 not imported: the app holds at most 200 sites');
@@ -88,6 +88,20 @@ describe.skipIf(!HAVE_BROWSER)('app data rules', () => {
     const names = await atlas((st) => (st.sites as { name: string }[]).map((x) => x.name));
     expect(names.length).toBe(200);
     expect(names.slice(0, 2)).toEqual(['Tarrow Fen', 'Corrie Vane']);
+    // A 200-site share link: compressed, under the safe size, served and read back (it failed with HTTP 431 before).
+    await b.page.getByRole('button', { name: 'Share link', exact: true }).click();
+    await status('The link is compressed (z=) to stay short.');
+    const link = await b.page.getByLabel('Share link', { exact: true }).inputValue();
+    expect(link.length).toBeLessThanOrEqual(6000);
+    expect(new URL(link).searchParams.has('z')).toBe(true);
+    const p2 = await b.context.newPage();
+    try {
+      const resp = await p2.goto(link);
+      expect(resp?.status()).toBe(200);
+      await p2.waitForFunction(() => (window as unknown as { __atlas?: { store: { get(): { sites: unknown[] } } } }).__atlas?.store.get().sites.length === 200, undefined, { timeout: 30_000 });
+    } finally {
+      await p2.close();
+    }
     // Back to one site for the next tests.
     await b.page.evaluate(`window.__atlas.store.set({ sites: window.__atlas.store.get().sites.slice(0, 1) })`);
     await waitFresh(b.page);

@@ -38,8 +38,9 @@ export function ExportPanel() {
           onClick={() => {
             const l = makeShareLink();
             setLink(l.url);
-            const copy = (done: string) => navigator.clipboard?.writeText(l.url).then(() => setMsg(done), () => setMsg(`${l.note}Copy the link below.`)) ?? setMsg(`${l.note}Copy the link below.`);
-            void copy(`${l.note}Link copied.`);
+            // Said at once (the clipboard may never answer, e.g. without permission); "copied" only once it is.
+            setMsg(`${l.note}Copy the link below.`);
+            void navigator.clipboard?.writeText(l.url).then(() => setMsg(`${l.note}Link copied.`), () => {});
           }}
         >
           Share link

@@ -66,12 +66,31 @@ export interface BoundaryCurve {
   equatorwardGeoLonDeg: Float64Array;
 }
 
+/** What the model used for a result (the storm state it resolved, the source distance): every export's metadata. */
+export interface ModelUsed {
+  dstNt: number;
+  dstStarNt: number;
+  dstSource: 'given' | 'estimated';
+  speedKms: number;
+  speedSource: 'given' | 'nominal';
+  /** Equatorial source distance of the equatorward edge, RE (the request's, or the model's storm-following value). */
+  sourceRe: number;
+  /** Set by the request (true) or by the model from the conditions (false). */
+  sourceReSet: boolean;
+  ringCurrentEnergyJ: number;
+  tiltDeg: number;
+  standoffRe: number | null;
+  igrfEpoch: number;
+}
+
 export interface OvalResult {
   requestId: number;
   stale?: boolean;
   error?: string;
   warnings: string[];
   curves: BoundaryCurve[];
+  /** Absent on a stale or failed answer. */
+  used?: ModelUsed;
 }
 
 export type { SiteInput, SiteResult } from '../src/physics/mapping';
@@ -84,6 +103,8 @@ export interface SitesResult {
   error?: string;
   warnings: string[];
   sites: SiteResult[];
+  /** Absent on a stale or failed answer. */
+  used?: ModelUsed;
 }
 
 export interface SweepResult {
@@ -100,12 +121,15 @@ export interface SweepResult {
   southEquatorwardMagLatDeg: Float64Array;
 }
 
+/** Product options of a request: sourceRe absent = the model's storm-following value; minLatDeg = lowest latitude of the boundary searches. */
+export type RequestProducts = Omit<ProductOptions, 'sourceRe'> & { sourceRe?: number; minLatDeg?: number };
+
 export interface EngineApi {
   /** Frames, magnetopause and a fan of field lines (fast: the first thing drawn). */
   scene(requestId: number, c: FieldConditions, fan: FanSpec): Promise<SceneResult>;
   /** Boundaries per MLT for both hemispheres (slower; refined). */
-  oval(requestId: number, c: FieldConditions, o: ProductOptions & { mltStepHours: number; latTolDeg?: number }): Promise<OvalResult>;
+  oval(requestId: number, c: FieldConditions, o: RequestProducts & { mltStepHours: number; latTolDeg?: number }): Promise<OvalResult>;
   /** Conjugates and products for sites. Conjugate altitude: o.conjugateAltKm (default 0). */
-  sites(requestId: number, c: FieldConditions, o: ProductOptions & { conjugateAltKm?: number; minElevationDeg?: number }, sites: SiteInput[]): Promise<SitesResult>;
-  sweep(requestId: number, c: FieldConditions, o: ProductOptions & { vary: 'pdyn' | 'bz'; from: number; to: number; steps: number; mltHours: number }): Promise<SweepResult>;
+  sites(requestId: number, c: FieldConditions, o: RequestProducts & { conjugateAltKm?: number; minElevationDeg?: number }, sites: SiteInput[]): Promise<SitesResult>;
+  sweep(requestId: number, c: FieldConditions, o: RequestProducts & { vary: 'pdyn' | 'bz'; from: number; to: number; steps: number; mltHours: number }): Promise<SweepResult>;
 }

@@ -6,7 +6,7 @@
 import * as Comlink from 'comlink';
 import type { EngineApi, FanSpec, OvalResult, SceneResult, SitesResult, SweepResult } from '../../workers/protocol';
 import { Channel } from './channel';
-import { store, type AnsweredFor, type AppState } from './store';
+import { conjugateAltOf, store, type AnsweredFor, type AppState } from './store';
 
 /** The field-line fan: MLT meridians every 3 h, seeds from 58° to 82° magnetic latitude. */
 const FAN: FanSpec = {
@@ -26,8 +26,19 @@ interface EngineClient {
 
 type ChannelName = 'scene' | 'oval' | 'sites' | 'sweep';
 
-/** Store writer: an engine error for a channel. */
-const reportError = (ch: keyof AppState['errors']) => (msg: string) => store.set((s) => ({ errors: { ...s.errors, [ch]: msg } }));
+const RESULT_KEY = { scene: 'scene', oval: 'oval', sites: 'siteResults', sweep: 'sweep' } as const;
+
+/**
+ * Store writer: an engine error for a channel. The channel's result is
+ * cleared with it, so no number computed for earlier inputs stays on screen
+ * or goes into an export while the current inputs are refused.
+ */
+const reportError = (ch: keyof AppState['errors']) => (msg: string) => store.set((s) => {
+  if (ch === 'engine') return { errors: { ...s.errors, engine: msg } };
+  const answeredFor = { ...s.answeredFor };
+  delete answeredFor[ch];
+  return { errors: { ...s.errors, [ch]: msg }, [RESULT_KEY[ch]]: null, answeredFor };
+});
 
 /** The errors without the channel's (the same object when it had none). */
 function errorsWithout(ch: keyof AppState['errors']): AppState['errors'] {
@@ -59,7 +70,12 @@ function requestBook() {
   };
 }
 
-const productOpts = (s: AppState) => ({ altKm: s.products.altKm, sourceRe: s.products.sourceRe });
+/** Product options of a request; a source distance left to follow the conditions is not sent. */
+const productOpts = (s: AppState) => ({
+  altKm: s.products.altKm,
+  minLatDeg: s.products.minLatDeg,
+  ...(s.products.sourceRe === null ? {} : { sourceRe: s.products.sourceRe }),
+});
 
 export function startEngine(makeWorker?: () => Worker): EngineClient {
   const worker = makeWorker ? makeWorker() : new Worker(new URL('../../workers/engine.worker.ts', import.meta.url), { type: 'module' });
@@ -89,7 +105,7 @@ export function startEngine(makeWorker?: () => Worker): EngineClient {
   });
   const askSites = () => sites.request((id) => {
     const s = book.remember('sites', id);
-    return api.sites(id, s.conditions, { ...productOpts(s), conjugateAltKm: 0, minElevationDeg: s.products.minElevationDeg }, s.sites);
+    return api.sites(id, s.conditions, { ...productOpts(s), conjugateAltKm: conjugateAltOf(s.products), minElevationDeg: s.products.minElevationDeg }, s.sites);
   });
   const askSweep = () => sweep.request((id) => {
     const s = book.remember('sweep', id);

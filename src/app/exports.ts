@@ -1,21 +1,30 @@
-/** Export actions: build the files from the store and hand them to the browser as downloads. */
+/**
+ * Export actions: build the files from the store and hand them to the browser
+ * as downloads. An export refuses (with the reason) while its result does not
+ * match the current inputs (store/freshness.ts), and its metadata describes
+ * the inputs the result was computed for, never the current ones.
+ */
 import { version } from '../../package.json';
-import { boundariesCsv, boundariesGeoJson, fullJson, sitesCsv, sitesGeoJson, sweepCsv, type ExportMeta } from '../io/app-export';
-import { store } from './store';
+import {
+  boundariesCsv, boundariesGeoJson, exportFileName, exportMetadata, fullJson, sitesCsv, sitesGeoJson, sweepCsv, type ExportMeta,
+} from '../io/app-export';
+import type { ModelUsed } from '../../workers/protocol';
+import { conjugateAltOf, store, type AnsweredFor, type AppState } from './store';
+import { staleReason, type ResultKind } from './store/freshness';
 import { writeJson } from '../io/json';
 import { snapshotPng } from './scene/snapshot';
 
-function exportMeta(): ExportMeta {
-  const s = store.get();
-  return {
+function metaFor(s: AppState, a: AnsweredFor, used: ModelUsed | null, warnings: readonly string[]): ExportMeta {
+  return exportMetadata({
     generator: 'Fieldline Atlas (browser)',
     version,
     createdUtc: new Date().toISOString(),
     scenario: s.scenarioName,
-    conditions: s.conditions,
-    products: { altKm: s.products.altKm, sourceRe: s.products.sourceRe, minElevationDeg: s.products.minElevationDeg },
-    igrfEpoch: s.scene?.frames.igrfEpoch ?? null,
-  };
+    conditions: a.conditions,
+    products: { altKm: a.products.altKm, conjugateAltKm: conjugateAltOf(a.products), minElevationDeg: a.products.minElevationDeg, minLatDeg: a.products.minLatDeg },
+    used,
+    warnings,
+  });
 }
 
 function download(name: string, type: string, data: string | Blob): void {
@@ -34,35 +43,77 @@ const json = (o: object) => writeJson(o);
 
 export type ExportKind = 'sites-csv' | 'sites-geojson' | 'boundaries-csv' | 'boundaries-geojson' | 'sweep-csv' | 'all-json' | 'png' | 'svg';
 
-/** Returns false when there is nothing to export yet. */
-export function runExport(kind: ExportKind): boolean {
+/** The results each export is made of. */
+const NEEDS: Record<ExportKind, ResultKind[]> = {
+  'sites-csv': ['sites'],
+  'sites-geojson': ['sites'],
+  'boundaries-csv': ['oval'],
+  'boundaries-geojson': ['oval'],
+  'sweep-csv': ['sweep'],
+  'all-json': ['sites', 'oval'],
+  png: ['scene'],
+  svg: ['oval', 'sites'],
+};
+
+/** Null when `kind` can be exported now; otherwise the reason it cannot. */
+export function exportRefusal(s: AppState, kind: ExportKind): string | null {
+  for (const k of NEEDS[kind]) {
+    const why = staleReason(s, k);
+    if (why) return why;
+  }
+  if ((kind === 'sites-csv' || kind === 'sites-geojson') && (s.siteResults?.sites.length ?? 0) === 0) return 'there are no sites: add one first';
+  return null;
+}
+
+/** '' when the file was handed to the browser; otherwise the reason it was not. */
+export function runExport(kind: ExportKind): string {
   const s = store.get();
-  const sites = s.siteResults?.sites ?? [];
-  const curves = s.oval?.curves ?? [];
+  const refusal = exportRefusal(s, kind);
+  if (refusal) return refusal;
+  const sr = s.siteResults;
+  const ov = s.oval;
+  const time = s.answeredFor[NEEDS[kind][0]]!.conditions.time;
+  const sitesMeta = () => metaFor(s, s.answeredFor.sites!, sr?.used ?? null, sr?.warnings ?? []);
+  const ovalMeta = () => metaFor(s, s.answeredFor.oval!, ov?.used ?? null, ov?.warnings ?? []);
   switch (kind) {
-    case 'sites-csv': return sites.length > 0 && (download('fieldline-atlas-sites.csv', 'text/csv', sitesCsv(sites)), true);
-    case 'sites-geojson': return sites.length > 0 && (download('fieldline-atlas-sites.geojson', 'application/geo+json', json(sitesGeoJson(sites, exportMeta()))), true);
-    case 'boundaries-csv': return curves.length > 0 && (download('fieldline-atlas-boundaries.csv', 'text/csv', boundariesCsv(curves)), true);
-    case 'boundaries-geojson': return curves.length > 0 && (download('fieldline-atlas-boundaries.geojson', 'application/geo+json', json(boundariesGeoJson(curves, exportMeta()))), true);
-    case 'sweep-csv': return !!s.sweep && (download(`fieldline-atlas-sweep-${s.sweep.vary}.csv`, 'text/csv', sweepCsv(s.sweep)), true);
-    case 'all-json': return download('fieldline-atlas.json', 'application/json', json(fullJson(exportMeta(), sites, curves, s.sweep))), true;
+    case 'sites-csv':
+      download(exportFileName('sites', time, 'csv'), 'text/csv', sitesCsv(sr!.sites, sitesMeta()));
+      return '';
+    case 'sites-geojson':
+      download(exportFileName('sites', time, 'geojson'), 'application/geo+json', json(sitesGeoJson(sr!.sites, sitesMeta())));
+      return '';
+    case 'boundaries-csv':
+      download(exportFileName('boundaries', time, 'csv'), 'text/csv', boundariesCsv(ov!.curves, ovalMeta()));
+      return '';
+    case 'boundaries-geojson':
+      download(exportFileName('boundaries', time, 'geojson'), 'application/geo+json', json(boundariesGeoJson(ov!.curves, ovalMeta())));
+      return '';
+    case 'sweep-csv': {
+      const sw = s.sweep!;
+      // The sweep varies one input: its metadata is that of the sweep's base inputs.
+      download(exportFileName(`sweep-${sw.vary}`, time, 'csv'), 'text/csv', sweepCsv(sw, metaFor(s, s.answeredFor.sweep!, null, sw.warnings)));
+      return '';
+    }
+    case 'all-json':
+      download(exportFileName('all', time, 'json'), 'application/json', json(fullJson(sitesMeta(), sr!.sites, ov!.curves, staleReason(s, 'sweep') ? null : s.sweep)));
+      return '';
     case 'png': {
       const url = snapshotPng();
-      if (!url) return false;
+      if (!url) return 'the 3D view is not drawn yet';
       const bin = atob(url.split(',')[1]);
       const bytes = new Uint8Array(bin.length);
       for (let i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
-      download('fieldline-atlas-view.png', 'image/png', new Blob([bytes], { type: 'image/png' }));
-      return true;
+      download(exportFileName('view', time, 'png'), 'image/png', new Blob([bytes], { type: 'image/png' }));
+      return '';
     }
     case 'svg': {
       const maps = document.querySelectorAll<SVGSVGElement>('#polar-maps svg');
-      if (maps.length === 0) return false;
+      if (maps.length === 0) return 'the maps are not drawn yet';
       // XMLSerializer escapes text content, so site names stay text.
       const ser = new XMLSerializer();
       const inner = [...maps].map((m, i) => `<g transform="translate(${i * 310},0)">${ser.serializeToString(m)}</g>`).join('');
-      download('fieldline-atlas-maps.svg', 'image/svg+xml', `<?xml version="1.0" encoding="UTF-8"?>\n<svg xmlns="http://www.w3.org/2000/svg" width="${maps.length * 310}" height="300" viewBox="0 0 ${maps.length * 310} 300">${inner}</svg>\n`);
-      return true;
+      download(exportFileName('maps', time, 'svg'), 'image/svg+xml', `<?xml version="1.0" encoding="UTF-8"?>\n<svg xmlns="http://www.w3.org/2000/svg" width="${maps.length * 310}" height="300" viewBox="0 0 ${maps.length * 310} 300">${inner}</svg>\n`);
+      return '';
     }
   }
 }

@@ -5,7 +5,6 @@
  */
 import type { FieldConditions } from '../physics/field/conditions';
 import { DEFAULT_IMF_EFFICIENCY } from '../physics/field/imf';
-import { DEFAULT_SOURCE_RE } from '../physics/mapping';
 import type { SiteInput } from '../../workers/protocol';
 import type { ProductSettings } from './store';
 
@@ -15,6 +14,9 @@ interface Scenario {
   products: ProductSettings;
   sites: SiteInput[];
 }
+
+/** Lowest magnetic latitude of the boundary searches, deg: low enough for the great storms of the storm-time model (references §10). */
+export const DEFAULT_MIN_LAT_DEG = 30;
 
 /** Footpoint-altitude presets, km: ground, green 557.7 nm (~110 km) and red 630.0 nm (~250 km) emission (references §7). */
 export const ALT_PRESETS = { ground: 0, green: 110, red: 250 } as const;
@@ -31,8 +33,10 @@ export const DEMO_SCENARIO: Scenario = {
     magnetopause: true,
     imfEfficiency: DEFAULT_IMF_EFFICIENCY,
     tail: true,
+    dstNt: null,
+    speedKms: null,
   },
-  products: { altPreset: 'green', altKm: 110, sourceRe: DEFAULT_SOURCE_RE, minElevationDeg: 10 },
+  products: { altPreset: 'green', altKm: 110, conjugateAltKm: null, sourceRe: null, minElevationDeg: 10, minLatDeg: DEFAULT_MIN_LAT_DEG },
   sites: [
     { name: 'Sollan Moor', latDeg: 66.8, lonDeg: 24.1 },
     { name: 'Quill Lake Camp', latDeg: 58.2, lonDeg: -103.5 },

@@ -1,9 +1,7 @@
-/** Site list operations (store mutations, no physics). */
+/** Site list operations (store mutations, no physics). Limits: APP_LIMITS (src/io/app-inputs.ts). */
 import type { SiteInput } from '../../workers/protocol';
+import { APP_LIMITS, APP_RANGES, inRange, siteLimitText, wrapLonDeg } from '../io/app-inputs';
 import { store, setSites } from './store';
-
-/** At most this many sites, so a pasted file cannot stall the worker. */
-const MAX_SITES = 200;
 
 function nextName(sites: SiteInput[]): string {
   let k = sites.length + 1;
@@ -11,35 +9,37 @@ function nextName(sites: SiteInput[]): string {
   return `Site ${k}`;
 }
 
-/** Normalise to lat −90..90, lon −180..180 (rounded to 1e-4°, about 10 m). */
+/** Normalise to lat −90..90, lon −180..180 (rounded to 1e-4°, about 10 m); null outside the CLI's ranges. */
 function normaliseSite(name: string, latDeg: number, lonDeg: number): SiteInput | null {
-  if (!Number.isFinite(latDeg) || !Number.isFinite(lonDeg) || Math.abs(latDeg) > 90) return null;
-  let lon = ((((lonDeg + 180) % 360) + 360) % 360) - 180;
-  if (lon === -180 && lonDeg > 0) lon = 180;
+  if (!inRange(latDeg, APP_RANGES.latDeg) || !inRange(lonDeg, APP_RANGES.lonDeg)) return null;
   const round = (v: number) => Math.round(v * 1e4) / 1e4;
-  return { name: name.trim().slice(0, 80), latDeg: round(latDeg), lonDeg: round(lon) };
+  return { name: [...name.trim()].slice(0, APP_LIMITS.maxNameChars).join(''), latDeg: round(latDeg), lonDeg: round(wrapLonDeg(lonDeg)) };
 }
 
-export function addSite(name: string, latDeg: number, lonDeg: number): boolean {
+/** Add one site; returns the refusal (list full, position out of range) or '' when added. */
+export function addSite(name: string, latDeg: number, lonDeg: number): string {
   const sites = store.get().sites;
+  if (sites.length >= APP_LIMITS.maxSites) return `The site list is full: the app holds at most ${APP_LIMITS.maxSites} sites — use the command line's batch for more.`;
   const s = normaliseSite(name || nextName(sites), latDeg, lonDeg);
-  if (!s || sites.length >= MAX_SITES) return false;
+  if (!s) return 'Latitude must be −90..90° and longitude −360..360° (east positive).';
   setSites([...sites, s]);
-  return true;
+  return '';
 }
 
 export function addSiteAt(latDeg: number, lonDeg: number): boolean {
-  return addSite('', latDeg, lonDeg);
+  return addSite('', latDeg, lonDeg) === '';
 }
 
 export function removeSite(index: number): void {
   setSites(store.get().sites.filter((_, i) => i !== index));
 }
 
-export function addSites(list: SiteInput[]): number {
+/** Add sites up to the limit; `limit` says how many did not fit ('' when all did). */
+export function addSites(list: SiteInput[]): { added: number; limit: string } {
   const cur = store.get().sites;
-  const room = Math.max(0, MAX_SITES - cur.length);
-  const add = list.map((s) => normaliseSite(s.name, s.latDeg, s.lonDeg)).filter((s): s is SiteInput => s !== null).slice(0, room);
-  setSites([...cur, ...add]);
-  return add.length;
+  const room = Math.max(0, APP_LIMITS.maxSites - cur.length);
+  const ok = list.map((s) => normaliseSite(s.name, s.latDeg, s.lonDeg)).filter((s): s is SiteInput => s !== null);
+  const add = ok.slice(0, room);
+  if (add.length > 0) setSites([...cur, ...add]);
+  return { added: add.length, limit: ok.length > room ? siteLimitText(ok.length, room) + (cur.length > 0 ? ` (${cur.length} already in the list)` : '') : '' };
 }

@@ -3,19 +3,83 @@
  * (units in headers), GeoJSON (RFC 7946: lon/lat, WGS84) and JSON with a
  * metadata block. Pure builders: data in, text out.
  */
-import type { BoundaryCurve, SiteResult, SweepResult } from '../../workers/protocol';
-import type { FieldConditions, ProductOptions } from '../physics/field/conditions';
+import type { BoundaryCurve, ModelUsed, SiteResult, SweepResult } from '../../workers/protocol';
+import type { FieldConditions } from '../physics/field/conditions';
 import { writeCsv, type CsvCell as Cell } from './csv';
 import { featureCollection, lineFeature, pointFeature, type Feature } from './geojson';
 
-export interface ExportMeta {
+/** The product settings a result was computed with. */
+export interface ExportProducts {
+  altKm: number;
+  /** The conjugate altitude used, km (the footpoint altitude unless set apart). */
+  conjugateAltKm: number;
+  minElevationDeg: number;
+  minLatDeg: number;
+}
+
+/** What the metadata of an export is built from: the inputs of the result (never the current inputs) and what the model used. */
+export interface ExportSource {
   generator: string;
   version: string;
   createdUtc: string;
   scenario: string;
   conditions: FieldConditions;
-  products: ProductOptions & { minElevationDeg: number };
-  igrfEpoch: number | null;
+  products: ExportProducts;
+  /** What the worker's model used (storm state, source distance, tilt); null when the result has none. */
+  used: ModelUsed | null;
+  warnings: readonly string[];
+}
+
+/** Flat metadata, keyed and ordered like the command line's conditions block (references §13), then the app's own keys. */
+export type ExportMeta = Record<string, unknown>;
+
+export function exportMetadata(x: ExportSource): ExportMeta {
+  const c = x.conditions;
+  const u = x.used;
+  return {
+    time: c.time,
+    pdynNpa: c.pdynNpa,
+    bzNt: c.bzNt,
+    byNt: c.byNt,
+    tiltDeg: u ? u.tiltDeg : c.tiltDeg ?? null,
+    standoffRe: u ? u.standoffRe : null,
+    internal: c.internal,
+    magnetopause: c.magnetopause,
+    imfEfficiency: c.imfEfficiency,
+    altKm: x.products.altKm,
+    warnings: [...x.warnings],
+    tail: c.tail ?? true,
+    tiltSource: c.tiltDeg === null || c.tiltDeg === undefined ? 'time' : 'override',
+    igrfEpoch: u ? u.igrfEpoch : null,
+    coefficients: 'IGRF-14',
+    dstNt: u ? u.dstNt : c.dstNt ?? null,
+    dstStarNt: u ? u.dstStarNt : null,
+    dstSource: u ? u.dstSource : c.dstNt == null ? 'estimated' : 'given',
+    speedKms: u ? u.speedKms : c.speedKms ?? null,
+    speedSource: u ? u.speedSource : c.speedKms == null ? 'nominal' : 'given',
+    ringCurrentEnergyJ: u ? u.ringCurrentEnergyJ : null,
+    sourceRe: u ? u.sourceRe : null,
+    sourceReSource: u ? (u.sourceReSet ? 'set' : 'conditions') : null,
+    conjugateAltKm: x.products.conjugateAltKm,
+    minElevationDeg: x.products.minElevationDeg,
+    minLatDeg: x.products.minLatDeg,
+    version: x.version,
+    generator: x.generator,
+    createdUtc: x.createdUtc,
+    scenario: x.scenario,
+  };
+}
+
+/** `# key: value` lines (CRLF) before a CSV table, as the command line's batch writes them. */
+export function csvMetadataLines(meta: ExportMeta): string {
+  return Object.entries(meta).map(([k, v]) => `# ${k}: ${typeof v === 'string' ? v : JSON.stringify(v)}`.replace(/[\r\n]+/g, ' ')).join('\r\n') + '\r\n';
+}
+
+/** A file name stamped with the result's time: fieldline-atlas-<what>-2025-03-20T2200Z.<ext>. */
+export function exportFileName(what: string, timeIso: string, ext: string): string {
+  const ms = Date.parse(timeIso);
+  const stamp = Number.isFinite(ms) ? new Date(ms).toISOString().slice(0, 16).replace(':', '') + 'Z' : 'undated';
+  return `fieldline-atlas-${what}-${stamp}.${ext}`;
 }
 
 const r = (v: number | null | undefined, d: number): number | null => (v == null || !Number.isFinite(v) ? null : Math.round(v * 10 ** d) / 10 ** d);
@@ -37,8 +101,9 @@ export function siteRow(s: SiteResult): Cell[] {
   ];
 }
 
-export function sitesCsv(sites: SiteResult[]): string {
-  return writeCsv(SITE_HEADER, sites.map(siteRow));
+/** The sites table; with `meta`, the `#` metadata lines first. */
+export function sitesCsv(sites: SiteResult[], meta?: ExportMeta): string {
+  return (meta ? csvMetadataLines(meta) : '') + writeCsv(SITE_HEADER, sites.map(siteRow));
 }
 
 const BOUNDARY_HEADER = [
@@ -46,7 +111,7 @@ const BOUNDARY_HEADER = [
   'equatorward_mag_lat_deg', 'equatorward_geo_lat_deg', 'equatorward_geo_lon_deg',
 ];
 
-export function boundariesCsv(curves: BoundaryCurve[]): string {
+export function boundariesCsv(curves: BoundaryCurve[], meta?: ExportMeta): string {
   const rows: Cell[][] = [];
   for (const c of curves)
     for (let i = 0; i < c.mltHours.length; i++)
@@ -54,15 +119,15 @@ export function boundariesCsv(curves: BoundaryCurve[]): string {
         c.hemisphere, r(c.mltHours[i], 3), r(c.openClosedMagLatDeg[i], 4), r(c.openClosedGeoLatDeg[i], 4), r(c.openClosedGeoLonDeg[i], 4),
         r(c.equatorwardMagLatDeg[i], 4), r(c.equatorwardGeoLatDeg[i], 4), r(c.equatorwardGeoLonDeg[i], 4),
       ]);
-  return writeCsv(BOUNDARY_HEADER, rows);
+  return (meta ? csvMetadataLines(meta) : '') + writeCsv(BOUNDARY_HEADER, rows);
 }
 
-export function sweepCsv(s: SweepResult): string {
+export function sweepCsv(s: SweepResult, meta?: ExportMeta): string {
   const head = [s.vary === 'pdyn' ? 'pdyn_npa' : 'imf_bz_nt', 'mlt_h', 'north_open_closed_mag_lat_deg', 'north_equatorward_mag_lat_deg', 'south_open_closed_mag_lat_deg', 'south_equatorward_mag_lat_deg'];
   const rows: Cell[][] = [];
   for (let i = 0; i < s.values.length; i++)
     rows.push([r(s.values[i], 4), s.mltHours, r(s.northOpenClosedMagLatDeg[i], 4), r(s.northEquatorwardMagLatDeg[i], 4), r(s.southOpenClosedMagLatDeg[i], 4), r(s.southEquatorwardMagLatDeg[i], 4)]);
-  return writeCsv(head, rows);
+  return (meta ? csvMetadataLines(meta) : '') + writeCsv(head, rows);
 }
 
 /** A closed boundary ring as lon/lat positions (NaN where absent; the shared writer cuts gaps and the antimeridian). */
@@ -79,7 +144,7 @@ export function boundariesGeoJson(curves: BoundaryCurve[], meta: ExportMeta): ob
   const features: Feature[] = [];
   for (const c of curves)
     for (const edge of ['openClosed', 'equatorward'] as const)
-      features.push(lineFeature(ring(c[`${edge}GeoLatDeg`], c[`${edge}GeoLonDeg`]), { hemisphere: c.hemisphere, boundary: edge === 'openClosed' ? 'open-closed' : 'equatorward', alt_km: meta.products.altKm }));
+      features.push(lineFeature(ring(c[`${edge}GeoLatDeg`], c[`${edge}GeoLonDeg`]), { hemisphere: c.hemisphere, boundary: edge === 'openClosed' ? 'open-closed' : 'equatorward', alt_km: meta.altKm }));
   return featureCollection(features, { metadata: meta });
 }
 

@@ -1,15 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { readCsv } from '../../src/io/csv';
 import { geoJsonProblems } from '../../src/io/geojson';
-import { boundariesCsv, boundariesGeoJson, sitesCsv, sitesGeoJson, type ExportMeta } from '../../src/io/app-export';
-import { parseSitesCsv } from '../../src/io/app-csv';
+import { boundariesCsv, boundariesGeoJson, exportFileName, exportMetadata, sitesCsv, sitesGeoJson, type ExportMeta } from '../../src/io/app-export';
 import type { BoundaryCurve, SiteResult } from '../../workers/protocol';
 import { DEMO_SCENARIO } from '../../src/app/scenario';
 
-const meta: ExportMeta = {
+const meta: ExportMeta = exportMetadata({
   generator: 'test', version: '0', createdUtc: '2025-01-01T00:00:00Z', scenario: 'x',
-  conditions: DEMO_SCENARIO.conditions, products: { altKm: 110, sourceRe: 8, minElevationDeg: 10 }, igrfEpoch: 2025.2,
-};
+  conditions: DEMO_SCENARIO.conditions, products: { altKm: 110, conjugateAltKm: 110, minElevationDeg: 10, minLatDeg: 30 }, used: null, warnings: [],
+});
 
 function site(name: string, lat: number, lon: number): SiteResult {
   return {
@@ -52,18 +51,34 @@ describe('GeoJSON export', () => {
     expect(gj.features[0].geometry.coordinates).toEqual([24.1, 66.8]);
     expect(gj.features[0].properties.name).toBe('<b>bold</b>');
     expect(gj.features[1].geometry.coordinates).toEqual([170.25, -60.5]);
-    expect(gj.metadata.conditions.pdynNpa).toBe(3);
+    expect(gj.metadata.pdynNpa).toBe(3);
   });
 });
 
-describe('site CSV import', () => {
-  it('reads name, lat_deg, lon_deg in any order and reports bad lines', () => {
-    const { sites, problems } = parseSitesCsv('lon_deg,name,lat_deg\r\n24.5,"Fell, upper",66.1\n200,East,10\nx,Bad,1\n5,Polar,95\n');
-    expect(sites).toEqual([{ name: 'Fell, upper', latDeg: 66.1, lonDeg: 24.5 }, { name: 'East', latDeg: 10, lonDeg: -160 }]);
-    expect(problems).toEqual(['line 4: lon_deg must be a number in −180..360', 'line 5: lat_deg must be a number in −90..90']);
+describe('exports that stand alone', () => {
+  it('CSV exports start with the same `# key: value` metadata lines as the batch (references §13) and stay readable after them', () => {
+    const m = exportMetadata({
+      generator: 'test', version: '9.9.9', createdUtc: '2025-01-01T00:00:00Z', scenario: 'Fen "camp"\nline two',
+      conditions: { ...DEMO_SCENARIO.conditions, dstNt: -120 },
+      products: { altKm: 110, conjugateAltKm: 0, minElevationDeg: 10, minLatDeg: 30 },
+      used: { dstNt: -120, dstStarNt: -129.5, dstSource: 'given', speedKms: 400, speedSource: 'nominal', sourceRe: 6.1, sourceReSet: false, ringCurrentEnergyJ: 4e15, tiltDeg: -3.2, standoffRe: 9.8, igrfEpoch: 2025.2 },
+      warnings: ['w1'],
+    });
+    const text = sitesCsv([site('A', 60, 10)], m);
+    const lines = text.split('\r\n');
+    const metaLines = lines.filter((l) => l.startsWith('# '));
+    const keys = metaLines.map((l) => l.slice(2, l.indexOf(':')));
+    for (const k of ['time', 'pdynNpa', 'bzNt', 'byNt', 'internal', 'dstNt', 'dstStarNt', 'dstSource', 'speedKms', 'sourceRe', 'conjugateAltKm', 'altKm', 'version']) expect(keys, k).toContain(k);
+    expect(metaLines).toContain('# dstSource: given');
+    expect(metaLines).toContain('# sourceRe: 6.1');
+    expect(metaLines).toContain('# scenario: Fen "camp" line two');
+    const table = readCsv(lines.filter((l) => !l.startsWith('# ')).join('\r\n'));
+    expect(table[0][0]).toBe('name');
+    expect(table[1][0]).toBe('A');
   });
 
-  it('rejects a file without coordinate columns', () => {
-    expect(parseSitesCsv('a,b\n1,2\n').problems[0]).toMatch(/lat_deg/);
+  it('file names carry the result time: fieldline-atlas-sites-2025-03-20T2200Z.csv', () => {
+    expect(exportFileName('sites', '2025-03-20T22:00:00Z', 'csv')).toBe('fieldline-atlas-sites-2025-03-20T2200Z.csv');
+    expect(exportFileName('boundaries', '2025-03-20T22:07:45.5Z', 'geojson')).toBe('fieldline-atlas-boundaries-2025-03-20T2207Z.geojson');
   });
 });

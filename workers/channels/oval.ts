@@ -8,6 +8,7 @@ import { mltGrid, type SectorBoundaries, type Hemisphere } from '../../src/physi
 import { ovalSectors } from '../../src/physics/mapping';
 import type { BoundaryCurve, EngineApi, OvalResult } from '../protocol';
 import type { EngineContext } from './context';
+import { modelUsed } from './used';
 
 function emptyCurve(hemisphere: Hemisphere, mlts: number[]): BoundaryCurve {
   const n = mlts.length;
@@ -34,7 +35,8 @@ export function ovalChannel(ctx: EngineContext): EngineApi['oval'] {
     const m = ctx.model(c);
     const t = ctx.tracer(m, o.altKm);
     const mlts = mltGrid(o.mltStepHours);
-    const opts = { sourceRe: o.sourceRe, latTolDeg: o.latTolDeg ?? 0.01 };
+    // No source distance in the request: the model's storm-following value (sectorBoundaries).
+    const opts = { sourceRe: o.sourceRe, latTolDeg: o.latTolDeg ?? 0.01, ...(o.minLatDeg === undefined ? {} : { minLatDeg: o.minLatDeg }) };
     const curves: BoundaryCurve[] = [];
     for (const hemisphere of ['north', 'south'] as const) {
       const cur = emptyCurve(hemisphere, mlts);
@@ -47,6 +49,6 @@ export function ovalChannel(ctx: EngineContext): EngineApi['oval'] {
       }
       curves.push(cur);
     }
-    return { requestId, warnings: [...m.warnings], curves };
+    return { requestId, warnings: [...m.warnings], curves, used: modelUsed(m, o.sourceRe) };
   });
 }

@@ -1,11 +1,23 @@
 /**
  * Shareable state in the URL query: conditions, product options and sites.
- * Pure (no DOM): encode to a query string, decode back. Unknown or malformed
- * parameters fall back to the defaults given, so a hand-edited URL never breaks the page.
+ * Pure (no DOM): encode to a query string, decode back.
+ *
+ * Decoding follows the app's one validation path (src/io/app-inputs.ts, the
+ * CLI's ranges and wording): a value that is refused keeps the default and is
+ * named in a notice, never swapped silently; a time without a zone is read as
+ * UTC and said so; impossible dates (30 February) are refused, not rolled
+ * over; at most APP_LIMITS.maxSites sites and names of at most
+ * APP_LIMITS.maxNameChars characters are taken. The decoder never throws.
+ *
+ * Long states (many sites) travel compressed: `z=` holds the plain query,
+ * deflate-raw (RFC 1951) and base64url (RFC 4648 §5); `shareLink` says when
+ * even that is too long for a safe link.
  */
+import { deflateSync, inflateSync, strFromU8, strToU8 } from 'fflate';
 import type { FieldConditions, InternalFieldKind } from '../../physics/field/conditions';
 import type { SiteInput } from '../../../workers/protocol';
 import type { AltPreset, ProductSettings } from '../store';
+import { APP_LIMITS, APP_RANGES, readNumber, readSiteName, readTime, wrapLonDeg, type ValueRange } from '../../io/app-inputs';
 
 export interface UrlState {
   conditions: FieldConditions;
@@ -13,8 +25,14 @@ export interface UrlState {
   sites: SiteInput[];
 }
 
+export interface DecodedUrlState extends UrlState {
+  /** What the link asked for that was refused or read in a particular way, one plain sentence each. */
+  notices: string[];
+}
+
 const num = (v: number): string => String(Math.round(v * 1e6) / 1e6);
 
+/** The plain (uncompressed) query. */
 export function encodeUrlState(s: UrlState): string {
   const q = new URLSearchParams();
   const c = s.conditions;
@@ -27,59 +45,177 @@ export function encodeUrlState(s: UrlState): string {
   q.set('eps', num(c.imfEfficiency));
   q.set('tail', c.tail === false ? '0' : '1');
   if (c.tiltDeg != null) q.set('tilt', num(c.tiltDeg));
+  if (c.dstNt != null) q.set('dst', num(c.dstNt));
+  if (c.speedKms != null) q.set('v', num(c.speedKms));
   q.set('alt', s.products.altPreset === 'custom' ? num(s.products.altKm) : s.products.altPreset);
-  q.set('src', num(s.products.sourceRe));
+  if (s.products.conjugateAltKm != null) q.set('calt', num(s.products.conjugateAltKm));
+  if (s.products.sourceRe != null) q.set('src', num(s.products.sourceRe));
   q.set('minel', num(s.products.minElevationDeg));
+  q.set('minlat', num(s.products.minLatDeg));
   for (const site of s.sites) q.append('site', `${site.name}|${num(site.latDeg)}|${num(site.lonDeg)}`);
   return q.toString();
 }
 
-function finiteOr(v: string | null, fallback: number, lo = -Infinity, hi = Infinity): number {
-  if (v === null || v.trim() === '') return fallback;
-  const x = Number(v);
-  return Number.isFinite(x) && x >= lo && x <= hi ? x : fallback;
+const b64url = (bytes: Uint8Array): string => {
+  let bin = '';
+  for (let i = 0; i < bytes.length; i++) bin += String.fromCharCode(bytes[i]);
+  return btoa(bin).replace(/\+/g, '-').replace(/\//g, '_').replace(/=+$/, '');
+};
+const fromB64url = (text: string): Uint8Array => {
+  const bin = atob(text.replace(/-/g, '+').replace(/_/g, '/'));
+  const out = new Uint8Array(bin.length);
+  for (let i = 0; i < bin.length; i++) out[i] = bin.charCodeAt(i);
+  return out;
+};
+
+/** The query compressed into one `z=` parameter. */
+export function compressQuery(query: string): string {
+  return `z=${b64url(deflateSync(strToU8(query), { level: 9 }))}`;
 }
 
-/** Parse one "name|lat|lon" site; the name may itself contain '|'. Null when malformed. */
-export function parseSiteParam(v: string): SiteInput | null {
+/** Largest decompressed query accepted (a 200-site state is ~12 kB). */
+const MAX_INFLATED_CHARS = 200_000;
+
+export interface ShareLink {
+  /** The link, or null when even compressed it would exceed APP_LIMITS.maxLinkChars. */
+  url: string | null;
+  compressed: boolean;
+  chars: number;
+}
+
+/** A share link for `base` (origin + path): plain when short, compressed when long, null when too long either way. */
+export function shareLink(base: string, s: UrlState): ShareLink {
+  const plain = `${base}?${encodeUrlState(s)}`;
+  if (plain.length <= APP_LIMITS.maxLinkChars) return { url: plain, compressed: false, chars: plain.length };
+  const packed = `${base}?${compressQuery(encodeUrlState(s))}`;
+  return { url: packed.length <= APP_LIMITS.maxLinkChars ? packed : null, compressed: true, chars: packed.length };
+}
+
+/** Parse one "name|lat|lon" site (the name may contain '|'); a refusal names the parameter. */
+export function parseSiteParam(v: string, k = 1): { ok: true; value: SiteInput } | { ok: false; message: string } {
   const parts = v.split('|');
-  if (parts.length < 3) return null;
-  const lonDeg = Number(parts.pop());
-  const latDeg = Number(parts.pop());
-  const name = parts.join('|').trim();
-  if (!Number.isFinite(latDeg) || !Number.isFinite(lonDeg) || latDeg < -90 || latDeg > 90 || lonDeg < -180 || lonDeg > 360) return null;
-  return { name: name || `Site ${num(latDeg)},${num(lonDeg)}`, latDeg, lonDeg: lonDeg > 180 ? lonDeg - 360 : lonDeg };
+  if (parts.length < 3) return { ok: false, message: `site ${k}: expected name|lat|lon, got "${v.length > 40 ? `${v.slice(0, 40)}…` : v}"` };
+  const lonText = parts.pop()!;
+  const latText = parts.pop()!;
+  const lat = readNumber(`site ${k} latitude`, latText, APP_RANGES.latDeg);
+  if (!lat.ok) return lat;
+  const lon = readNumber(`site ${k} longitude`, lonText, APP_RANGES.lonDeg);
+  if (!lon.ok) return lon;
+  const name = readSiteName(`site ${k}`, parts.join('|'));
+  if (!name.ok) return name;
+  return { ok: true, value: { name: name.value || `Site ${num(lat.value)},${num(lon.value)}`, latDeg: lat.value, lonDeg: wrapLonDeg(lon.value) } };
 }
 
 const ALT: Record<Exclude<AltPreset, 'custom'>, number> = { ground: 0, green: 110, red: 250 };
 
-export function decodeUrlState(query: string, defaults: UrlState): UrlState {
-  const q = new URLSearchParams(query.startsWith('?') ? query.slice(1) : query);
+function expandCompressed(q: URLSearchParams, notices: string[]): URLSearchParams {
+  const z = q.get('z');
+  if (z === null) return q;
+  try {
+    const bytes = fromB64url(z);
+    // A bound on the inflated size, so a crafted link cannot balloon.
+    const text = strFromU8(inflateSync(bytes, { out: new Uint8Array(MAX_INFLATED_CHARS) }).slice());
+    if (text.length >= MAX_INFLATED_CHARS) throw new RangeError('too long');
+    const inner = new URLSearchParams(text);
+    inner.delete('z');
+    return inner;
+  } catch {
+    notices.push('The link\'s compressed state (z=) could not be read; the defaults are shown.');
+    return new URLSearchParams();
+  }
+}
+
+/** Decode a query (with or without "?"); never throws. Each refused value keeps its default and adds a notice. */
+export function decodeUrlState(query: string, defaults: UrlState): DecodedUrlState {
+  const notices: string[] = [];
+  let q: URLSearchParams;
+  try {
+    q = expandCompressed(new URLSearchParams(query.startsWith('?') ? query.slice(1) : query), notices);
+  } catch {
+    return { ...defaults, notices: ['The link could not be read; the defaults are shown.'] };
+  }
   const d = defaults.conditions;
+  const refused = (message: string) => notices.push(`${message} — the default is kept.`);
+  const number = (key: string, what: string, range: ValueRange, fallback: number): number => {
+    const raw = q.get(key);
+    if (raw === null) return fallback;
+    const r = readNumber(`${what} (${key}=)`, raw, range);
+    if (!r.ok) { refused(r.message); return fallback; }
+    return r.value;
+  };
+  const flag = (key: string, fallback: boolean): boolean => {
+    const raw = q.get(key);
+    if (raw === null) return fallback;
+    if (raw === '1' || raw === '0') return raw === '1';
+    refused(`${key}=: expected 1 or 0, got "${raw.slice(0, 40)}"`);
+    return fallback;
+  };
+  let time = d.time;
   const t = q.get('t');
-  const time = t !== null && !Number.isNaN(Date.parse(t)) ? new Date(Date.parse(t)).toISOString().replace('.000Z', 'Z') : d.time;
-  const internal: InternalFieldKind = q.get('int') === 'igrf' ? 'igrf' : q.get('int') === 'dipole' ? 'dipole' : d.internal;
+  if (t !== null) {
+    const r = readTime('time (t=)', t);
+    if (!r.ok) refused(r.message);
+    else {
+      time = r.value.iso;
+      if (r.value.noZone) notices.push(`The link's time ${t.slice(0, 40)} has no zone; it is read as UTC (${time}).`);
+    }
+  }
+  let internal: InternalFieldKind = d.internal;
+  const intRaw = q.get('int');
+  if (intRaw === 'igrf' || intRaw === 'dipole') internal = intRaw;
+  else if (intRaw !== null) refused(`main field (int=): expected igrf or dipole, got "${intRaw.slice(0, 40)}"`);
   const tiltRaw = q.get('tilt');
+  const dstRaw = q.get('dst');
+  const vRaw = q.get('v');
   const conditions: FieldConditions = {
     ...d,
     time,
-    pdynNpa: finiteOr(q.get('p'), d.pdynNpa, 0.01, 1000),
-    bzNt: finiteOr(q.get('bz'), d.bzNt, -500, 500),
-    byNt: finiteOr(q.get('by'), d.byNt, -500, 500),
+    pdynNpa: number('p', 'dynamic pressure', APP_RANGES.pdynNpa, d.pdynNpa),
+    bzNt: number('bz', 'IMF Bz', APP_RANGES.imfNt, d.bzNt),
+    byNt: number('by', 'IMF By', APP_RANGES.imfNt, d.byNt),
     internal,
-    magnetopause: q.has('mp') ? q.get('mp') !== '0' : d.magnetopause,
-    imfEfficiency: finiteOr(q.get('eps'), d.imfEfficiency, 0, 1),
-    tail: q.has('tail') ? q.get('tail') !== '0' : d.tail ?? true,
-    tiltDeg: tiltRaw === null ? d.tiltDeg ?? null : finiteOr(tiltRaw, 0, -90, 90),
+    magnetopause: flag('mp', d.magnetopause),
+    imfEfficiency: number('eps', 'IMF efficiency', APP_RANGES.imfEfficiency, d.imfEfficiency),
+    tail: flag('tail', d.tail ?? true),
+    tiltDeg: tiltRaw === null ? d.tiltDeg ?? null : number('tilt', 'dipole tilt', APP_RANGES.tiltDeg, d.tiltDeg ?? NaN),
+    dstNt: dstRaw === null ? d.dstNt ?? null : number('dst', 'storm index', APP_RANGES.dstNt, d.dstNt ?? NaN),
+    speedKms: vRaw === null ? d.speedKms ?? null : number('v', 'solar-wind speed', APP_RANGES.speedKms, d.speedKms ?? NaN),
   };
+  // A refused optional value with no default stays "not set" (NaN marks it above).
+  for (const k of ['tiltDeg', 'dstNt', 'speedKms'] as const) if (Number.isNaN(conditions[k])) conditions[k] = null;
+
+  const products: ProductSettings = { ...defaults.products };
   const altRaw = q.get('alt');
-  let products: ProductSettings = { ...defaults.products };
-  if (altRaw === 'ground' || altRaw === 'green' || altRaw === 'red') products = { ...products, altPreset: altRaw, altKm: ALT[altRaw] };
-  else if (altRaw !== null && Number.isFinite(Number(altRaw)) && Number(altRaw) >= 0 && Number(altRaw) <= 2000)
-    products = { ...products, altPreset: 'custom', altKm: Number(altRaw) };
-  products.sourceRe = finiteOr(q.get('src'), products.sourceRe, 2, 60);
-  products.minElevationDeg = finiteOr(q.get('minel'), products.minElevationDeg, 0, 60);
-  const siteParams = q.getAll('site');
-  const sites = q.has('site') ? siteParams.map(parseSiteParam).filter((s): s is SiteInput => s !== null) : defaults.sites;
-  return { conditions, products, sites };
+  if (altRaw === 'ground' || altRaw === 'green' || altRaw === 'red') Object.assign(products, { altPreset: altRaw, altKm: ALT[altRaw] });
+  else if (altRaw !== null) {
+    const r = readNumber('footpoint altitude (alt=)', altRaw, APP_RANGES.altKm);
+    if (r.ok) Object.assign(products, { altPreset: 'custom', altKm: r.value });
+    else refused(`${r.message} (or ground, green, red)`);
+  }
+  const caltRaw = q.get('calt');
+  if (caltRaw !== null) products.conjugateAltKm = number('calt', 'conjugate altitude', APP_RANGES.altKm, products.conjugateAltKm ?? NaN);
+  if (Number.isNaN(products.conjugateAltKm)) products.conjugateAltKm = null;
+  const srcRaw = q.get('src');
+  if (srcRaw !== null) products.sourceRe = number('src', 'source distance', APP_RANGES.sourceRe, products.sourceRe ?? NaN);
+  if (Number.isNaN(products.sourceRe)) products.sourceRe = null;
+  products.minElevationDeg = number('minel', 'minimum elevation', APP_RANGES.minElevationDeg, products.minElevationDeg);
+  products.minLatDeg = number('minlat', 'lowest boundary latitude', APP_RANGES.minLatDeg, products.minLatDeg);
+
+  let sites = defaults.sites;
+  if (q.has('site')) {
+    const all = q.getAll('site');
+    sites = [];
+    const bad: string[] = [];
+    let k = 0;
+    for (; k < all.length && sites.length < APP_LIMITS.maxSites; k++) {
+      const r = parseSiteParam(all[k], k + 1);
+      if (r.ok) sites.push(r.value);
+      else bad.push(r.message);
+    }
+    if (bad.length > 0) notices.push(`${bad.length} site${bad.length === 1 ? '' : 's'} in the link refused: ${bad.slice(0, 3).join('; ')}${bad.length > 3 ? '; …' : ''}.`);
+    if (k < all.length) {
+      notices.push(`The link names ${all.length} sites; the app holds at most ${APP_LIMITS.maxSites}, so ${all.length - k} were not loaded — use the command line's batch for more.`);
+    }
+  }
+  return { conditions, products, sites, notices };
 }

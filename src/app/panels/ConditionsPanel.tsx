@@ -1,26 +1,68 @@
 /** Solar-wind and model conditions. Every control names its quantity and unit. */
 import { useState } from 'react';
-import { setConditions, setProducts, setView, useStore, type AltPreset } from '../store';
+import { conjugateAltOf, setConditions, setProducts, setView, store, useStore, type AltPreset } from '../store';
 import { ALT_PRESETS } from '../scenario';
 import { logToSlider, sliderToLog } from '../lib/units';
-import { pdynFromPlasmaNominal } from '../../physics/field/magnetopause';
+import { APP_RANGES, pressureFromPlasma } from '../../io/app-inputs';
+import { NOMINAL_SPEED_KMS } from '../../physics/field/storm-index';
 import { NumberField } from './NumberField';
 import { TimeControl } from './TimeControl';
 
+/** The slider's span (log scale); the number field takes the whole allowed range. */
 const P_LO = 0.1;
 const P_HI = 100;
+
+/** What a shared link asked for that was refused or read in a particular way. */
+function LinkNotices() {
+  const notices = useStore((s) => s.notices);
+  if (notices.length === 0) return null;
+  return (
+    <div className="link-notices" role="status" aria-label="Link notices">
+      <p>From the link:</p>
+      <ul>{notices.map((n, i) => <li key={i}>{n}</li>)}</ul>
+      <button type="button" onClick={() => store.set({ notices: [] })}>Dismiss</button>
+    </div>
+  );
+}
+
+/** The storm index (given, or estimated from the solar wind: the default) and the solar-wind speed. */
+function StormControls() {
+  const dst = useStore((s) => s.conditions.dstNt ?? null);
+  const speed = useStore((s) => s.conditions.speedKms ?? null);
+  const used = useStore((s) => s.siteResults?.used ?? s.oval?.used ?? null);
+  return (
+    <fieldset>
+      <legend>Storm</legend>
+      <div className="field">
+        <label htmlFor="dst-mode">Storm index</label>
+        <select id="dst-mode" value={dst === null ? 'estimate' : 'given'} onChange={(e) => setConditions({ dstNt: e.target.value === 'given' ? Math.round(used?.dstNt ?? 0) : null })}>
+          <option value="estimate">estimate from the solar wind</option>
+          <option value="given">given (Dst or SYM-H)</option>
+        </select>
+      </div>
+      {dst !== null && <NumberField label="Dst or SYM-H (nT)" value={dst} range={APP_RANGES.dstNt} step={5} onCommit={(v) => setConditions({ dstNt: v })} />}
+      {dst === null && used && <p className="hint">Estimated Dst {used.dstNt.toFixed(0)} nT (Dst* {used.dstStarNt.toFixed(0)} nT).</p>}
+      <NumberField label="Solar-wind speed (km/s)" value={speed ?? NOMINAL_SPEED_KMS} range={APP_RANGES.speedKms} step={10} onCommit={(v) => setConditions({ speedKms: v })} hint={speed === null ? `nominal ${NOMINAL_SPEED_KMS} km/s until set` : undefined} />
+      {speed !== null && <button type="button" onClick={() => setConditions({ speedKms: null })}>Use the nominal speed ({NOMINAL_SPEED_KMS} km/s)</button>}
+    </fieldset>
+  );
+}
 
 export function ConditionsPanel() {
   const c = useStore((s) => s.conditions);
   const p = useStore((s) => s.products);
   const view = useStore((s) => s.view);
-  const [nv, setNv] = useState({ n: 5, v: 450 });
-  const pFromNv = Number(pdynFromPlasmaNominal(nv.n, nv.v).toPrecision(3)); // the field bounds keep n, v valid
+  const [density, setDensity] = useState(5);
+  const [pMsg, setPMsg] = useState('');
+  const speedKms = c.speedKms ?? NOMINAL_SPEED_KMS;
+  const fromPlasma = pressureFromPlasma(density, speedKms);
+  const used = useStore((s) => s.oval?.used ?? s.siteResults?.used ?? null);
   return (
     <section className="panel" aria-labelledby="cond-h">
       <h2 id="cond-h">Conditions</h2>
+      <LinkNotices />
       <TimeControl />
-      <NumberField label="Dynamic pressure (nPa)" value={c.pdynNpa} min={P_LO} max={P_HI} step={0.1} onCommit={(v) => setConditions({ pdynNpa: v })} />
+      <NumberField label="Dynamic pressure (nPa)" value={c.pdynNpa} range={APP_RANGES.pdynNpa} step={0.1} onCommit={(v) => setConditions({ pdynNpa: v })} />
       <input
         type="range"
         aria-label="Dynamic pressure slider (log scale 0.1–100 nPa)"
@@ -31,15 +73,21 @@ export function ConditionsPanel() {
       />
       <details className="nv">
         <summary>From density and speed</summary>
-        <NumberField label="Proton density (cm⁻³)" value={nv.n} min={0.01} max={500} onCommit={(n) => setNv({ ...nv, n })} />
-        <NumberField label="Solar-wind speed (km/s)" value={nv.v} min={100} max={3000} step={10} onCommit={(v) => setNv({ ...nv, v })} />
-        <button type="button" onClick={() => setConditions({ pdynNpa: Math.min(P_HI, Math.max(P_LO, pFromNv)) })}>
-          Use {pFromNv} nPa
-        </button>
+        <NumberField label="Proton density (cm⁻³)" value={density} range={APP_RANGES.protonDensityCm3} onCommit={setDensity} />
+        <p className="hint">With the solar-wind speed below ({speedKms} km/s).</p>
+        {fromPlasma.ok ? (
+          <button type="button" onClick={() => { setConditions({ pdynNpa: fromPlasma.value }); setPMsg(`Dynamic pressure set to ${fromPlasma.value} nPa.`); }}>
+            Use {fromPlasma.value} nPa
+          </button>
+        ) : (
+          <p className="field-error">{fromPlasma.message}.</p>
+        )}
+        {pMsg && <p role="status" className="msg">{pMsg}</p>}
       </details>
-      <NumberField label="IMF Bz (nT)" value={c.bzNt} min={-50} max={50} step={0.5} onCommit={(v) => setConditions({ bzNt: v })} />
+      <StormControls />
+      <NumberField label="IMF Bz (nT)" value={c.bzNt} range={APP_RANGES.imfNt} step={0.5} onCommit={(v) => setConditions({ bzNt: v })} />
       <input type="range" aria-label="IMF Bz slider (GSM, nT)" min={-30} max={30} step={0.5} value={c.bzNt} onChange={(e) => setConditions({ bzNt: Number(e.target.value) })} />
-      <NumberField label="IMF By (nT)" value={c.byNt} min={-50} max={50} step={0.5} onCommit={(v) => setConditions({ byNt: v })} />
+      <NumberField label="IMF By (nT)" value={c.byNt} range={APP_RANGES.imfNt} step={0.5} onCommit={(v) => setConditions({ byNt: v })} />
       <input type="range" aria-label="IMF By slider (GSM, nT)" min={-30} max={30} step={0.5} value={c.byNt} onChange={(e) => setConditions({ byNt: Number(e.target.value) })} />
       <div className="field">
         <label htmlFor="alt-preset">Altitude preset</label>
@@ -57,7 +105,11 @@ export function ConditionsPanel() {
           <option value="custom">custom</option>
         </select>
       </div>
-      <NumberField label="Footpoint altitude (km)" value={p.altKm} min={0} max={2000} step={10} onCommit={(v) => setProducts({ altPreset: 'custom', altKm: v })} />
+      <NumberField label="Footpoint altitude (km)" value={p.altKm} range={APP_RANGES.altKm} step={10} onCommit={(v) => setProducts({ altPreset: 'custom', altKm: v })} />
+      <label>
+        <input type="checkbox" checked={p.conjugateAltKm === null} onChange={(e) => setProducts({ conjugateAltKm: e.target.checked ? null : p.altKm })} /> conjugate point at the footpoint altitude
+      </label>
+      <NumberField label="Conjugate altitude (km)" value={conjugateAltOf(p)} range={APP_RANGES.altKm} step={10} disabled={p.conjugateAltKm === null} onCommit={(v) => setProducts({ conjugateAltKm: v })} hint="altitude of the conjugate point; the footpoint altitude unless set apart" />
       <div className="field">
         <label htmlFor="internal">Internal field</label>
         <select id="internal" value={c.internal} onChange={(e) => setConditions({ internal: e.target.value === 'igrf' ? 'igrf' : 'dipole' })}>
@@ -65,9 +117,13 @@ export function ConditionsPanel() {
           <option value="igrf">IGRF-14</option>
         </select>
       </div>
-      <NumberField label="IMF efficiency ε" value={c.imfEfficiency} min={0} max={1} step={0.05} onCommit={(v) => setConditions({ imfEfficiency: v })} />
-      <NumberField label="Source distance (RE)" value={p.sourceRe} min={2} max={60} step={0.5} onCommit={(v) => setProducts({ sourceRe: v })} hint="equatorial distance whose footprint is the equatorward edge" />
-      <NumberField label="Minimum elevation (deg)" value={p.minElevationDeg} min={0} max={60} step={1} onCommit={(v) => setProducts({ minElevationDeg: v })} />
+      <NumberField label="IMF efficiency ε" value={c.imfEfficiency} range={APP_RANGES.imfEfficiency} step={0.05} onCommit={(v) => setConditions({ imfEfficiency: v })} />
+      <label>
+        <input type="checkbox" checked={p.sourceRe === null} onChange={(e) => setProducts({ sourceRe: e.target.checked ? null : Number((used?.sourceRe ?? 7).toFixed(2)) })} /> source distance follows the conditions
+      </label>
+      <NumberField label="Source distance (RE)" value={p.sourceRe ?? Number((used?.sourceRe ?? NaN).toFixed(2))} range={APP_RANGES.sourceRe} step={0.5} disabled={p.sourceRe === null} onCommit={(v) => setProducts({ sourceRe: v })} hint="equatorial distance whose footprint is the equatorward edge" />
+      <NumberField label="Minimum elevation (deg)" value={p.minElevationDeg} range={APP_RANGES.minElevationDeg} step={1} onCommit={(v) => setProducts({ minElevationDeg: v })} />
+      <NumberField label="Lowest boundary MLAT (deg)" value={p.minLatDeg} range={APP_RANGES.minLatDeg} step={1} onCommit={(v) => setProducts({ minLatDeg: v })} hint="magnetic latitude the boundary searches start from" />
       <fieldset>
         <legend>Show</legend>
         <label><input type="checkbox" checked={c.magnetopause} onChange={(e) => setConditions({ magnetopause: e.target.checked })} /> magnetopause term</label>

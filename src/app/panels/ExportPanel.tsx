@@ -1,7 +1,7 @@
-/** Export buttons and the share link. */
+/** Export buttons and the share link. Exports refuse, with the reason, while results lag the inputs. */
 import { useState } from 'react';
 import { runExport, type ExportKind } from '../exports';
-import { shareUrl } from '../urlSync';
+import { makeShareLink } from '../urlSync';
 
 const BUTTONS: { kind: ExportKind; label: string }[] = [
   { kind: 'sites-csv', label: 'Sites CSV' },
@@ -22,16 +22,25 @@ export function ExportPanel() {
       <h2 id="exp-h">Export</h2>
       <div className="row wrap">
         {BUTTONS.map((b) => (
-          <button key={b.kind} type="button" onClick={() => setMsg(runExport(b.kind) ? '' : `${b.label}: no results yet.`)}>
+          <button
+            key={b.kind}
+            type="button"
+            onClick={() => {
+              const why = runExport(b.kind);
+              setMsg(why ? `${b.label} not exported: ${why}.` : '');
+            }}
+          >
             {b.label}
           </button>
         ))}
         <button
           type="button"
           onClick={() => {
-            const u = shareUrl();
-            setLink(u);
-            navigator.clipboard?.writeText(u).then(() => setMsg('Link copied.'), () => setMsg('Copy the link below.'));
+            const l = makeShareLink();
+            setLink(l.url);
+            // Said at once (the clipboard may never answer, e.g. without permission); "copied" only once it is.
+            setMsg(`${l.note}Copy the link below.`);
+            void navigator.clipboard?.writeText(l.url).then(() => setMsg(`${l.note}Link copied.`), () => {});
           }}
         >
           Share link

@@ -1,5 +1,5 @@
 /** One row per site with the engine's SiteResult fields. Names are rendered as text only. */
-import { useStore } from '../store';
+import { conjugateAltOf, useStore } from '../store';
 import { removeSite } from '../sites';
 import { fmt, fmtMlt } from '../lib/units';
 import { LINE_COLOURS } from '../lib/palette';
@@ -8,6 +8,7 @@ export function SiteTable() {
   const sites = useStore((s) => s.sites);
   const res = useStore((s) => s.siteResults);
   const pending = useStore((s) => s.pending.sites);
+  const conjAltKm = useStore((s) => conjugateAltOf(s.products));
   const byIndex = res?.sites ?? [];
   return (
     <div className="table-wrap">
@@ -18,8 +19,8 @@ export function SiteTable() {
             <th scope="col">Lat (°)</th>
             <th scope="col">Lon (°)</th>
             <th scope="col">Line</th>
-            <th scope="col">Conjugate lat (°)</th>
-            <th scope="col">Conjugate lon (°)</th>
+            <th scope="col">Conjugate lat (°) at {conjAltKm} km</th>
+            <th scope="col">Conjugate lon (°) at {conjAltKm} km</th>
             <th scope="col">Equator (RE)</th>
             <th scope="col">L</th>
             <th scope="col">MLT</th>

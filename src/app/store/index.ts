@@ -14,9 +14,20 @@ export type AltPreset = 'ground' | 'green' | 'red' | 'custom';
 
 export interface ProductSettings {
   altPreset: AltPreset;
+  /** Footpoint (emission) altitude, km. */
   altKm: number;
-  sourceRe: number;
+  /** Altitude of the conjugate point, km; null = the footpoint altitude (the one rule of app, trace and batch). */
+  conjugateAltKm: number | null;
+  /** Equatorial source distance of the equatorward edge, RE; null = follows the conditions (the model's storm-following value). */
+  sourceRe: number | null;
   minElevationDeg: number;
+  /** Lowest magnetic latitude the boundary searches start from, deg. */
+  minLatDeg: number;
+}
+
+/** The conjugate altitude in use (km): the set value, or the footpoint altitude when none is set. */
+export function conjugateAltOf(p: ProductSettings): number {
+  return p.conjugateAltKm ?? p.altKm;
 }
 
 interface ViewSettings {
@@ -53,6 +64,8 @@ export interface AppState {
   ovalSeq: number;
   /** The inputs (by reference) each current answer was computed for: lets tests and the UI tell fresh from lagging. */
   answeredFor: Partial<Record<'scene' | 'oval' | 'sites' | 'sweep', AnsweredFor>>;
+  /** What a shared link asked for that was refused or read in a particular way (shown until dismissed). */
+  notices: string[];
 }
 
 export interface AnsweredFor {
@@ -79,6 +92,7 @@ function initialState(): AppState {
     sceneSeq: -1,
     ovalSeq: -1,
     answeredFor: {},
+    notices: [],
   };
 }
 

@@ -36,8 +36,19 @@ export interface BatchSettings {
   csvDecimals: number;
 }
 
+/**
+ * Sites per job at most: a condition with more sites is split into several
+ * jobs, so the rows in flight (jobs in flight × this) bound the memory.
+ */
+export const SITES_PER_JOB = 2000;
+
 export interface ConditionJob {
   seq: number;
+  /** The sites of this job: indices [siteFrom, siteTo) of the sites list. */
+  siteFrom: number;
+  siteTo: number;
+  /** True for the shard's first condition (site problems are listed once, there). */
+  firstCondition: boolean;
   /** Line in the conditions file, or null for the condition given by the flags. */
   line: number | null;
   cond: RowOutcome<SeriesCondition>;
@@ -45,6 +56,8 @@ export interface ConditionJob {
 
 export interface JobResult {
   seq: number;
+  /** The job holds the condition's first sites (count the condition once). */
+  firstChunk: boolean;
   /** Formatted rows (CSV records / JSON lines / GeoJSON features joined by ",\n"); '' when none. */
   text: string;
   rows: number;
@@ -176,7 +189,7 @@ class RowFormatter {
 /** All rows of one condition, in site order. Never throws: problems become rows. */
 export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInput>[], st: BatchSettings): JobResult {
   const out = new RowFormatter(st);
-  const res: JobResult = { seq: job.seq, text: '', rows: 0, ok: 0, skipped: 0, failed: 0, problems: [] };
+  const res: JobResult = { seq: job.seq, firstChunk: job.siteFrom === 0, text: '', rows: 0, ok: 0, skipped: 0, failed: 0, problems: [] };
   const note = (p: string) => { if (res.problems.length < MAX_PROBLEMS) res.problems.push(p); };
   const where = job.line === null ? 'conditions from the flags' : `conditions line ${job.line}`;
   let model: PreparedModel | null = null;
@@ -210,7 +223,8 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
   const notes = [...(model ? model.warnings : []), ...(cond?.note ? [cond.note] : [])];
   const warnings = notes.length ? notes.join('; ') : null;
   if (condProblem) note(condProblem.error ?? condProblem.skipped!);
-  for (const site of sites) {
+  for (let si = job.siteFrom; si < job.siteTo; si++) {
+    const site = sites[si];
     const r = emptyRow();
     fillSite(r, site);
     fillCondition(r, job.line, cond, model, job.cond.kind === 'ok' ? undefined : job.cond.time);
@@ -220,10 +234,10 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
       else { r[C.skipped] = condProblem.skipped; res.skipped++; }
     } else if (site.kind === 'error') {
       r[C.error] = site.error; res.failed++;
-      if (job.seq === 0) note(site.error);
+      if (job.firstCondition) note(site.error);
     } else if (site.kind === 'skipped') {
       r[C.skipped] = site.reason; res.skipped++;
-      if (job.seq === 0) note(site.reason);
+      if (job.firstCondition) note(site.reason);
     } else {
       r[C.warnings] = warnings;
       r[C.source_re] = sourceRe;

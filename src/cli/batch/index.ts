@@ -15,9 +15,10 @@ import { mltGrid, type SiteInput } from '../../physics/mapping';
 import { PDYN_NOMINAL_COEFF } from '../../physics/field/magnetopause';
 import { decimalYear, parseUtc } from '../../physics/frames/time';
 import { sitesHeader, parseSite, checkTime, SITES_EXPECTED, type RowOutcome } from './inputs';
-import { BATCH_COLUMNS, type BatchFormat, type BatchSettings, type ConditionJob, type JobResult } from './compute';
-import { inProcessRunner, threadRunner, runOrdered, type JobRunner } from './pool';
-import { fileSink, stdoutSink, outputPrefix, outputSuffix, chunkSeparator, type Sink } from './output';
+import { BATCH_COLUMNS, SITES_PER_JOB, type BatchFormat, type BatchSettings, type ConditionJob, type JobResult } from './compute';
+import { inProcessRunner, threadRunner, runOrdered, Interrupted, type JobRunner } from './pool';
+import { fileSink, stdoutSink, outputPrefix, outputSuffix, chunkSeparator, PARTIAL_SUFFIX, type Sink } from './output';
+import { checkOutNotInput } from './guard';
 import { csvRecords, requireFile, countLines } from './read';
 import { createReadStream } from 'node:fs';
 import { readSeries, SERIES_FORMATS, type SeriesFormat, type SeriesRecord } from '../../io/series/series';
@@ -27,7 +28,7 @@ import { InputError } from '../../physics/errors';
 import { NOMINAL_SPEED_KMS } from '../../physics/field/storm-index';
 import type { CsvRecord } from '../../io/batch-csv';
 import { Progress } from './progress';
-import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE, EXIT_ROWS_FAILED } from '../exit-codes';
+import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE, EXIT_ROWS_FAILED, EXIT_SIGINT, EXIT_SIGTERM } from '../exit-codes';
 
 interface BatchIo {
   stdout(text: string): void;
@@ -43,7 +44,8 @@ const BATCH_FLAGS: FlagSpec[] = [
   { name: 'conditions', kind: 'string', meta: '<series>', help: `solar-wind series: our CSV (columns ${SERIES_CSV_EXPECTED}), or an hourly or high-resolution (1-/5-min) data file of the merged near-Earth solar-wind data set`, defaultText: 'one condition from --time --pdyn --bz --by' },
   { name: 'series-format', kind: 'string', meta: '<auto|csv|hourly|highres>', help: 'layout of the --conditions file', defaultText: 'auto: told from its first line' },
   { name: 'out', kind: 'string', meta: '<file>', help: 'write the table here', defaultText: 'stdout' },
-  { name: 'workers', kind: 'integer', meta: '<N>', min: 1, max: 256, help: 'threads computing rows (1 = this thread)', defaultText: 'the number of cores' },
+  { name: 'workers', kind: 'integer', meta: '<N>', min: 1, max: 256, help: 'threads computing rows (1 = this thread); more than the cores is reduced to the cores, with a warning', defaultText: 'the number of cores' },
+  { name: 'keep-partial', kind: 'switch', help: `when a run is interrupted or fails, keep the rows written so far as <out>${PARTIAL_SUFFIX} (the --out file itself is never touched unless the run completes)` },
   { name: 'shard', kind: 'string', meta: '<k/n>', help: 'take conditions k, k+n, k+2n, … (1-based) for array jobs; shard outputs concatenate' },
   { name: 'progress', kind: 'switch', help: 'rows/s and ETA on stderr (on by default when stderr is a terminal)' },
   { name: 'conjugate-alt-km', kind: 'number', meta: '<km>', unit: 'km', ...INPUT_RANGES.altKm, help: 'altitude of the conjugate point', defaultText: '0, the ground' },
@@ -124,7 +126,9 @@ interface Plan {
   flags: ParsedFlags;
   settings: BatchSettings;
   shard: { k: number; n: number };
-  workers: number;
+  /** --workers as given (null: the number of cores); runBatch caps it at the cores. */
+  workersAsked: number | null;
+  keepPartial: boolean;
   sitesPath: string;
   conditionsPath: string | null;
   outPath: string | null;
@@ -174,7 +178,8 @@ function plan(argv: readonly string[], io: BatchIo): Plan {
     seriesFormat: seriesFormat as SeriesFormat | 'auto',
     fallbackSpeedKms: c.speedKms ?? null,
     shard: parseShard(flags.shard as string | undefined),
-    workers: (flags.workers as number | undefined) ?? Math.max(1, os.availableParallelism()),
+    workersAsked: (flags.workers as number | undefined) ?? null,
+    keepPartial: flags['keep-partial'] === true,
     sitesPath: flags.sites as string,
     outPath: (flags.out as string | undefined) ?? null,
     progress: flags.progress === true || process.stderr.isTTY === true,
@@ -228,11 +233,18 @@ function conditionOf(rec: SeriesRecord, track: StormIndexTrack): ConditionJob['c
  * record of the file passes through the storm-index track, so a shard's rows
  * carry the same index as one run's.
  */
-async function conditionJobs(p: Plan): Promise<AsyncIterable<ConditionJob>> {
+function* siteChunks(seq0: number, line: number | null, cond: ConditionJob['cond'], siteCount: number, firstCondition: boolean): Generator<ConditionJob> {
+  let seq = seq0;
+  for (let a = 0; a === 0 || a < siteCount; a += SITES_PER_JOB) {
+    yield { seq: seq++, line, cond, siteFrom: a, siteTo: Math.min(siteCount, a + SITES_PER_JOB), firstCondition };
+  }
+}
+
+async function conditionJobs(p: Plan, siteCount: number): Promise<AsyncIterable<ConditionJob>> {
   if (p.conditionsPath === null) {
     const cond = p.flagCondition!;
     return (async function* () {
-      yield { seq: 0, line: null, cond: { kind: 'ok', line: 0, value: { ...cond, pdynSource: 'flags' } } } as ConditionJob;
+      yield* siteChunks(0, null, { kind: 'ok', line: 0, value: { ...cond, pdynSource: 'flags' } }, siteCount, true);
     })();
   }
   const path = p.conditionsPath;
@@ -249,7 +261,9 @@ async function conditionJobs(p: Plan): Promise<AsyncIterable<ConditionJob>> {
       const rec = next.value;
       // Every good row feeds the track, whichever shard computes it.
       const cond = conditionOf(rec, track);
-      if (i++ % n === k - 1) yield { seq: seq++, line: rec.line, cond };
+      if (i++ % n === k - 1) {
+        for (const job of siteChunks(seq, rec.line, cond, siteCount, seq === 0)) { seq = job.seq + 1; yield job; }
+      }
       try { next = await records.next(); } catch (e) { throw seriesUsage(e, path); }
     }
   })();
@@ -301,33 +315,66 @@ function summary(t: Totals, seconds: number, sites: number, conditions: number):
   return lines.join('\n') + '\n';
 }
 
+/** Signals that stop a run cleanly, and their exit codes. */
+const STOP_SIGNALS = { SIGINT: EXIT_SIGINT, SIGTERM: EXIT_SIGTERM } as const;
+type StopSignal = keyof typeof STOP_SIGNALS;
+
+/**
+ * Jobs in flight at most: enough to keep every worker busy (each takes two),
+ * and at most 4 per worker. A job holds at most SITES_PER_JOB sites' rows, so
+ * the rows held at once stay below window × SITES_PER_JOB whatever the inputs.
+ */
+function jobWindow(workers: number): number {
+  return Math.max(4, 4 * workers);
+}
+
 /** The batch command as a function: argv after `batch`; returns the exit code and never throws. */
 export async function runBatch(argv: readonly string[], io: BatchIo): Promise<number> {
   if (argv.includes('--help') || argv.includes('-h')) { io.stdout(batchHelp()); return EXIT_OK; }
   let runner: JobRunner | null = null;
   let sink: Sink | null = null;
+  let keepPartial = false;
+  let stopBy: StopSignal | null = null;
+  let stopNow: () => void = () => {};
+  const stop = new Promise<void>((res) => { stopNow = res; });
+  const onSignal = (sig: NodeJS.Signals) => { if (stopBy === null) { stopBy = sig as StopSignal; stopNow(); } };
+  for (const sig of Object.keys(STOP_SIGNALS)) process.on(sig, onSignal);
+  const totals: Totals = { rows: 0, ok: 0, skipped: 0, failed: 0, problems: [] };
+  let conditions = 0;
+  let outPath: string | null = null;
+  let suffix = '';
   try {
     const p = plan(argv, io);
+    keepPartial = p.keepPartial;
+    outPath = p.outPath;
     await requireFile(p.sitesPath, '--sites');
     if (p.conditionsPath !== null) await requireFile(p.conditionsPath, '--conditions');
+    if (p.outPath !== null) {
+      await checkOutNotInput(p.outPath, [{ flag: '--sites', path: p.sitesPath }, ...(p.conditionsPath !== null ? [{ flag: '--conditions', path: p.conditionsPath }] : [])]);
+    }
+    const cores = Math.max(1, os.availableParallelism());
+    let workers = p.workersAsked ?? cores;
+    if (workers > cores) {
+      io.stderr(`${NAME}: warning: --workers ${workers} is more than the ${cores} cores of this machine; using ${cores}\n`);
+      workers = cores;
+    }
     const sites = await readSites(p.sitesPath);
-    const jobs = await conditionJobs(p);
+    const jobs = await conditionJobs(p, sites.length);
     const expected = p.progress && p.conditionsPath !== null ? Math.ceil(Math.max(0, (await countLines(p.conditionsPath)) - 1) / p.shard.n) : 1;
     sink = p.outPath === null ? stdoutSink((t) => io.stdout(t)) : await fileSink(p.outPath).catch((e: NodeJS.ErrnoException) => {
       throw new UsageError('--out', `cannot write ${p.outPath} (${e.code ?? e.message})`);
     });
     const format = p.settings.format;
+    suffix = outputSuffix(format);
     const sinkRef = sink;
     await sinkRef.write(outputPrefix(format, metadata(p, sites.length), p.shard.k === 1));
-    runner = p.workers <= 1 ? inProcessRunner(sites, p.settings) : threadRunner(p.workers, sites, p.settings);
-    const totals: Totals = { rows: 0, ok: 0, skipped: 0, failed: 0, problems: [] };
+    runner = workers <= 1 ? inProcessRunner(sites, p.settings) : threadRunner(workers, sites, p.settings);
     const progress = p.progress ? new Progress(io.stderr, expected * sites.length) : null;
     const t0 = performance.now();
-    let conditions = 0;
     let wroteRows = false;
     const sep = chunkSeparator(format);
-    await runOrdered(jobs, runner, Math.max(4, 4 * p.workers), async (r: JobResult) => {
-      conditions++;
+    await runOrdered(jobs, runner, jobWindow(workers), async (r: JobResult) => {
+      if (r.firstChunk) conditions++;
       totals.rows += r.rows; totals.ok += r.ok; totals.skipped += r.skipped; totals.failed += r.failed;
       for (const m of r.problems) if (totals.problems.length < 20) totals.problems.push(m);
       if (r.text) {
@@ -335,22 +382,42 @@ export async function runBatch(argv: readonly string[], io: BatchIo): Promise<nu
         wroteRows = true;
       }
       progress?.update(totals.rows);
-    });
+    }, stop);
     await sinkRef.write(outputSuffix(format));
     await sinkRef.end();
     sink = null;
     progress?.done();
     io.stderr(summary(totals, (performance.now() - t0) / 1000, sites.length, conditions));
+    if (totals.ok === 0) {
+      // Documented: exit 0 (nothing failed) but said plainly, so a script's log shows it.
+      io.stderr(`${NAME}: warning: no row was computed (${totals.rows === 0 ? 'no rows: the inputs hold no site or no condition' : `all ${totals.rows} rows were ${totals.failed ? 'skipped or failed' : 'skipped'}`})\n`);
+    }
     return totals.failed > 0 ? EXIT_ROWS_FAILED : EXIT_OK;
   } catch (e) {
+    if (e instanceof Interrupted && stopBy !== null) {
+      if (runner) { await runner.close(); runner = null; }
+      // A kept partial file is closed as its format requires (GeoJSON's collection), so it parses.
+      if (sink && keepPartial) await sink.write(suffix).catch(() => {});
+      const partial = sink ? await sink.abort(keepPartial) : null;
+      sink = null;
+      const where = outPath === null ? 'the rows written so far went to stdout (incomplete)'
+        : partial !== null ? `${outPath} left untouched; the rows written so far are in ${partial} (incomplete)`
+        : `${outPath} left untouched; nothing kept (--keep-partial keeps the rows written so far)`;
+      io.stderr(`${NAME}: stopped by ${stopBy} after ${totals.rows} rows (${conditions} conditions): ${totals.ok} computed, ${totals.skipped} skipped, ${totals.failed} failed; ${where}\n`);
+      return STOP_SIGNALS[stopBy];
+    }
     if (e instanceof UsageError) {
       io.stderr(`${NAME}: ${e.message}\n(see: batch --help)\n`);
       return EXIT_USAGE;
     }
-    io.stderr(`${NAME}: failed: ${errorText(e)}\n`);
+    io.stderr(`${NAME}: failed: ${errorText(e)}${outPath !== null ? `; ${outPath} left untouched` : ''}\n`);
     return EXIT_FAILURE;
   } finally {
+    for (const sig of Object.keys(STOP_SIGNALS)) process.off(sig, onSignal);
     if (runner) await runner.close();
-    if (sink) await sink.end().catch(() => {});
+    if (sink) {
+      const partial = await sink.abort(keepPartial).catch(() => null);
+      if (partial !== null) io.stderr(`${NAME}: the rows written before the failure are in ${partial} (incomplete)\n`);
+    }
   }
 }

@@ -82,6 +82,18 @@ describe('batch: storm index per row (references §10)', () => {
     expect(parts.map((x) => [x.conditions_line, x.dst_star_nt, x.open_closed_mag_lat_deg])).toEqual(one.map((x) => [x.conditions_line, x.dst_star_nt, x.open_closed_mag_lat_deg]));
   });
 
+  it('a row with an impossible speed is an error of its own; the rows after it go on from the last good row', async () => {
+    const sites = file('s.csv', SITES);
+    const cond = file('fast.csv', 'time,pdyn_npa,bz_nt,by_nt,speed_kms,dst_nt\n2025-03-21T00:00:00Z,3,-10,0,500,-150\n2025-03-21T01:00:00Z,3,-10,0,5000,\n2025-03-21T02:00:00Z,3,-10,0,500,\n');
+    const r = await batch(['--sites', sites, '--conditions', cond, ...FAST]);
+    const [, b, c] = jsonRows(r.out);
+    expect(b.error).toMatch(/^conditions line 3: speed_kms: 5000 km\/s is outside the allowed range: above 0 and at most 3000 km\/s/);
+    expect(c.error).toBeNull();
+    // Line 4 integrates two hours from line 2 with line 2's drivers (the bad line is not a driver).
+    const v = 500 * 10e-3, qt = qOM(v) * tauOM(v);
+    expectClose(c.dst_star_nt, qt + (star(-150, 3) - qt) * Math.exp(-2 / tauOM(v)), 1e-9, 'held over the bad line');
+  });
+
   it('refuses --dst with a --conditions file, and an unknown --series-format (exit 2)', async () => {
     const sites = file('s.csv', SITES);
     const cond = file('c.csv', 'time,pdyn_npa,bz_nt\n2025-03-21T00:00:00Z,2,-3\n');

@@ -223,7 +223,7 @@ function conditionOf(rec: SeriesRecord, track: StormIndexTrack): ConditionJob['c
       value: { time: v.time, pdynNpa: v.pdynNpa, bzNt: v.bzNt, byNt: v.byNt, pdynSource: v.pdynSource, dstNt: storm.dstNt, dstSource: storm.dstSource, speedKms: storm.speedKms, note: storm.warning },
     };
   } catch (e) {
-    return { kind: 'error', line: rec.line, error: `conditions line ${rec.line}: storm index: ${errorText(e)}`, time: v.time };
+    return { kind: 'error', line: rec.line, error: `conditions line ${rec.line}: ${errorText(e)}`, time: v.time };
   }
 }
 

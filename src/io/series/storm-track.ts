@@ -14,7 +14,7 @@
  * same index for a row as one run. Pure: no Node or DOM APIs.
  */
 import {
-  DstStarStepper, steadyDstStar, pressureCorrectedDst, dstFromCorrected, NOMINAL_SPEED_KMS, DST_LIMIT_NT,
+  DstStarStepper, steadyDstStar, pressureCorrectedDst, dstFromCorrected, requireSpeed, NOMINAL_SPEED_KMS, DST_LIMIT_NT,
 } from '../../physics/field/storm-index';
 import type { SeriesValue } from './record';
 
@@ -52,7 +52,8 @@ export class StormIndexTrack {
 
   /** The storm index of the next good row (call for every good row, in file order). */
   next(v: SeriesValue, line: number): RowStorm {
-    const speedKms = v.speedKms ?? this.fallbackSpeedKms;
+    // Checked before the state changes: a bad row leaves the track as it was (its drivers are not held).
+    const speedKms = requireSpeed('speed_kms', v.speedKms ?? this.fallbackSpeedKms);
     let warning: string | null = null;
     let out: RowStorm;
     if (v.dstNt !== undefined) {

@@ -92,7 +92,7 @@ describe('batch: an interrupted run never looks complete (defect 2)', () => {
     expect(readFileSync(out, 'utf8')).toBe('an earlier good result\n');
     expect(r.err).toMatch(/stopped by SIGINT after \d+ rows \(\d+ conditions\).*table3\.csv left untouched; nothing kept/);
     expect(readdirSync(dirname(out)).filter((f) => f.includes('table3.csv.writing'))).toEqual([]);
-  });
+  }, 90_000);
 
   it('SIGTERM with --keep-partial: exit 143, the rows so far in <out>.partial (valid GeoJSON), the target not created', async () => {
     const sites = file('s4.csv', SITES);

@@ -15,6 +15,7 @@
  *
  * Pure: no Node or DOM APIs.
  */
+import { chunkStart, type ChunkStartState } from './series/lines';
 
 export interface CsvRecord {
   /** Raw field texts (quotes removed; the injection apostrophe kept — see csvText). Empty on an error record. */
@@ -54,20 +55,20 @@ function countLineEnds(s: string, end: number): number {
  * Push chunks with `push(text)`, then call `end()`; each returns the records
  * completed by that call, error records included.
  */
-export class CsvRecordSplitter {
+export class CsvRecordSplitter implements ChunkStartState {
   private record: string[] = [];
   private field = '';
   private inQuotes = false;
   private wasQuoted = false;
-  /** A CR ended the previous chunk outside quotes (its LF may open this one). */
-  private afterCr = false;
+  /** A CR ended the previous chunk outside quotes (its LF may open this one); see chunkStart. */
+  afterCr = false;
   /** A CR ended the previous chunk inside quotes. */
   private quotedCr = false;
   /** A quote ended the previous chunk inside quotes: closing or the first of a doubled pair. */
   private pendingQuote = false;
   /** After an error: drop text up to the next line end (it lies in a later chunk). */
   private skipLine = false;
-  private started = false;
+  started = false;
   private line = 1;
   private recordLine = 1;
   private quoteLine = 1;
@@ -89,15 +90,7 @@ export class CsvRecordSplitter {
   private pushInto(out: CsvRecord[], chunk: string): void {
     const n = chunk.length;
     if (n === 0) return;
-    let i = 0;
-    if (!this.started) {
-      this.started = true;
-      if (chunk.charCodeAt(0) === 0xfeff) i = 1;
-    }
-    if (this.afterCr) {
-      this.afterCr = false;
-      if (chunk.charCodeAt(i) === 10) i++;
-    }
+    let i = chunkStart(this, chunk);
     if (this.skipLine) {
       const k = afterLineEnd(chunk, i);
       if (k < 0) return;

@@ -212,7 +212,11 @@ describe('batch: agreement with trace and the boundary search (same engine)', ()
       // Boundaries: the engine's sector search at the row's MLT in the site's hemisphere, for trace's conditions.
       const c = ground.conditions;
       const m = prepareModel({ time: '2025-03-20T21:00:00Z', pdynNpa: 4.5, bzNt: -8, byNt: -2, internal: c.internal, imfEfficiency: c.imfEfficiency, tail: c.tail, magnetopause: c.magnetopause });
-      const b = sectorBoundaries(m, makeTracer(m, { altKm: 110, ellipsoid: true }), 'north', row.mlt_h as number); // the storm-following source (model.sourceRe), as the batch without --source-re
+      // One row without an index: the integration starts from the steady state, which is the model's own estimate (references §10).
+      expect(row.dst_source).toBe('integrated');
+      expectClose(row.dst_star_nt as number, m.storm.dstStarNt, 1e-9, 'Dst* of the first row vs the steady-state estimate');
+      expect(row.source_re, 'the source distance follows the conditions').toBe(m.sourceRe);
+      const b = sectorBoundaries(m, makeTracer(m, { altKm: 110, ellipsoid: true }), 'north', row.mlt_h as number, { sourceRe: row.source_re as number });
       expect(b.openClosed && b.equatorward, 'both boundaries found').toBeTruthy();
       expectClose(row.open_closed_mag_lat_deg as number, b.openClosed!.magLatDeg, 1e-12, 'open–closed boundary vs sectorBoundaries');
       expectClose(row.equatorward_mag_lat_deg as number, b.equatorward!.magLatDeg, 1e-12, 'equatorward edge vs sectorBoundaries');

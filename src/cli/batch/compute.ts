@@ -7,7 +7,8 @@
 import { prepareModel, type PreparedModel } from '../../physics/field/model';
 import { makeTracer, siteGsm, boundaryFinder } from '../../physics/mapping';
 import { splitFootpoints } from '../../physics/mapping';
-import { siteReport, type SiteInput, type SiteResult } from '../../physics/mapping';
+import { siteReport, type SiteInput, type SiteResult, type BoundaryProvider, type SectorBoundaries, type Hemisphere } from '../../physics/mapping';
+import { boundaryReason } from './reasons';
 import { gridBoundaries } from './grid-boundaries';
 import { DEG_PER_RAD } from '../../physics/constants';
 import { parseUtc } from '../../physics/frames/time';
@@ -22,11 +23,11 @@ export type BatchFormat = 'csv' | 'json' | 'geojson';
 /** Everything a row needs besides its condition and site (the same for the whole run). */
 export interface BatchSettings {
   /** The model switches of the common flags (tilt, main field, magnetopause, IMF efficiency, tail…): all but the series' own inputs. */
-  model: Omit<FieldConditions, 'time' | 'pdynNpa' | 'bzNt' | 'byNt'>;
+  model: Omit<FieldConditions, 'time' | 'pdynNpa' | 'bzNt' | 'byNt' | 'dstNt' | 'speedKms'>;
   altKm: number;
   conjugateAltKm: number;
-  /** undefined: each condition's storm-following source distance (model.sourceRe). */
-  sourceRe?: number;
+  /** Equatorial source distance set by the user, RE; null: the model's, following the conditions. */
+  sourceRe: number | null;
   minElevationDeg: number;
   /** null: the engine's boundary search at each site's exact MLT; else an MLT grid step (h), interpolated (approximation). */
   boundaryMltStep: number | null;
@@ -35,8 +36,19 @@ export interface BatchSettings {
   csvDecimals: number;
 }
 
+/**
+ * Sites per job at most: a condition with more sites is split into several
+ * jobs, so the rows in flight (jobs in flight × this) bound the memory.
+ */
+export const SITES_PER_JOB = 2000;
+
 export interface ConditionJob {
   seq: number;
+  /** The sites of this job: indices [siteFrom, siteTo) of the sites list. */
+  siteFrom: number;
+  siteTo: number;
+  /** True for the shard's first condition (site problems are listed once, there). */
+  firstCondition: boolean;
   /** Line in the conditions file, or null for the condition given by the flags. */
   line: number | null;
   cond: RowOutcome<SeriesCondition>;
@@ -44,6 +56,8 @@ export interface ConditionJob {
 
 export interface JobResult {
   seq: number;
+  /** The job holds the condition's first sites (count the condition once). */
+  firstChunk: boolean;
   /** Formatted rows (CSV records / JSON lines / GeoJSON features joined by ",\n"); '' when none. */
   text: string;
   rows: number;
@@ -57,12 +71,12 @@ export interface JobResult {
 /** Output columns, units in the names. The JSON and GeoJSON records use the same keys. */
 export const BATCH_COLUMNS = [
   'conditions_line', 'sites_line', 'site', 'site_lat_deg', 'site_lon_deg', 'site_height_km',
-  'time', 'pdyn_npa', 'bz_nt', 'by_nt', 'tilt_deg',
+  'time', 'pdyn_npa', 'bz_nt', 'by_nt', 'speed_kms', 'dst_nt', 'dst_source', 'dst_star_nt', 'tilt_deg', 'source_re',
   'line_type',
   'conj_geo_lat_deg', 'conj_geo_lon_deg', 'conj_mag_lat_deg', 'conj_mag_lon_deg', 'conj_mlt_h',
   'foot_geo_lat_deg', 'foot_geo_lon_deg', 'far_foot_geo_lat_deg', 'far_foot_geo_lon_deg',
   'equator_r_re', 'l_shell', 'mlt_h', 'mag_lat_deg',
-  'open_closed_mag_lat_deg', 'equatorward_mag_lat_deg', 'oval_relation', 'inside_oval',
+  'open_closed_mag_lat_deg', 'equatorward_mag_lat_deg', 'boundary_reason', 'oval_relation', 'inside_oval',
   'sky_elevation_deg', 'sky_azimuth_deg', 'sky_distance_km', 'sky_visible',
   'warnings', 'error', 'skipped',
 ] as const;
@@ -102,6 +116,11 @@ function fillCondition(r: Row, line: number | null, c: SeriesCondition | null, m
   if (m) {
     r[C.time] = new Date(m.ms).toISOString();
     r[C.tilt_deg] = m.frames.tiltRad * DEG_PER_RAD;
+    r[C.speed_kms] = m.storm.speedKms;
+    r[C.dst_nt] = m.storm.dstNt;
+    r[C.dst_star_nt] = m.storm.dstStarNt;
+    // The series' own index or its integration; else the model's: --dst, or its steady-state estimate.
+    r[C.dst_source] = c?.dstSource ?? (m.storm.dstSource === 'given' ? 'flag' : 'steady_state');
   }
 }
 
@@ -170,7 +189,7 @@ class RowFormatter {
 /** All rows of one condition, in site order. Never throws: problems become rows. */
 export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInput>[], st: BatchSettings): JobResult {
   const out = new RowFormatter(st);
-  const res: JobResult = { seq: job.seq, text: '', rows: 0, ok: 0, skipped: 0, failed: 0, problems: [] };
+  const res: JobResult = { seq: job.seq, firstChunk: job.siteFrom === 0, text: '', rows: 0, ok: 0, skipped: 0, failed: 0, problems: [] };
   const note = (p: string) => { if (res.problems.length < MAX_PROBLEMS) res.problems.push(p); };
   const where = job.line === null ? 'conditions from the flags' : `conditions line ${job.line}`;
   let model: PreparedModel | null = null;
@@ -180,7 +199,7 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
   else if (job.cond.kind === 'skipped') condProblem = { skipped: job.cond.reason };
   else {
     try {
-      model = prepareModel({ ...st.model, time: cond!.time, pdynNpa: cond!.pdynNpa, bzNt: cond!.bzNt, byNt: cond!.byNt });
+      model = prepareModel({ ...st.model, time: cond!.time, pdynNpa: cond!.pdynNpa, bzNt: cond!.bzNt, byNt: cond!.byNt, dstNt: cond!.dstNt ?? null, speedKms: cond!.speedKms ?? null });
     } catch (e) {
       condProblem = { error: `${where}: ${errorText(e)}` };
     }
@@ -188,10 +207,21 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
   const tConj = model ? makeTracer(model, { altKm: st.conjugateAltKm, ellipsoid: true }) : null;
   const tAlt = model ? (st.altKm === st.conjugateAltKm ? tConj : makeTracer(model, { altKm: st.altKm, ellipsoid: true })) : null;
   // The engine's search at each site's exact MLT, each started from the nearest MLT already answered; or the opt-in grid approximation.
-  const bounds = model ? (st.boundaryMltStep === null ? boundaryFinder(model, tAlt!, { sourceRe: st.sourceRe }) : gridBoundaries(model, tAlt!, st.sourceRe, st.boundaryMltStep)) : null;
-  const warnings = model && model.warnings.length ? model.warnings.join('; ') : null;
+  const sourceRe = model ? st.sourceRe ?? model.sourceRe : NaN;
+  const inner = model ? (st.boundaryMltStep === null ? boundaryFinder(model, tAlt!, { sourceRe }) : gridBoundaries(model, tAlt!, sourceRe, st.boundaryMltStep)) : null;
+  // The last boundaries handed out (siteReport asks once per site), for the reason of an empty one.
+  let asked: { h: Hemisphere; b: SectorBoundaries } | null = null;
+  const bounds: BoundaryProvider | null = inner ? (h, mlt) => { const b = inner(h, mlt); asked = { h, b }; return b; } : null;
+  const reasonOf = (): string | null => {
+    const a = asked as { h: Hemisphere; b: SectorBoundaries } | null;
+    if (!a || (a.b.openClosed && a.b.equatorward)) return null;
+    return boundaryReason(a.b);
+  };
+  const notes = [...(model ? model.warnings : []), ...(cond?.note ? [cond.note] : [])];
+  const warnings = notes.length ? notes.join('; ') : null;
   if (condProblem) note(condProblem.error ?? condProblem.skipped!);
-  for (const site of sites) {
+  for (let si = job.siteFrom; si < job.siteTo; si++) {
+    const site = sites[si];
     const r = emptyRow();
     fillSite(r, site);
     fillCondition(r, job.line, cond, model, job.cond.kind === 'ok' ? undefined : job.cond.time);
@@ -201,18 +231,22 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
       else { r[C.skipped] = condProblem.skipped; res.skipped++; }
     } else if (site.kind === 'error') {
       r[C.error] = site.error; res.failed++;
-      if (job.seq === 0) note(site.error);
+      if (job.firstCondition) note(site.error);
     } else if (site.kind === 'skipped') {
       r[C.skipped] = site.reason; res.skipped++;
-      if (job.seq === 0) note(site.reason);
+      if (job.firstCondition) note(site.reason);
     } else {
       r[C.warnings] = warnings;
-      const s = siteReport(model!, tConj!, tAlt!, site.value, { conjugateAltKm: st.conjugateAltKm, altKm: st.altKm, sourceRe: st.sourceRe, minElevationDeg: st.minElevationDeg }, bounds!, false);
+      r[C.source_re] = sourceRe;
+      asked = null;
+      const s = siteReport(model!, tConj!, tAlt!, site.value, { conjugateAltKm: st.conjugateAltKm, altKm: st.altKm, sourceRe, minElevationDeg: st.minElevationDeg }, bounds!, false);
       if (s.error) {
         const err = `sites line ${site.line} (${site.value.name}), ${where}: ${s.error}`;
         r[C.error] = err; res.failed++; note(err);
       } else {
         fillResult(r, model!, site.value, s);
+        if (s.boundaries) r[C.boundary_reason] = reasonOf();
+        else if (asked === null) r[C.boundary_reason] = 'no boundaries: the site\'s footpoint at --alt-km has no MLT (no footpoint on its side)';
         res.ok++;
       }
     }

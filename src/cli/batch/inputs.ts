@@ -31,8 +31,16 @@ export interface SeriesCondition {
   pdynNpa: number;
   bzNt: number;
   byNt: number;
-  /** Where pdyn came from: the file's pdyn_npa, density and speed, or the flags. */
-  pdynSource: 'pdyn_npa' | 'density_speed' | 'flags';
+  /** Where pdyn came from: the file's pdyn_npa or flow-pressure word, density and speed (with the alpha ratio), or the flags. */
+  pdynSource: 'pdyn_npa' | 'flow_pressure' | 'density_speed' | 'density_speed_alpha' | 'flags';
+  /** Storm index for the model, nT; null: the model estimates it (steady state). */
+  dstNt?: number | null;
+  /** Where the index came from (the `dst_source` column); absent: from the model (--dst or its steady-state estimate). */
+  dstSource?: 'dst' | 'sym_h' | 'integrated';
+  /** Solar-wind speed for the model, km/s; null: the nominal speed. */
+  speedKms?: number | null;
+  /** A note on this condition for the warnings column (e.g. the storm-index integration restarted). */
+  note?: string | null;
 }
 
 /** Column index by name, after checking the header against the expected columns. */

@@ -9,38 +9,93 @@
  *    member and one Point feature per row at the conjugate point.
  */
 import { createWriteStream, type WriteStream } from 'node:fs';
+import { stat, rename, unlink } from 'node:fs/promises';
 import { once } from 'node:events';
+import { basename, dirname, join } from 'node:path';
 import { csvField } from '../../io/csv';
 import { writeJson } from '../../io/json';
 import { BATCH_COLUMNS, type BatchFormat } from './compute';
 
 export interface Sink {
   write(text: string): Promise<void>;
+  /** Finish: the file gets its final name (atomic rename of the temporary file). */
   end(): Promise<void>;
+  /**
+   * Give up (interruption, failure): the temporary file is removed, or with
+   * `keepPartial` renamed to `<target>.partial`; the target is never touched.
+   * Returns the partial file's path when one was kept.
+   */
+  abort(keepPartial: boolean): Promise<string | null>;
 }
 
-export function fileSink(path: string): Promise<Sink> {
-  const s: WriteStream = createWriteStream(path, { encoding: 'utf8' });
+/** Suffix of the file an interrupted or failed run leaves with --keep-partial. */
+export const PARTIAL_SUFFIX = '.partial';
+
+function waitDrainOrError(s: WriteStream): Promise<void> {
+  return new Promise<void>((res) => {
+    const done = () => { s.off('drain', done); s.off('error', done); s.off('close', done); res(); };
+    s.on('drain', done); s.on('error', done); s.on('close', done);
+  });
+}
+
+function openStream(path: string): Promise<WriteStream> {
+  const s = createWriteStream(path, { encoding: 'utf8', flags: 'w' });
   return new Promise((resolve, reject) => {
     s.once('error', reject);
-    s.once('open', () => {
-      s.off('error', reject);
-      let err: Error | null = null;
-      s.on('error', (e) => { err = e; });
-      resolve({
-        async write(text) {
-          if (err) throw err;
-          if (!s.write(text)) await new Promise<void>((res) => { const done = () => { s.off('drain', done); s.off('error', done); res(); }; s.on('drain', done); s.on('error', done); });
-          if (err) throw err;
-        },
-        async end() {
-          s.end();
-          await once(s, 'finish');
-          if (err) throw err;
-        },
-      });
-    });
+    s.once('open', () => { s.off('error', reject); resolve(s); });
   });
+}
+
+/** Resolves when the stream has closed (after an error or destroy too). */
+function closed(s: WriteStream): Promise<void> {
+  return s.closed ? Promise.resolve() : new Promise((res) => s.once('close', () => res()));
+}
+
+/**
+ * A file sink. A regular file (or a new path) is written as a temporary file
+ * beside the target (`.<name>.writing-<pid>`) and renamed onto it by `end()`,
+ * so the target holds either its old content or the complete new table. A
+ * device or pipe (e.g. /dev/stdout) is written directly.
+ */
+export async function fileSink(target: string): Promise<Sink> {
+  const existing = await stat(target).catch(() => null);
+  const direct = existing !== null && !existing.isFile();
+  const path = direct ? target : join(dirname(target), `.${basename(target)}.writing-${process.pid}`);
+  const s = await openStream(path);
+  let err: Error | null = null;
+  s.on('error', (e) => { err ??= e; });
+  let finished = false;
+  return {
+    async write(text) {
+      if (err) throw err;
+      if (!s.write(text)) await waitDrainOrError(s);
+      if (err) throw err;
+    },
+    async end() {
+      if (err) throw err;
+      await new Promise<void>((res) => s.end(() => res()));
+      await closed(s);
+      if (err) throw err;
+      if (!direct) await rename(path, target);
+      finished = true;
+    },
+    async abort(keepPartial) {
+      if (finished) return null;
+      finished = true;
+      if (!s.destroyed) {
+        if (keepPartial && !err) await new Promise<void>((res) => s.end(() => res()));
+        s.destroy();
+      }
+      await closed(s);
+      if (direct) return null;
+      if (keepPartial) {
+        const partial = target + PARTIAL_SUFFIX;
+        try { await rename(path, partial); return partial; } catch { /* fall through: remove it */ }
+      }
+      await unlink(path).catch(() => {});
+      return null;
+    },
+  };
 }
 
 /**
@@ -55,6 +110,7 @@ export function stdoutSink(write: (text: string) => void): Sink {
       if (process.stdout.writableNeedDrain) await once(process.stdout, 'drain');
     },
     async end() {},
+    async abort() { return null; },
   };
 }
 

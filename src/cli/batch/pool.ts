@@ -72,17 +72,33 @@ export function threadRunner(n: number, sites: RowOutcome<SiteInput>[], settings
   };
 }
 
+/** Thrown by runOrdered when `stop` settles first. */
+export class Interrupted extends Error {
+  constructor() { super('interrupted'); this.name = 'Interrupted'; }
+}
+
 /**
  * Feed jobs from `jobs` to the runner and pass results to `sink` in order,
- * with at most `window` jobs submitted but not yet written.
+ * with at most `window` jobs submitted but not yet written. When `stop`
+ * resolves, no further job is submitted or written and Interrupted is thrown
+ * (the caller closes the runner, which ends the jobs in flight).
  */
-export async function runOrdered(jobs: AsyncIterable<ConditionJob>, runner: JobRunner, window: number, sink: (r: JobResult) => Promise<void>): Promise<void> {
+export async function runOrdered(jobs: AsyncIterable<ConditionJob>, runner: JobRunner, window: number, sink: (r: JobResult) => Promise<void>, stop?: Promise<void>): Promise<void> {
   const inFlight: Promise<JobResult>[] = [];
   // Unobserved rejections are re-thrown when their turn comes.
   const guard = (p: Promise<JobResult>) => { p.catch(() => {}); return p; };
+  let stopped = false;
+  const stopSignal = stop ? stop.then(() => { stopped = true; return null; }) : new Promise<null>(() => {});
+  const next = async (): Promise<void> => {
+    const r = await Promise.race([inFlight.shift()!, stopSignal]);
+    if (r === null || stopped) throw new Interrupted();
+    await sink(r);
+  };
   for await (const job of jobs) {
+    if (stopped) throw new Interrupted();
     inFlight.push(guard(runner.submit(job)));
-    while (inFlight.length >= window) await sink(await inFlight.shift()!);
+    while (inFlight.length >= window) await next();
   }
-  while (inFlight.length > 0) await sink(await inFlight.shift()!);
+  while (inFlight.length > 0) await next();
+  if (stopped) throw new Interrupted();
 }

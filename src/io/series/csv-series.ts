@@ -67,6 +67,7 @@ export class CsvSeriesParser {
   }
 
   private header(r: CsvRecord): void {
+    if (r.error !== undefined) throw new InputError('series', `the header ${r.error.replace(/^csv /, '')}; expected columns: ${SERIES_CSV_EXPECTED}`);
     const names = r.fields.map((h) => csvText(h.trim()));
     const base: string[] = [];
     const cols: number[] = [];
@@ -101,6 +102,8 @@ export class CsvSeriesParser {
   private row(r: CsvRecord): SeriesRecord {
     const { fields, line } = r;
     const where = `${this.label} line ${line}`;
+    // Broken quoting: the splitter's error record ("csv line N: …"), the reading goes on.
+    if (r.error !== undefined) return { kind: 'error', line, error: `${this.label} ${r.error.replace(/^csv /, '')}; row not read` };
     if (fields.length !== this.width) {
       const what = fields.length < this.width ? 'missing value' : 'extra value';
       return { kind: 'error', line, error: `${where}: ${what}: ${fields.length} field${fields.length === 1 ? '' : 's'}, the header has ${this.width}` };

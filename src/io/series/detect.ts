@@ -6,8 +6,7 @@
  */
 import { InputError } from '../../physics/errors';
 import { SERIES_CSV_EXPECTED } from './csv-series';
-import { HOURLY_LAYOUT } from './hourly';
-import { HIGHRES_LAYOUT } from './highres';
+import { HOURLY_LAYOUT, HIGHRES_LAYOUT } from './layouts';
 import { countsText } from './words';
 import type { SeriesFormat } from './record';
 

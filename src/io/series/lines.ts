@@ -11,12 +11,37 @@ export type LineSink = (text: string, line: number, cut: boolean) => void;
 /** Longest line kept whole (a data line of these files is a few hundred characters). */
 export const MAX_LINE_CHARS = 1 << 16;
 
-export class LineSplitter {
+/** What a chunked reader keeps between chunks about where the next chunk starts. */
+export interface ChunkStartState {
+  /** A chunk has been read (a byte-order mark can only open the first). */
+  started: boolean;
+  /** The previous chunk ended in CR outside quotes: a leading LF of the next one belongs to it. */
+  afterCr: boolean;
+}
+
+/**
+ * Index of the first character of `chunk` to read: past a leading byte-order
+ * mark of the first chunk and past the LF of a CRLF split between chunks.
+ * Shared by this splitter and the CSV record splitter (../batch-csv.ts).
+ */
+export function chunkStart(state: ChunkStartState, chunk: string): number {
+  let i = 0;
+  if (!state.started) {
+    state.started = true;
+    if (chunk.charCodeAt(0) === 0xfeff) i = 1;
+  }
+  if (state.afterCr) {
+    state.afterCr = false;
+    if (chunk.charCodeAt(i) === 10) i++;
+  }
+  return i;
+}
+
+export class LineSplitter implements ChunkStartState {
   private carry = '';
   private line = 1;
-  private started = false;
-  /** The previous chunk ended in CR: a leading LF of the next one belongs to it. */
-  private afterCr = false;
+  started = false;
+  afterCr = false;
   /** The carried line passed MAX_LINE_CHARS; the rest of it is dropped. */
   private cut = false;
 
@@ -25,15 +50,7 @@ export class LineSplitter {
   push(chunk: string): void {
     const n = chunk.length;
     if (n === 0) return;
-    let i = 0;
-    if (!this.started) {
-      this.started = true;
-      if (chunk.charCodeAt(0) === 0xfeff) i = 1;
-    }
-    if (this.afterCr) {
-      this.afterCr = false;
-      if (chunk.charCodeAt(i) === 10) i++;
-    }
+    const i = chunkStart(this, chunk);
     // Line ends found with indexOf (fast native search) for LF and CR separately.
     let lf = chunk.indexOf('\n', i);
     let cr = chunk.indexOf('\r', i);

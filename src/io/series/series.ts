@@ -13,8 +13,7 @@
 import { InputError } from '../../physics/errors';
 import { CsvSeriesParser } from './csv-series';
 import { detectSeriesFormat } from './detect';
-import { hourlyParser } from './hourly';
-import { highresParser } from './highres';
+import { fixedWordParser } from './layouts';
 import { LineSplitter } from './lines';
 import { SERIES_FORMATS, type SeriesFormat, type SeriesRecord } from './record';
 import type { FixedWordParser } from './words';
@@ -119,7 +118,7 @@ export class SeriesParser {
       this.csv = new CsvSeriesParser(this.label);
       return this.csv.push(text);
     }
-    const parser = format === 'hourly' ? hourlyParser(this.label) : highresParser(this.label);
+    const parser = fixedWordParser(format, this.label);
     this.fixed = parser;
     this.lines = new LineSplitter((line, n, cut) => {
       const r = parser.parseLine(line, n, cut);

@@ -2,7 +2,7 @@
  * The engine shared by the two fixed-word layouts of the community's merged
  * near-Earth solar-wind data set (references §11): one line per time step,
  * words separated by blanks, gaps filled with 9s. Each layout is one table
- * (hourly.ts, highres.ts) naming the 1-based word of every quantity, so a
+ * (layouts.ts: one row per quantity, one column per file) naming the 1-based word of every quantity, so a
  * fix to a word number is a one-line change there. Pure: no Node or DOM APIs.
  */
 import { parseNumberText } from '../../cli/args';

@@ -4,6 +4,8 @@ import { boundariesCsv, boundariesGeoJson, fullJson, sitesCsv, sitesGeoJson, swe
 import { store } from './store';
 import { writeJson } from '../io/json';
 import { snapshotPng } from './scene/snapshot';
+import { mapsSvgDocument } from './panels/mapSvg';
+import { ui } from './panels/selection';
 
 function exportMeta(): ExportMeta {
   const s = store.get();
@@ -56,12 +58,12 @@ export function runExport(kind: ExportKind): boolean {
       return true;
     }
     case 'svg': {
-      const maps = document.querySelectorAll<SVGSVGElement>('#polar-maps svg');
+      const maps = document.querySelectorAll<SVGSVGElement>('#polar-maps svg[data-map]');
       if (maps.length === 0) return false;
-      // XMLSerializer escapes text content, so site names stay text.
+      // XMLSerializer escapes text content, so site names stay text; the document adds title, time, conditions and legend.
       const ser = new XMLSerializer();
-      const inner = [...maps].map((m, i) => `<g transform="translate(${i * 310},0)">${ser.serializeToString(m)}</g>`).join('');
-      download('fieldline-atlas-maps.svg', 'image/svg+xml', `<?xml version="1.0" encoding="UTF-8"?>\n<svg xmlns="http://www.w3.org/2000/svg" width="${maps.length * 310}" height="300" viewBox="0 0 ${maps.length * 310} 300">${inner}</svg>\n`);
+      const doc = mapsSvgDocument({ maps: [...maps].map((m) => ({ markup: ser.serializeToString(m), width: m.width.baseVal.value, height: m.height.baseVal.value })), conditions: s.conditions, products: s.products, basemap: ui.get().basemap });
+      download('fieldline-atlas-maps.svg', 'image/svg+xml', doc);
       return true;
     }
   }

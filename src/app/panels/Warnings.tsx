@@ -34,7 +34,7 @@ export function Warnings() {
         </div>
       )}
       {notes.map((n) => (
-        <p key={n} className="note" aria-label="Model note">ⓘ {n}</p>
+        <p key={n} className="note"><strong>Note:</strong> {n}</p>
       ))}
     </>
   );

@@ -29,8 +29,8 @@ export function App() {
         <AnswerCard />
         <Warnings />
         <div className="scene">
-          <SceneView />
           <ViewBar />
+          <SceneView />
           <KeyHelp />
         </div>
         <div className="sites-area">

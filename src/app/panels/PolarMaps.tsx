@@ -44,7 +44,7 @@ export function PolarMaps() {
         {(['north', 'south'] as const).map((hemi) => (
           <div key={hemi} className="map-slot">
             <PolarMap hemisphere={hemi} />
-            <button type="button" className="enlarge" aria-label={`Enlarge the ${hemi} polar map`} onClick={() => ui.set({ enlargedMap: hemi })}>⤢ larger</button>
+            <button type="button" className="enlarge" aria-label={`Enlarge the ${hemi} polar map`} onClick={() => ui.set({ enlargedMap: hemi })}><span aria-hidden="true">⤢ </span>Enlarge</button>
           </div>
         ))}
       </div>

@@ -166,6 +166,13 @@ export function PolarMap({ hemisphere, big = false }: { hemisphere: 'north' | 's
   // Site labels, placed so they do not overlap (the corners hold the title and the time).
   const sitePts = sites.map((s, i) => ({ i, p: mark(s.latDeg, s.lonDeg), name: s.name })).filter((s) => s.p);
   const reserved = [{ x0: 0, y0: 0, x1: 150, y1: 18 }, { x0: size - 60, y0: 0, x1: size, y1: 18 }];
+  for (const m of ltMarks) {
+    if (!m) continue;
+    const w = m.text.length * FONT * 0.6;
+    const x0 = m.ux > 0.5 ? m.tx - w : m.ux < -0.5 ? m.tx : m.tx - w / 2;
+    const y1 = m.ty + (m.uy > 0.5 ? -2 : m.uy < -0.5 ? FONT * 0.8 : FONT * 0.35);
+    reserved.push({ x0, y0: y1 - FONT, x1: x0 + w, y1: y1 + 2 });
+  }
   const placed = placeLabels(sitePts.map((s) => ({ x: s.p![0], y: s.p![1], text: s.name })), size, FONT * 0.6, FONT + 2, reserved);
   const hatch = `hatch-${hemisphere}-${uid}`;
   const title = `${north ? 'North' : 'South'} polar map`;

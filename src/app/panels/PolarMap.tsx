@@ -166,6 +166,11 @@ export function PolarMap({ hemisphere, big = false }: { hemisphere: 'north' | 's
   // Site labels, placed so they do not overlap (the corners hold the title and the time).
   const sitePts = sites.map((s, i) => ({ i, p: mark(s.latDeg, s.lonDeg), name: s.name })).filter((s) => s.p);
   const reserved = [{ x0: 0, y0: 0, x1: 150, y1: 18 }, { x0: size - 60, y0: 0, x1: size, y1: 18 }];
+  for (const g of shapes?.gaps ?? []) {
+    if (!g.p) continue;
+    const w = 'no equatorward edge'.length * (FONT - 1) * 0.6;
+    reserved.push({ x0: g.p[0] - w / 2, y0: g.p[1] - 8 - FONT, x1: g.p[0] + w / 2, y1: g.p[1] - 6 });
+  }
   for (const m of ltMarks) {
     if (!m) continue;
     const w = m.text.length * FONT * 0.6;

@@ -1,4 +1,8 @@
-/** Page layout: caution, controls, 3D view, polar maps, sites, sweep, exports. */
+/**
+ * Page layout. Wide screens: controls | answer card, 3D view, sites | maps,
+ * sweep, exports. Medium: controls | answer, view, sites, then the maps row.
+ * Phones: one column (answer, 3D view full width, sites, controls, maps).
+ */
 import { SceneView } from './scene/SceneView';
 import { ConditionsPanel } from './panels/ConditionsPanel';
 import { SitesPanel } from './panels/SitesPanel';
@@ -8,6 +12,8 @@ import { ExportPanel } from './panels/ExportPanel';
 import { Caution } from './panels/Caution';
 import { Warnings } from './panels/Warnings';
 import { ViewBar } from './panels/ViewBar';
+import { AnswerCard } from './panels/AnswerCard';
+import { KeyHelp } from './panels/KeyHelp';
 import { useStore } from './store';
 
 export function App() {
@@ -19,20 +25,22 @@ export function App() {
         <span className="scenario">{scenario}</span>
         <Caution />
       </header>
-      <aside className="left">
-        <ConditionsPanel />
-      </aside>
       <main className="center">
+        <AnswerCard />
         <Warnings />
         <div className="scene">
-          <SceneView />
           <ViewBar />
+          <SceneView />
+          <KeyHelp />
+        </div>
+        <div className="sites-area">
+          <SitesPanel />
         </div>
       </main>
-      <div className="sites-area">
-        <SitesPanel />
-      </div>
-      <aside className="right">
+      <aside className="left" aria-label="Conditions and model settings">
+        <ConditionsPanel />
+      </aside>
+      <aside className="right" aria-label="Maps, sweep and exports">
         <PolarMaps />
         <SweepPlot />
         <ExportPanel />

@@ -13,6 +13,8 @@ import { conjugateAltOf, store, type AnsweredFor, type AppState } from './store'
 import { staleReason, type ResultKind } from './store/freshness';
 import { writeJson } from '../io/json';
 import { snapshotPng } from './scene/snapshot';
+import { mapsSvgDocument } from './panels/mapSvg';
+import { ui } from './panels/selection';
 
 function metaFor(s: AppState, a: AnsweredFor, used: ModelUsed | null, warnings: readonly string[]): ExportMeta {
   return exportMetadata({
@@ -107,12 +109,12 @@ export function runExport(kind: ExportKind): string {
       return '';
     }
     case 'svg': {
-      const maps = document.querySelectorAll<SVGSVGElement>('#polar-maps svg');
+      const maps = document.querySelectorAll<SVGSVGElement>('#polar-maps svg[data-map]');
       if (maps.length === 0) return 'the maps are not drawn yet';
-      // XMLSerializer escapes text content, so site names stay text.
+      // XMLSerializer escapes text content, so site names stay text; the document adds title, time, conditions and legend.
       const ser = new XMLSerializer();
-      const inner = [...maps].map((m, i) => `<g transform="translate(${i * 310},0)">${ser.serializeToString(m)}</g>`).join('');
-      download(exportFileName('maps', time, 'svg'), 'image/svg+xml', `<?xml version="1.0" encoding="UTF-8"?>\n<svg xmlns="http://www.w3.org/2000/svg" width="${maps.length * 310}" height="300" viewBox="0 0 ${maps.length * 310} 300">${inner}</svg>\n`);
+      const doc = mapsSvgDocument({ maps: [...maps].map((m) => ({ markup: ser.serializeToString(m), width: m.width.baseVal.value, height: m.height.baseVal.value })), conditions: s.conditions, products: s.products, basemap: ui.get().basemap });
+      download(exportFileName('maps', time, 'svg'), 'image/svg+xml', doc);
       return '';
     }
   }

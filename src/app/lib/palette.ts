@@ -1,8 +1,10 @@
 /**
  * Fieldline Atlas colours (our own palette, documented in DEVELOPERS.md):
  * closed lines teal, open lines amber, unresolved lines grey-violet; the
- * oval band a bright green (land is a neutral stone so the two never blend), its poleward (open–closed) edge amber, its
- * equatorward edge teal to echo the line types they separate.
+ * oval a violet band (hatched on the maps), its poleward (open–closed) edge
+ * amber and its equatorward edge teal, to echo the line types they separate;
+ * the visibility limit a row of indigo dots with ticks towards the oval.
+ * The maps default to a light "paper" basemap; a dark one is the option.
  */
 import { LINE_TYPE_NAMES, LINE_UNRESOLVED, type LineType } from '../../physics/trace/line-type';
 
@@ -15,7 +17,41 @@ export const LINE_COLOURS: Record<LineType, string> = {
 /** Globe and map base colours: land a neutral stone, ocean deep blue, coastlines pale. */
 export const BASE_COLOURS = { land: '#7a776a', ocean: '#123a5c', coast: '#d9dccb' } as const;
 
-export const OVAL_COLOURS = { band: '#5cf07a', openClosed: '#f0a030', equatorward: '#2bb5a8', visibility: '#e86a8a' } as const;
+/** Oval colours on the dark 3D view and the sweep plot. */
+export const OVAL_COLOURS = { band: '#9b7cf0', openClosed: '#f0a030', equatorward: '#2bb5a8', visibility: '#7f95ff' } as const;
+
+export interface MapStyle {
+  ocean: string;
+  land: string;
+  coast: string;
+  graticule: string;
+  rim: string;
+  night: string;
+  nightOpacity: number;
+  ink: string;
+  halo: string;
+  band: string;
+  openClosed: string;
+  equatorward: string;
+  visibility: string;
+  site: string;
+  conjugate: string;
+  pole: string;
+}
+
+/** Polar-map styles: a light paper basemap (default) and a dark slate one. */
+export const MAP_STYLES: Record<'light' | 'dark', MapStyle> = {
+  light: {
+    ocean: '#f3f1ea', land: '#d9d2c0', coast: '#8f8672', graticule: '#8c97a6', rim: '#5d6673', night: '#33405e', nightOpacity: 0.16,
+    ink: '#1d2430', halo: '#f3f1ea', band: '#6b46c8', openClosed: '#b85a10', equatorward: '#137a70', visibility: '#2c3fb0',
+    site: '#1d2430', conjugate: '#c8246e', pole: '#b83a2a',
+  },
+  dark: {
+    ocean: '#1c2129', land: '#3d4350', coast: '#8d96a8', graticule: '#6d7890', rim: '#9aa6bb', night: '#000000', nightOpacity: 0.35,
+    ink: '#eef2f8', halo: '#1c2129', band: '#b49cff', openClosed: '#f0a030', equatorward: '#4fd1c2', visibility: '#9fb0ff',
+    site: '#ffffff', conjugate: '#ff6fb0', pole: '#ff7b5c',
+  },
+};
 
 export const SITE_COLOURS = { site: '#ffffff', conjugate: '#ff5fa2' } as const;
 

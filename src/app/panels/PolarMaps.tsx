@@ -1,28 +1,64 @@
-/** North and south polar maps side by side, with the legend. */
-import { OVAL_COLOURS, SITE_COLOURS } from '../lib/palette';
+/** North and south polar maps side by side, the basemap choice, the legend, and a map enlarged on request. */
+import { MAP_STYLES } from '../lib/palette';
 import { visibilityAngleDeg } from '../lib/visibility';
 import { useStore } from '../store';
 import { PolarMap } from './PolarMap';
+import { hatchDef, mapLegend } from './mapLegend';
+import { ui, useUi, type Basemap } from './selection';
+
+function EnlargedMap({ hemisphere }: { hemisphere: 'north' | 'south' }) {
+  return (
+    <div className="map-dialog" role="dialog" aria-modal="true" aria-label={`${hemisphere === 'north' ? 'North' : 'South'} polar map, enlarged`} onKeyDown={(e) => { if (e.key === 'Escape') ui.set({ enlargedMap: null }); }}>
+      <div className="inner">
+        <div className="row">
+          <span>Click the map to add a site there.</span>
+          <button type="button" autoFocus onClick={() => ui.set({ enlargedMap: null })}>Close</button>
+        </div>
+        <PolarMap hemisphere={hemisphere} big />
+      </div>
+    </div>
+  );
+}
 
 export function PolarMaps() {
   const altKm = useStore((s) => s.products.altKm);
   const minEl = useStore((s) => s.products.minElevationDeg);
+  const basemap = useUi((s) => s.basemap);
+  const enlarged = useUi((s) => s.enlargedMap);
+  const st = MAP_STYLES[basemap];
   const h = altKm >= 80 ? altKm : 110;
+  const legend = mapLegend(st, minEl, visibilityAngleDeg(h, minEl), h, 'legend-hatch');
   return (
     <section className="panel maps" aria-labelledby="maps-h">
-      <h2 id="maps-h">Polar maps</h2>
-      <div className="map-pair" id="polar-maps">
-        <PolarMap hemisphere="north" />
-        <PolarMap hemisphere="south" />
+      <div className="maps-head">
+        <h2 id="maps-h">Polar maps</h2>
+        <label>
+          Basemap{' '}
+          <select value={basemap} onChange={(e) => ui.set({ basemap: e.target.value as Basemap })}>
+            <option value="light">light (paper)</option>
+            <option value="dark">dark (slate)</option>
+          </select>
+        </label>
       </div>
-      <ul className="legend">
-        <li><i style={{ background: OVAL_COLOURS.band }} /> oval band</li>
-        <li><i style={{ background: OVAL_COLOURS.openClosed }} /> open–closed boundary</li>
-        <li><i style={{ background: OVAL_COLOURS.equatorward }} /> equatorward edge</li>
-        <li><i className="dash" style={{ borderColor: OVAL_COLOURS.visibility }} /> seen at ≥ {minEl}° elevation up to here ({visibilityAngleDeg(h, minEl).toFixed(1)}° from the edge, {h} km)</li>
-        <li><i style={{ background: SITE_COLOURS.site }} /> site <i style={{ background: SITE_COLOURS.conjugate }} /> conjugate</li>
-        <li><b style={{ color: '#ff7b5c' }}>+</b> dipole pole · shaded: night (terminator at the ground)</li>
+      <div className="map-pair" id="polar-maps">
+        {(['north', 'south'] as const).map((hemi) => (
+          <div key={hemi} className="map-slot">
+            <PolarMap hemisphere={hemi} />
+            <button type="button" className="enlarge" aria-label={`Enlarge the ${hemi} polar map`} onClick={() => ui.set({ enlargedMap: hemi })}><span aria-hidden="true">⤢ </span>Enlarge</button>
+          </div>
+        ))}
+      </div>
+      <svg width="0" height="0" aria-hidden="true" style={{ position: 'absolute' }} dangerouslySetInnerHTML={{ __html: `<defs>${hatchDef(st, 'legend-hatch')}</defs>` }} />
+      <ul className="legend map-legend" aria-label="Polar map legend">
+        {legend.map((l) => (
+          <li key={l.key}>
+            <svg width="22" height="12" viewBox="0 0 22 12" aria-hidden="true" style={{ background: st.ocean, borderRadius: 2 }} dangerouslySetInnerHTML={{ __html: l.swatch }} />{' '}
+            {l.label}
+          </li>
+        ))}
       </ul>
+      <p className="hint">Geographic latitude and longitude, poleward of 40°; marks at the rim give local solar time (12 noon under the Sun). Use the button on a map to open it larger.</p>
+      {enlarged && <EnlargedMap hemisphere={enlarged} />}
     </section>
   );
 }

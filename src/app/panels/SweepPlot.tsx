@@ -15,7 +15,7 @@ function makePlot(el: HTMLElement, vary: 'pdyn' | 'bz', data: uPlot.AlignedData)
   const s = (label: string, stroke: string, dash?: number[]) => ({ label, stroke, width: 1.6, dash, spanGaps: false });
   return new uPlot(
     {
-      width: Math.max(280, el.clientWidth),
+      width: Math.max(240, el.clientWidth),
       height: 220,
       legend: { live: false },
       scales: { x: { time: false, distr: vary === 'pdyn' ? 3 : 1 }, y: { auto: true } },
@@ -81,9 +81,12 @@ export function SweepPlot() {
             <option value="bz">IMF Bz (nT)</option>
           </select>
         </div>
-        <NumberField label="Sweep MLT (h)" value={mlt} min={0} max={24} step={1} onCommit={(v) => setView({ sweepMlt: v % 24 })} />
+        <NumberField label="Sweep MLT (h)" value={mlt} min={0} max={24} step={1} onCommit={(v) => setView({ sweepMlt: v % 24 })} hint="magnetic local time of the sweep: 0 midnight, 12 noon" />
       </div>
       <div ref={host} className="plot" aria-label="Boundary latitude sweep plot" role="img" />
+      {sweep && sweep.warnings.length > 0 && (
+        <p className="hint">{`${sweep.warnings.length} sweep step${sweep.warnings.length === 1 ? '' : 's'} lie outside a model's fitted range (values extrapolated there).`}</p>
+      )}
     </section>
   );
 }

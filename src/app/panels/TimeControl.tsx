@@ -27,8 +27,8 @@ export function TimeControl() {
       />
       <div className="row">
         <button type="button" onClick={() => setConditions({ time: isoUtc(Math.floor(Date.now() / 60000) * 60000) })}>Now</button>
-        <button type="button" aria-label="Step back 1 hour" onClick={() => setConditions({ time: addHours(time, -1) })}>−1 h</button>
-        <button type="button" aria-label="Step forward 1 hour" onClick={() => setConditions({ time: addHours(time, 1) })}>+1 h</button>
+        <button type="button" title="Step back 1 hour" onClick={() => setConditions({ time: addHours(time, -1) })}>−1 h</button>
+        <button type="button" title="Step forward 1 hour" onClick={() => setConditions({ time: addHours(time, 1) })}>+1 h</button>
         <button type="button" aria-pressed={playing} onClick={() => setView({ playing: !playing })}>{playing ? 'Pause' : 'Play'}</button>
       </div>
     </div>

@@ -24,9 +24,9 @@ export function ViewBar() {
         <li><i style={{ background: '#ffd24a' }} /> Sun</li>
         <li><i style={{ background: '#ff7b5c' }} /> dipole axis (N)</li>
       </ul>
-      <p className="status" aria-live="off">
-        {f ? `tilt ${fmt(f.tiltDeg, 1)}° · B0 ${fmt(f.b0Nt, 0)} nT · pole ${fmt(f.poleLatDeg, 2)}°, ${fmt(f.poleLonDeg, 2)}°` : 'starting engine…'}
-        {mp?.enabled ? ` · r0 ${fmt(mp.r0Re, 2)} RE, α ${fmt(mp.alpha, 3)}` : ''}
+      <p className="status" aria-live="off" title="dipole tilt: angle of the dipole axis towards the Sun; B0: equatorial surface field of the centred dipole; magnetopause nose: standoff distance r0 of the Shue surface, α its flaring">
+        {f ? `dipole tilt ${fmt(f.tiltDeg, 1)}° · dipole strength B0 ${fmt(f.b0Nt, 0)} nT · dipole pole ${fmt(f.poleLatDeg, 2)}°, ${fmt(f.poleLonDeg, 2)}° E` : 'starting engine…'}
+        {mp?.enabled ? ` · magnetopause nose ${fmt(mp.r0Re, 2)} RE (flaring α ${fmt(mp.alpha, 3)})` : ''}
         {pending.scene || pending.oval ? ' · updating…' : ''}
       </p>
     </div>

@@ -1,9 +1,14 @@
-/** Orbit/zoom/pan (three's OrbitControls) and the preset viewpoints, driven from the store. */
+/**
+ * Orbit/zoom/pan (three's OrbitControls), the preset viewpoints driven from the
+ * store, and the keyboard: the canvas takes focus; arrows turn and tilt the
+ * view about the target, + and − zoom, 0 or Home go back to the first view.
+ */
 import { useEffect } from 'react';
 import { useThree } from '@react-three/fiber';
 import * as THREE from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import { store } from '../store';
+import { RAD_PER_DEG } from '../../physics/constants';
 
 type ViewPreset = 'overview' | 'dayside' | 'nightside' | 'north' | 'south';
 
@@ -35,6 +40,41 @@ function presetPosition(p: ViewPreset): THREE.Vector3 {
   }
 }
 
+const TURN_RAD = 10 * RAD_PER_DEG;
+const ZOOM_STEP = 0.85;
+/** Polar-angle limits (from +z) kept by the tilt keys, rad. */
+const POLAR_MIN = 0.05;
+const POLAR_MAX = Math.PI - 0.05;
+
+/** Camera offset from the target after one key; null for keys the view does not use. */
+export function keyMove(key: string, offset: THREE.Vector3, minDist: number, maxDist: number): THREE.Vector3 | 'reset' | null {
+  const z = new THREE.Vector3(0, 0, 1);
+  const o = offset.clone();
+  switch (key) {
+    case 'ArrowLeft': return o.applyAxisAngle(z, -TURN_RAD);
+    case 'ArrowRight': return o.applyAxisAngle(z, TURN_RAD);
+    case 'ArrowUp':
+    case 'ArrowDown': {
+      const polar = o.angleTo(z);
+      const want = Math.min(POLAR_MAX, Math.max(POLAR_MIN, polar + (key === 'ArrowUp' ? -TURN_RAD : TURN_RAD)));
+      const axis = new THREE.Vector3().crossVectors(z, o);
+      if (axis.lengthSq() < 1e-12) axis.set(0, 1, 0);
+      return o.applyAxisAngle(axis.normalize(), want - polar);
+    }
+    case '+':
+    case '=':
+      return o.setLength(Math.max(minDist, o.length() * ZOOM_STEP));
+    case '-':
+    case '_':
+      return o.setLength(Math.min(maxDist, o.length() / ZOOM_STEP));
+    case '0':
+    case 'Home':
+      return 'reset';
+    default:
+      return null;
+  }
+}
+
 export function CameraRig() {
   const camera = useThree((s) => s.camera);
   const dom = useThree((s) => s.gl.domElement);
@@ -44,13 +84,32 @@ export function CameraRig() {
     const controls = new OrbitControls(camera, dom);
     controls.minDistance = 1.3;
     controls.maxDistance = 120;
-    controls.addEventListener('change', () => invalidate());
+    // The camera position as text on the canvas (the e2e tests read it).
+    const mark = () => { dom.dataset.camera = camera.position.toArray().map((v) => v.toFixed(3)).join(','); };
+    controls.addEventListener('change', () => { mark(); invalidate(); });
     const go = (p: ViewPreset) => {
       camera.position.copy(presetPosition(p));
       controls.target.set(0, 0, 0);
       controls.update();
+      mark();
       invalidate();
     };
+    dom.tabIndex = 0;
+    dom.setAttribute('role', 'application');
+    dom.setAttribute('aria-roledescription', '3D view');
+    dom.setAttribute('aria-label', '3D view of field lines, oval and magnetopause: arrow keys turn and tilt, + and − zoom, 0 or Home resets, ? lists the keys');
+    const onKey = (e: KeyboardEvent) => {
+      if (e.altKey || e.ctrlKey || e.metaKey) return;
+      const next = keyMove(e.key, camera.position.clone().sub(controls.target), controls.minDistance, controls.maxDistance);
+      if (!next) return;
+      e.preventDefault();
+      if (next === 'reset') return go('overview');
+      camera.position.copy(controls.target).add(next);
+      controls.update();
+      mark();
+      invalidate();
+    };
+    dom.addEventListener('keydown', onKey);
     listeners.add(go);
     // First view once the Sun direction is known.
     let placed = false;
@@ -63,6 +122,7 @@ export function CameraRig() {
     go('overview');
     return () => {
       listeners.delete(go);
+      dom.removeEventListener('keydown', onKey);
       unsub();
       controls.dispose();
     };

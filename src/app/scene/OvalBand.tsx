@@ -35,10 +35,10 @@ export function OvalBand() {
       {parts.map((p) => (
         <group key={p.key}>
           <mesh geometry={p.band} renderOrder={1}>
-            <meshBasicMaterial color={OVAL_COLOURS.band} transparent opacity={0.45} side={THREE.DoubleSide} depthWrite={false} />
+            <meshBasicMaterial color={OVAL_COLOURS.band} transparent opacity={0.4} side={THREE.DoubleSide} depthWrite={false} />
           </mesh>
           <lineSegments geometry={p.edges}>
-            <lineBasicMaterial color="#d8ffd0" transparent opacity={0.9} />
+            <lineBasicMaterial color="#e6ddff" transparent opacity={0.9} />
           </lineSegments>
         </group>
       ))}

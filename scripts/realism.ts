@@ -36,7 +36,7 @@ export interface RealismRow {
 interface Sample { noonOc: number; midOc: number; noonEq: number; midEq: number }
 
 function sample(pdynNpa: number, bzNt: number): Sample {
-  const m = prepareModel({ time: TIME, tiltDeg: 0, pdynNpa, bzNt, byNt: 0, tail: true });
+  const m = prepareModel({ time: TIME, internal: 'dipole', tiltDeg: 0, pdynNpa, bzNt, byNt: 0, tail: true });
   const t = makeTracer(m);
   const n = sectorBoundaries(m, t, 'north', 12);
   const d = sectorBoundaries(m, t, 'north', 0);
@@ -44,7 +44,7 @@ function sample(pdynNpa: number, bzNt: number): Sample {
 }
 
 function openFluxGwb(pdynNpa: number, bzNt: number): number {
-  const m = prepareModel({ time: TIME, tiltDeg: 0, pdynNpa, bzNt, byNt: 0, tail: true });
+  const m = prepareModel({ time: TIME, internal: 'dipole', tiltDeg: 0, pdynNpa, bzNt, byNt: 0, tail: true });
   const t = makeTracer(m);
   const [h] = ovalBoundaries(m, t, ['north'], mltGrid(2));
   return openFluxWb(m, h) / 1e9;

@@ -58,7 +58,7 @@ export function commonFlags(formats: readonly OutputFormat[]): FlagSpec[] {
     { name: 'dst', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.dstNt, help: 'storm index (Dst or SYM-H); sets the ring current', defaultText: 'estimated from --bz and --speed, and said so' },
     { name: 'speed', kind: 'number', meta: '<km/s>', unit: 'km/s', ...INPUT_RANGES.speedKms, help: 'solar-wind speed, for the storm-index estimate', defaultText: `${NOMINAL_SPEED_KMS} (nominal)` },
     { name: 'tilt-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'dipole tilt, overrides the tilt from --time', defaultText: 'from --time' },
-    { name: 'internal', kind: 'enum', meta: 'dipole|igrf', values: ['dipole', 'igrf'], help: 'main field: centred dipole of the date or full IGRF-14', defaultText: DEFAULT_CONDITIONS.internal },
+    { name: 'internal', kind: 'enum', meta: 'igrf|dipole', values: ['igrf', 'dipole'], help: 'main field: igrf = full IGRF-14 of the date (for site answers, footpoints, conjugates); dipole = its centred dipole alone (for analytic checks, teaching, dipole-based statistics)', defaultText: DEFAULT_CONDITIONS.internal },
     { name: 'magnetopause', kind: 'enum', meta: 'on|off', values: ['on', 'off'], help: 'off removes both the compression term and the boundary', defaultText: 'on' },
     { name: 'tail', kind: 'enum', meta: 'on|off', values: ['on', 'off'], help: 'tail current-sheet term (off for the dipole + magnetopause analytic limits)', defaultText: DEFAULT_CONDITIONS.tail ? 'on' : 'off' },
     { name: 'imf-efficiency', kind: 'number', meta: '<0..1>', min: 0, max: 1, help: 'share of the IMF that penetrates the magnetosphere', defaultText: String(DEFAULT_IMF_EFFICIENCY) },

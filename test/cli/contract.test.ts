@@ -19,7 +19,7 @@ function expectKeys(o: Record<string, unknown>, keys: string[], what: string) {
 
 describe('JSON results carry the fixed keys', () => {
   it('conditions block echoes the flags', async () => {
-    const j = await cliJson('field', '--gsm', '5,0,0', ...T, '--pdyn', '3', '--bz', '-4', '--by', '1.5', '--tilt-deg', '10', '--alt-km', '200', '--imf-efficiency', '0.2');
+    const j = await cliJson('field', '--gsm', '5,0,0', ...T, '--internal', 'dipole', '--pdyn', '3', '--bz', '-4', '--by', '1.5', '--tilt-deg', '10', '--alt-km', '200', '--imf-efficiency', '0.2');
     expectKeys(j.conditions, CONDITION_KEYS, 'conditions');
     expect(j.conditions).toMatchObject({ time: '2025-03-20T22:00:00.000Z', pdynNpa: 3, bzNt: -4, byNt: 1.5, internal: 'dipole', magnetopause: true, imfEfficiency: 0.2, altKm: 200 });
     expectClose(j.conditions.tiltDeg, 10, 1e-9, 'tiltDeg echoes --tilt-deg');
@@ -27,9 +27,9 @@ describe('JSON results carry the fixed keys', () => {
     expect(Array.isArray(j.conditions.warnings)).toBe(true);
   });
 
-  it('defaults: --time now, pdyn 2, bz 0, by 0, dipole, magnetopause on, alt 110 km', async () => {
+  it('defaults: --time now, pdyn 2, bz 0, by 0, IGRF-14 main field, magnetopause on, alt 110 km', async () => {
     const j = await cliJson('field', '--gsm', '5,0,0');
-    expect(j.conditions).toMatchObject({ time: '2025-03-20T12:00:00.000Z', pdynNpa: 2, bzNt: 0, byNt: 0, internal: 'dipole', magnetopause: true, altKm: 110 });
+    expect(j.conditions).toMatchObject({ time: '2025-03-20T12:00:00.000Z', pdynNpa: 2, bzNt: 0, byNt: 0, internal: 'igrf', magnetopause: true, altKm: 110 });
     // Shue et al. (1998) worked value for Dp = 2 nPa, Bz = 0 (references §3): r0 = 10.2519 RE.
     expectClose(j.conditions.standoffRe, 10.2519, 1e-4, 'standoff at the default conditions');
   });
@@ -168,7 +168,7 @@ describe('bad arguments exit 2 with a message naming the flag', () => {
     ['unknown flag', ['field', '--gsm', '5,0,0', '--colour', 'red'], /--colour: unknown flag for field; valid flags: --gsm, --geo, --time/],
     ['bad number', ['field', '--gsm', '5,0,0', '--pdyn', 'lots'], /--pdyn: expected a number > 0 and ≤ 10000 nPa, got "lots"/],
     ['out of range', ['field', '--gsm', '5,0,0', '--imf-efficiency', '1.5'], /--imf-efficiency: expected a number in 0..1, got 1.5/],
-    ['wrong enum', ['field', '--gsm', '5,0,0', '--internal', 'foo'], /--internal: expected dipole or igrf, got "foo"/],
+    ['wrong enum', ['field', '--gsm', '5,0,0', '--internal', 'foo'], /--internal: expected igrf or dipole, got "foo"/],
     ['wrong on/off', ['oval', '--magnetopause', 'yes'], /--magnetopause: expected on or off, got "yes"/],
     ['missing required', ['trace', '--lat', '60'], /--lon: is required for trace/],
     ['missing --vary', ['sweep', '--from', '1', '--to', '2', '--steps', '2'], /--vary: is required for sweep/],

@@ -24,7 +24,8 @@ export const INPUT_RANGES = {
   latDeg: { min: -90, max: 90 },
   lonDeg: { min: -360, max: 360 },
   siteHeightKm: { min: -1, max: 100_000 },
-  pdynNpa: { above: 0, max: 1e4 },
+  /** Below 0.01 nPa the tail term's inner edge moves beyond its allowed 1000 RE (and no solar wind is that thin). */
+  pdynNpa: { min: 0.01, max: 1e4 },
   imfNt: { min: -1000, max: 1000 },
   altKm: { min: 0, max: 5000 },
   sourceRe: { min: 1.5, max: 100 },
@@ -52,7 +53,7 @@ export function sourceReOf(f: ParsedFlags): number {
 export function commonFlags(formats: readonly OutputFormat[]): FlagSpec[] {
   return [
     { name: 'time', kind: 'string', meta: '<ISO 8601 UTC>', help: 'instant, e.g. 2025-03-20T22:00:00Z', defaultText: 'now' },
-    { name: 'pdyn', kind: 'number', meta: '<nPa>', unit: 'nPa', ...INPUT_RANGES.pdynNpa, help: 'solar-wind dynamic pressure', defaultText: String(DEFAULT_CONDITIONS.pdynNpa) },
+    { name: 'pdyn', kind: 'number', meta: '<nPa>', unit: 'nPa', ...INPUT_RANGES.pdynNpa, help: 'solar-wind dynamic pressure (from 0.01: the tail term needs its inner edge within 1000 RE)', defaultText: String(DEFAULT_CONDITIONS.pdynNpa) },
     { name: 'bz', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.imfNt, help: 'IMF Bz (GSM)', defaultText: String(DEFAULT_CONDITIONS.bzNt) },
     { name: 'by', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.imfNt, help: 'IMF By (GSM)', defaultText: String(DEFAULT_CONDITIONS.byNt) },
     { name: 'dst', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.dstNt, help: 'storm index (Dst or SYM-H); sets the ring current', defaultText: 'estimated from --bz and --speed, and said so' },

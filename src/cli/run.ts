@@ -7,7 +7,7 @@
 import { prepareModel, type PreparedModel } from '../physics/field/model';
 import { featureCollection } from '../io/geojson';
 import { writeJson } from '../io/json';
-import { UsageError, errorText, parseFlags, flagHelp } from './args';
+import { UsageError, errorText, parseFlags, flagHelp, asksForHelp } from './args';
 import { commonFlags, conditionsFromFlags, conditionsBlock, programVersion, usageFromInputError, DEFAULT_ALT_KM, type OutputFormat } from './common';
 import type { CommandDef } from './command';
 import { fieldCommand } from './commands/field';
@@ -108,7 +108,7 @@ export async function run(argv: readonly string[], io: CliIo): Promise<number> {
     const what = name.startsWith('-') ? `expected a command before options, got "${name}"` : `unknown command "${name}"`;
     return report(io, '', new UsageError('', `${what}; commands: ${COMMAND_NAMES.join(', ')}`));
   }
-  if (rest.includes('--help') || rest.includes('-h')) {
+  if (asksForHelp(rest, [...cmd.flags, ...commonFlags(cmd.formats)])) {
     io.stdout(commandHelp(cmd));
     return EXIT_OK;
   }

@@ -166,7 +166,7 @@ describe('GeoJSON output (RFC 7946)', () => {
 describe('bad arguments exit 2 with a message naming the flag', () => {
   const cases: [string, string[], RegExp][] = [
     ['unknown flag', ['field', '--gsm', '5,0,0', '--colour', 'red'], /--colour: unknown flag for field; valid flags: --gsm, --geo, --time/],
-    ['bad number', ['field', '--gsm', '5,0,0', '--pdyn', 'lots'], /--pdyn: expected a number > 0 and ≤ 10000 nPa, got "lots"/],
+    ['bad number', ['field', '--gsm', '5,0,0', '--pdyn', 'lots'], /--pdyn: expected a number in 0.01..10000 nPa, got "lots"/],
     ['out of range', ['field', '--gsm', '5,0,0', '--imf-efficiency', '1.5'], /--imf-efficiency: expected a number in 0..1, got 1.5/],
     ['wrong enum', ['field', '--gsm', '5,0,0', '--internal', 'foo'], /--internal: expected igrf or dipole, got "foo"/],
     ['wrong on/off', ['oval', '--magnetopause', 'yes'], /--magnetopause: expected on or off, got "yes"/],
@@ -177,7 +177,7 @@ describe('bad arguments exit 2 with a message naming the flag', () => {
     ['time outside IGRF-14', ['field', '--gsm', '5,0,0', '--time', '1850-01-01T00:00:00Z'], /--time: IGRF-14 covers 1900.0/],
     ['MLT step must divide 24', ['oval', '--mlt-step', '5'], /--mlt-step: 5 h must divide 24 h evenly/],
     ['format not offered', ['sweep', '--vary', 'bz', '--from', '0', '--to', '1', '--steps', '2', '--format', 'geojson'], /--format: expected json or csv, got "geojson"/],
-    ['pdyn sweep below zero', ['sweep', '--vary', 'pdyn', '--from', '-1', '--to', '2', '--steps', '2'], /--from: dynamic pressure must be > 0 nPa/],
+    ['pdyn sweep below zero', ['sweep', '--vary', 'pdyn', '--from', '-1', '--to', '2', '--steps', '2'], /--from: with --vary pdyn expected a dynamic pressure in 0.01..10000 nPa, got -1/],
     ['integer steps', ['sweep', '--vary', 'bz', '--from', '0', '--to', '1', '--steps', '2.5'], /--steps: expected a whole number in 1..1000/],
     ['unknown command', ['orbit'], /unknown command "orbit"; commands: field, trace, oval, sweep, batch/],
     ['no command', [], /a command is required/],

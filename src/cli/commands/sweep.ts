@@ -3,7 +3,8 @@ import { sweepBoundaries, type SweepRows } from '../../physics/mapping';
 import type { SectorBoundaries } from '../../physics/mapping';
 import { writeCsv, type CsvCell } from '../../io/csv';
 import { CSV_DECIMALS, type CommandDef } from '../command';
-import { HEMISPHERE_FLAG, SOURCE_RE_FLAG, hemispheresOf, sourceReOf } from '../common';
+import { HEMISPHERE_FLAG, SOURCE_RE_FLAG, INPUT_RANGES, hemispheresOf, sourceReOf } from '../common';
+import { UsageError } from '../args';
 
 export const sweepCommand: CommandDef = {
   name: 'sweep',
@@ -35,6 +36,11 @@ export const sweepCommand: CommandDef = {
     const sourceRe = sourceReOf(ctx.flags);
     const hems = hemispheresOf(ctx.flags);
     const c = ctx.conditions;
+    // --from/--to against the swept quantity's own range (the flag spec covers both quantities).
+    const range = vary === 'pdyn' ? { ...INPUT_RANGES.pdynNpa, unit: 'nPa', what: 'a dynamic pressure' } : { ...INPUT_RANGES.imfNt, unit: 'nT', what: 'an IMF Bz' };
+    for (const [flag, v] of [['--from', from], ['--to', to]] as const) {
+      if (v < range.min || v > range.max) throw new UsageError(flag, `with --vary ${vary} expected ${range.what} in ${range.min}..${range.max} ${range.unit}, got ${v}`);
+    }
     if (vary === 'pdyn' && ctx.flags.pdyn !== undefined) ctx.warn('--pdyn is replaced by the swept values');
     if (vary === 'bz' && ctx.flags.bz !== undefined) ctx.warn('--bz is replaced by the swept values');
     if (vary === 'pdyn' && !c.magnetopause) ctx.warn('with --magnetopause off the pressure changes nothing: every row is the same');

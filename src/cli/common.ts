@@ -8,7 +8,8 @@ import { DEFAULT_CONDITIONS, DEFAULT_IMF_EFFICIENCY, type PreparedModel } from '
 import { DEG_PER_RAD } from '../physics/constants';
 import { InputError } from '../physics/errors';
 import { UsageError, inputErrorReason, type FlagSpec, type ParsedFlags } from './args';
-import { DEFAULT_SOURCE_RE, type Hemisphere } from '../physics/mapping';
+import { DEFAULT_SOURCE_RE, type Hemisphere, type CgmResult } from '../physics/mapping';
+import type { CsvCell } from '../io/csv';
 import { DST_LIMIT_NT, SPEED_LIMIT_KMS, NOMINAL_SPEED_KMS } from '../physics/field/storm-index';
 
 export type OutputFormat = 'json' | 'csv' | 'geojson';
@@ -181,4 +182,54 @@ export function checkFlag(flag: string, check: () => void): void {
     if (e instanceof InputError) throw new UsageError(flag, inputErrorReason(e));
     throw e;
   }
+}
+
+/**
+ * The one conjugate-altitude rule of every front end (references §13): the
+ * conjugate point lies at the footpoint altitude unless --conjugate-alt-km sets
+ * it apart. `trace` and `batch` both call this.
+ */
+export function conjugateAltKmOf(f: ParsedFlags, altKm: number): number {
+  return (f['conjugate-alt-km'] as number | undefined) ?? altKm;
+}
+
+/** --conjugate-alt-km, the same for every command that gives conjugate points. */
+export const CONJUGATE_ALT_FLAG: FlagSpec = {
+  name: 'conjugate-alt-km', kind: 'number', meta: '<km>', unit: 'km', ...INPUT_RANGES.altKm,
+  help: 'altitude of the conjugate point above the ellipsoid', defaultText: 'the footpoint altitude, --alt-km',
+};
+
+/** `# key: value` metadata lines (CRLF) before a CSV table, as batch writes them. */
+export function csvMetadata(entries: Record<string, unknown>): string {
+  return Object.entries(entries)
+    .map(([k, v]) => `# ${k}: ${typeof v === 'string' ? v : JSON.stringify(v)}`.replace(/[\r\n]+/g, ' '))
+    .join('\r\n') + '\r\n';
+}
+
+/** Time and condition columns every table row carries (the same for trace, oval, sweep and timeline). */
+export const CONDITION_COLUMNS = ['time_utc', 'pdyn_npa', 'bz_nt', 'by_nt', 'dst_nt', 'dst_source', 'internal'] as const;
+
+/** The condition cells of one model, in CONDITION_COLUMNS order. */
+export function conditionCells(model: PreparedModel): CsvCell[] {
+  const c = model.conditions;
+  return [new Date(model.ms).toISOString(), c.pdynNpa, c.bzNt, c.byNt, model.storm.dstNt, model.storm.dstSource, c.internal];
+}
+
+/** CGM columns of a point at its height (prefix "") or at the ground below it (prefix "ground_"). */
+export const cgmColumns = (prefix: string): string[] => [`${prefix}cgm_lat_deg`, `${prefix}cgm_lon_deg`, `${prefix}cgm_mlt_h`];
+
+/** CGM cells (lat, lon, MLT (CGM)); empty where CGM is undefined (the reason goes in a note column). */
+export function cgmCells(r: CgmResult | null): CsvCell[] {
+  return r && r.defined ? [r.latDeg, r.lonDeg, r.mltH] : [null, null, null];
+}
+
+/** The reason(s) CGM is undefined, for a note column ('' when defined). */
+export function cgmNote(...rs: (CgmResult | null)[]): string {
+  const reasons = rs.filter((r): r is Extract<CgmResult, { defined: false }> => r !== null && !r.defined).map((r) => r.reason);
+  return [...new Set(reasons)].join('; ');
+}
+
+/** A CGM result for JSON: {latDeg, lonDeg, mltCgmHours, apexRe} or {defined: false, reason}. */
+export function cgmJson(r: CgmResult): Record<string, unknown> {
+  return r.defined ? { defined: true, latDeg: r.latDeg, lonDeg: r.lonDeg, mltCgmHours: r.mltH, apexRe: r.apexRe } : { defined: false, reason: r.reason };
 }

@@ -8,14 +8,14 @@ import { prepareModel, type PreparedModel } from '../physics/field/model';
 import { featureCollection } from '../io/geojson';
 import { writeJson } from '../io/json';
 import { UsageError, errorText, parseFlags, flagHelp, asksForHelp } from './args';
-import { commonFlags, conditionsFromFlags, conditionsBlock, programVersion, usageFromInputError, DEFAULT_ALT_KM, type OutputFormat } from './common';
+import { commonFlags, conditionsFromFlags, conditionsBlock, csvMetadata, programVersion, usageFromInputError, DEFAULT_ALT_KM, type OutputFormat } from './common';
 import type { CommandDef } from './command';
 import { fieldCommand } from './commands/field';
 import { traceCommand } from './commands/trace';
 import { ovalCommand } from './commands/oval';
 import { sweepCommand } from './commands/sweep';
 import { runBatch, batchHelp, BATCH_SUMMARY } from './batch/index';
-import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE } from './exit-codes';
+import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE, EXIT_ROWS_FAILED } from './exit-codes';
 
 interface CliIo {
   stdout(text: string): void;
@@ -48,7 +48,7 @@ function topHelp(): string {
     '',
     'Run `<command> --help` for the options of one command.',
     'Output goes to stdout (JSON by default, with a "conditions" block); messages to stderr.',
-    'Exit codes: 0 success, 2 bad arguments, 1 computation failure.',
+    'Exit codes: 0 success, 2 bad arguments, 1 computation failure, 3 finished but nothing (oval, sweep) or not every row (batch) computed.',
     '',
   ].join('\n');
 }
@@ -126,14 +126,21 @@ export async function run(argv: readonly string[], io: CliIo): Promise<number> {
     }
     const warnings: string[] = [...model.warnings];
     const warn = (m: string) => { if (!warnings.includes(m)) warnings.push(m); };
-    const result = await cmd.run({ flags, conditions: model.conditions, model, altKm, warn });
-    const block = conditionsBlock(model, altKm, warnings);
-    let text: string;
-    if (format === 'csv' && result.csv) text = result.csv();
+    const result = await cmd.run({ flags, conditions: model.conditions, model, altKm, warn, io });
+    if (result.ownWarningsOnly) warnings.splice(0, model.warnings.length);
+    const block = { ...conditionsBlock(model, altKm, warnings), ...result.settings };
+    let text = '';
+    if (result.streamed) text = '';
+    else if (format === 'csv' && result.csv) text = csvMetadata({ program: `${PROGRAM} ${cmd.name}`, ...block }) + result.csv();
     else if (format === 'geojson' && result.geojson) text = writeJson(featureCollection(result.geojson(), { conditions: block }));
     else text = writeJson({ conditions: block, ...result.json });
     for (const w of warnings) io.stderr(`${PROGRAM} ${cmd.name}: warning: ${w}\n`);
-    io.stdout(text);
+    if (text) io.stdout(text);
+    if (result.summary) io.stderr(`${PROGRAM} ${cmd.name}: ${result.summary}\n`);
+    if (result.nothingComputed) {
+      io.stderr(`${PROGRAM} ${cmd.name}: nothing computed: ${result.nothingComputed}\n`);
+      return EXIT_ROWS_FAILED;
+    }
     return EXIT_OK;
   } catch (e) {
     return report(io, cmd.name, e);

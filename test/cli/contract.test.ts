@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { cli, cliJson, spawnCli } from './helpers';
+import { cli, cliJson, spawnCli, csvBody } from './helpers';
 import { spawnSync } from 'node:child_process';
 import { run } from '../../src/cli/run';
 import { readCsv } from '../../src/io/csv';
@@ -107,7 +107,8 @@ describe('CSV output (RFC 4180, units in the header)', () => {
       const r = await cli(...argv, ...T, '--format', 'csv');
       expect(r.code, r.err).toBe(EXIT_OK);
       expect(r.out.endsWith('\r\n')).toBe(true);
-      const rows = readCsv(r.out);
+      expect(r.out.startsWith('# program: fieldline-atlas '), 'metadata lines first (references §13)').toBe(true);
+      const rows = readCsv(csvBody(r.out));
       for (const c of cols) expect(rows[0]).toContain(c);
       expect(rows.length).toBeGreaterThan(1);
       for (const row of rows) expect(row.length).toBe(rows[0].length);

@@ -6,6 +6,7 @@
  */
 import { DEG_PER_RAD, RAD_PER_DEG, RE_KM } from '../physics/constants';
 import { shueMagnetopause, shueRadius } from '../physics/field/magnetopause';
+import { DISTANT_NEUTRAL_LINE_RE } from '../physics/field/model';
 import { DEFAULT_BOUNDARY_OPTIONS, type SectorBoundaries } from '../physics/mapping';
 
 export type BoundaryKey = 'openClosed' | 'equatorward';
@@ -20,6 +21,8 @@ export interface ReasonContext {
   sourceRe: number;
   /** Footpoint altitude, km. */
   altKm: number;
+  /** The tail term (and its distant neutral line) is on. */
+  tail?: boolean;
 }
 
 /** The mapping code's own reason for a missing boundary, if it gives one. */
@@ -45,6 +48,7 @@ export function boundaryReason(s: SectorBoundaries, key: BoundaryKey, c: ReasonC
     const rMp = shueRadius(mp, theta);
     if (c.sourceRe >= rMp) return `no equatorward edge: the source distance ${c.sourceRe} RE lies outside the magnetopause at this MLT (${rMp.toFixed(2)} RE)`;
   }
+  if (c.tail !== false && c.sourceRe >= DISTANT_NEUTRAL_LINE_RE) return `no equatorward edge: the source distance ${c.sourceRe} RE lies beyond the distant neutral line (${DISTANT_NEUTRAL_LINE_RE} RE), where the lines are open`;
   // A dipole line with apex R reaches the altitude at cos²λ = r/R (references §1).
   const r = 1 + c.altKm / RE_KM;
   const dipoleLat = c.sourceRe > r ? Math.acos(Math.sqrt(r / c.sourceRe)) * DEG_PER_RAD : 0;

@@ -46,7 +46,7 @@ export function ovalStep(model: PreparedModel, s: OvalRowSettings): OvalStep {
   const sourceRe = s.sourceRe ?? model.sourceRe;
   const hemispheres = ovalBoundaries(model, tracer, s.hemispheres, s.mlts, { sourceRe });
   const c = model.conditions;
-  const rc: ReasonContext = { pdynNpa: c.pdynNpa, bzNt: c.bzNt, magnetopause: c.magnetopause, imfEfficiency: c.imfEfficiency, sourceRe, altKm: s.altKm };
+  const rc: ReasonContext = { pdynNpa: c.pdynNpa, bzNt: c.bzNt, magnetopause: c.magnetopause, imfEfficiency: c.imfEfficiency, sourceRe, altKm: s.altKm, tail: c.tail };
   const cond = conditionCells(model);
   const details = new Map<SectorBoundaries, Record<BoundaryKey, BoundaryOut>>();
   const rows: CsvCell[][] = [];

@@ -14,6 +14,7 @@ import { fieldCommand } from './commands/field';
 import { traceCommand } from './commands/trace';
 import { ovalCommand } from './commands/oval';
 import { sweepCommand } from './commands/sweep';
+import { timelineCommand } from './commands/timeline';
 import { runBatch, batchHelp, BATCH_SUMMARY } from './batch/index';
 import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE, EXIT_ROWS_FAILED } from './exit-codes';
 
@@ -25,7 +26,7 @@ interface CliIo {
 }
 
 const PROGRAM = 'fieldline-atlas';
-const COMMANDS: readonly CommandDef[] = [fieldCommand, traceCommand, ovalCommand, sweepCommand];
+const COMMANDS: readonly CommandDef[] = [fieldCommand, traceCommand, ovalCommand, sweepCommand, timelineCommand];
 
 /** Every command name, the streamed `batch` included (it parses and prints on its own). */
 const COMMAND_NAMES: readonly string[] = [...COMMANDS.map((c) => c.name), 'batch'];

@@ -17,12 +17,13 @@ const FLAGS: Record<string, string[]> = {
   trace: ['--lat', '--lon', '--height-km', '--coords', '--points', '--conjugate-alt-km'],
   oval: ['--mlt-step', '--hemisphere', '--source-re', '--mlt', '--series-format', '--workers', '--conditions'],
   sweep: ['--vary', '--from', '--to', '--steps', '--mlt', '--hemisphere', '--source-re'],
+  timeline: ['--sites', '--conditions', '--from', '--to', '--step-min', '--sun-limit-deg', '--max-zenith-deg', '--series-format', '--conjugate-alt-km'],
 };
 
 const value = fc.oneof(
   fc.constantFrom('0', '-5', '2', '60', '1e-15', '1e400', 'NaN', 'Infinity', '0x3C', '', ' ', '--', '-', '=', ',', '1,2', '5,0,0', '60,10,0', '1,2,3,4',
     'igrf', 'dipole', 'on', 'off', 'csv', 'json', 'geojson', 'north', 'both', 'bz', 'pdyn', 'geo', 'mag', '2025-03-20T22:00:00Z', '2031-01-01T00:00:00Z',
-    'yesterday', '24', '0.05', '7', '1000', '/nonexistent/file.csv', '\u0000', 'é', '"'),
+    'yesterday', '24', '0.05', '7', '1000', '/nonexistent/file.csv', 'examples/sites.csv', 'examples/series.csv', '2025-03-20T23:00:00Z', '\u0000', 'é', '"'),
   fc.double({ noNaN: false }).map(String),
   fc.string({ maxLength: 8 }),
 );
@@ -40,7 +41,7 @@ function argv(cmd: string) {
       return words;
     })
     // Keep the engine's work small: coarse MLT steps, short sweeps, no real series.
-    .filter((w) => !w.some((x, i) => (w[i - 1] === '--steps' && Number(x) > 3) || x.startsWith('--steps=') || (w[i - 1] === '--mlt-step' && Number(x) < 3) || x.startsWith('--mlt-step=')))
+    .filter((w) => !w.some((x, i) => (w[i - 1] === '--steps' && Number(x) > 3) || x.startsWith('--steps=') || (w[i - 1] === '--mlt-step' && Number(x) < 3) || x.startsWith('--mlt-step=') || (w[i - 1] === '--step-min' && Number(x) < 60) || x.startsWith('--step-min=')))
     .map((w) => (w.includes('--mlt-step') || w[0] !== 'oval' ? w : [...w, '--mlt-step', '6']));
 }
 

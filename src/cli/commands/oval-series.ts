@@ -45,6 +45,44 @@ function stepConditions(base: FieldConditions, v: { time: string; pdynNpa: numbe
   return { ...base, time: v.time, pdynNpa: v.pdynNpa, bzNt: v.bzNt, byNt: v.byNt, dstNt, speedKms: v.speedKms ?? null };
 }
 
+/** One step of a series as conditions, with where its storm index came from. */
+export interface SeriesStep { line: number; conditions: FieldConditions; dstSource: 'given' | 'integrated' }
+
+/**
+ * The steps of a solar-wind series as model conditions over `base` (the fixed switches). Steps
+ * without an index get Dst* integrated through the series from 0 nT (row i's drivers act from its
+ * time to the next, storm-index.ts integrateDstStar's rule). Skips, unreadable lines and steps out of
+ * time order go to `note`.
+ */
+export async function* seriesSteps(stream: AsyncIterable<string | Uint8Array>, format: SeriesFormat | 'auto', base: FieldConditions, note: (r: SeriesRecord) => void): AsyncGenerator<SeriesStep> {
+  const stepper = new DstStarStepper(0);
+  let prev: { timeMs: number; speedKms: number; bzNt: number } | null = null;
+  for await (const r of readSeries(stream, { format, label: 'series' })) {
+    if (r.kind !== 'ok') { note(r); continue; }
+    const v = r.value;
+    if (prev && !(v.timeMs > prev.timeMs)) { note({ kind: 'error', line: r.line, error: `series line ${r.line}: time ${v.time} is not after the step before; step left out` }); continue; }
+    let dstNt: number, dstSource: 'given' | 'integrated';
+    if (v.dstNt !== undefined) { dstNt = v.dstNt; dstSource = 'given'; }
+    else {
+      if (prev) stepper.step((v.timeMs - prev.timeMs) / 3.6e6, prev.speedKms, prev.bzNt);
+      dstNt = dstFromCorrected(stepper.dstStarNt, v.pdynNpa);
+      dstSource = 'integrated';
+    }
+    prev = { timeMs: v.timeMs, speedKms: v.speedKms ?? NOMINAL_SPEED_KMS, bzNt: v.bzNt };
+    yield { line: r.line, conditions: stepConditions(base, v, dstNt), dstSource };
+  }
+}
+
+/** Open a series file for reading; a missing or unreadable file is a usage error of `flag`. */
+export async function openSeries(path: string, flag: string): Promise<AsyncIterable<string>> {
+  const stream = createReadStream(path, { encoding: 'utf8', highWaterMark: 1 << 16 });
+  await new Promise<void>((resolve, reject) => {
+    stream.once('readable', resolve);
+    stream.once('error', (e: NodeJS.ErrnoException) => reject(new UsageError(flag, `cannot read "${path}": ${e.code === 'ENOENT' ? 'no such file' : e.code === 'EISDIR' ? 'a folder, not a file' : e.message}`)));
+  });
+  return stream as AsyncIterable<string>;
+}
+
 export async function runOvalSeries(ctx: CommandContext): Promise<CommandResult> {
   const f = ctx.flags;
   for (const flag of ['time', 'pdyn', 'bz', 'by', 'dst', 'speed']) {
@@ -65,11 +103,7 @@ export async function runOvalSeries(ctx: CommandContext): Promise<CommandResult>
   const n = Math.min(asked, cores);
 
   // Open the file first, so a missing file is a usage error before any output.
-  const stream = createReadStream(path, { encoding: 'utf8', highWaterMark: 1 << 16 });
-  await new Promise<void>((resolve, reject) => {
-    stream.once('readable', resolve);
-    stream.once('error', (e: NodeJS.ErrnoException) => reject(new UsageError('--conditions', `cannot read "${path}": ${e.code === 'ENOENT' ? 'no such file' : e.message}`)));
-  });
+  const stream = await openSeries(path, '--conditions');
 
   const base = ctx.conditions;
   const meta = {
@@ -97,23 +131,7 @@ export async function runOvalSeries(ctx: CommandContext): Promise<CommandResult>
 
   async function* jobs(): AsyncGenerator<OvalSeriesJob> {
     let seq = 0;
-    const stepper = new DstStarStepper(0);
-    let prev: { timeMs: number; speedKms: number; bzNt: number } | null = null;
-    for await (const r of readSeries(stream, { format: seriesFormat, label: 'series' })) {
-      if (r.kind !== 'ok') { note(r); continue; }
-      const v = r.value;
-      if (prev && v.timeMs < prev.timeMs) { note({ kind: 'error', line: r.line, error: `series line ${r.line}: time ${v.time} is earlier than the step before; step left out` }); continue; }
-      let dstNt: number, dstSource: 'given' | 'integrated';
-      if (v.dstNt !== undefined) { dstNt = v.dstNt; dstSource = 'given'; }
-      else {
-        // Row i's drivers act from its time to the next (storm-index.ts integrateDstStar's rule).
-        if (prev) stepper.step((v.timeMs - prev.timeMs) / 3.6e6, prev.speedKms, prev.bzNt);
-        dstNt = dstFromCorrected(stepper.dstStarNt, v.pdynNpa);
-        dstSource = 'integrated';
-      }
-      prev = { timeMs: v.timeMs, speedKms: v.speedKms ?? NOMINAL_SPEED_KMS, bzNt: v.bzNt };
-      yield { seq: seq++, line: r.line, conditions: stepConditions(base, v, dstNt), dstSource, settings };
-    }
+    for await (const st of seriesSteps(stream, seriesFormat, base, note)) yield { seq: seq++, ...st, settings };
   }
 
   const pool: JobPool<OvalSeriesJob, OvalSeriesResult> = n === 1

@@ -3,7 +3,7 @@
  * (one instant) and `oval --conditions` (every step of a series, in workers),
  * so both write the same columns.
  */
-import { makeTracer, ovalBoundaries, cgmPair, type BoundaryPoint, type Hemisphere, type HemisphereBoundaries, type SectorBoundaries, type CgmPair } from '../../physics/mapping';
+import { makeTracer, ovalBoundaries, sectorBoundaries, cgmPair, type BoundaryHint, type BoundaryPoint, type Hemisphere, type HemisphereBoundaries, type SectorBoundaries, type CgmPair } from '../../physics/mapping';
 import type { PreparedModel } from '../../physics/field/model';
 import type { CsvCell } from '../../io/csv';
 import { CONDITION_COLUMNS, conditionCells, cgmJson, cgmNote } from '../common';
@@ -16,6 +16,12 @@ export interface OvalRowSettings {
   /** Equatorial source distance of the equatorward edge, RE; null = from the conditions (storm-following). */
   sourceRe: number | null;
 }
+
+/**
+ * Starting guesses carried from one series step to the next, per hemisphere and MLT (the boundary
+ * searches verify their bracket, so a hint changes the cost, never the answer beyond the tolerance).
+ */
+export type StepHints = Map<string, BoundaryHint>;
 
 const BOUNDARY_KEYS: readonly BoundaryKey[] = ['openClosed', 'equatorward'];
 
@@ -41,10 +47,23 @@ export interface OvalStep {
 }
 
 /** Boundaries, CGM latitudes and reasons for one model. */
-export function ovalStep(model: PreparedModel, s: OvalRowSettings): OvalStep {
+export function ovalStep(model: PreparedModel, s: OvalRowSettings, hints?: StepHints): OvalStep {
   const tracer = makeTracer(model, { altKm: s.altKm, ellipsoid: true });
   const sourceRe = s.sourceRe ?? model.sourceRe;
-  const hemispheres = ovalBoundaries(model, tracer, s.hemispheres, s.mlts, { sourceRe });
+  const hemispheres: HemisphereBoundaries[] = hints
+    ? s.hemispheres.map((h) => ({
+      hemisphere: h,
+      sectors: s.mlts.map((mlt) => {
+        const key = `${h} ${mlt}`;
+        const sec = sectorBoundaries(model, tracer, h, mlt, { sourceRe }, hints.get(key) ?? null);
+        const hint: BoundaryHint = {};
+        if (sec.openClosed) hint.openClosedLatDeg = Math.abs(sec.openClosed.magLatDeg);
+        if (sec.equatorward) hint.equatorwardLatDeg = Math.abs(sec.equatorward.magLatDeg);
+        if (hint.openClosedLatDeg !== undefined) hints.set(key, hint); else hints.delete(key);
+        return sec;
+      }),
+    }))
+    : ovalBoundaries(model, tracer, s.hemispheres, s.mlts, { sourceRe });
   const c = model.conditions;
   const rc: ReasonContext = { pdynNpa: c.pdynNpa, bzNt: c.bzNt, magnetopause: c.magnetopause, imfEfficiency: c.imfEfficiency, sourceRe, altKm: s.altKm, tail: c.tail };
   const cond = conditionCells(model);

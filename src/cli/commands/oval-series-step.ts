@@ -4,7 +4,10 @@ import type { FieldConditions } from '../../physics/field/conditions';
 import type { CsvCell } from '../../io/csv';
 import { errorText } from '../args';
 import { CONDITION_COLUMNS } from '../common';
-import { OVAL_COLUMNS, ovalStep, type OvalRowSettings } from './oval-rows';
+import { OVAL_COLUMNS, ovalStep, type OvalRowSettings, type StepHints } from './oval-rows';
+
+/** This thread's last answers per hemisphere and MLT: the next step's starting guesses. */
+const hints: StepHints = new Map();
 
 export interface OvalSeriesJob {
   seq: number;
@@ -32,7 +35,7 @@ const DST_SOURCE_COL = CONDITION_COLUMNS.indexOf('dst_source');
 export function computeOvalSeriesStep(job: OvalSeriesJob): OvalSeriesResult {
   try {
     const model = prepareModel(job.conditions);
-    const st = ovalStep(model, job.settings);
+    const st = ovalStep(model, job.settings, hints);
     for (const r of st.rows) r[DST_SOURCE_COL] = job.dstSource;
     return { seq: job.seq, line: job.line, rows: st.rows, found: st.found, missing: st.missing, warnings: [...model.warnings] };
   } catch (e) {

@@ -35,7 +35,7 @@ function topHelp(): string {
   const width = Math.max(...COMMANDS.map((c) => c.name.length)) + 4;
   return [
     `${PROGRAM} ${programVersion()}: field lines, footpoints, conjugate points and oval boundaries`,
-    'through a tilted dipole or IGRF-14 main field, a Shue (1998) magnetopause with its',
+    'through the IGRF-14 main field (or its centred dipole), a Shue (1998) magnetopause with its',
     'compression field, and a penetrating IMF.',
     '',
     'Usage: npm run --silent cli -- <command> [options]',

@@ -180,7 +180,7 @@ describe('bad arguments exit 2 with a message naming the flag', () => {
     ['format not offered', ['sweep', '--vary', 'bz', '--from', '0', '--to', '1', '--steps', '2', '--format', 'geojson'], /--format: expected json or csv, got "geojson"/],
     ['pdyn sweep below zero', ['sweep', '--vary', 'pdyn', '--from', '-1', '--to', '2', '--steps', '2'], /--from: with --vary pdyn expected a dynamic pressure in 0.01..10000 nPa, got -1/],
     ['integer steps', ['sweep', '--vary', 'bz', '--from', '0', '--to', '1', '--steps', '2.5'], /--steps: expected a whole number in 1..1000/],
-    ['unknown command', ['orbit'], /unknown command "orbit"; commands: field, trace, oval, sweep, batch/],
+    ['unknown command', ['orbit'], /unknown command "orbit"; commands: field, trace, oval, sweep, timeline, batch/],
     ['no command', [], /a command is required/],
   ];
   for (const [what, argv, re] of cases) {

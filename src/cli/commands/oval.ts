@@ -39,11 +39,13 @@ export const ovalCommand: CommandDef = {
     ...OVAL_SERIES_FLAGS,
   ],
   formats: ['json', 'csv', 'geojson'],
-  examples: ['oval --time 2025-03-20T22:00:00Z --bz -5 --format csv', 'oval --mlt-step 0.5 --hemisphere north --format geojson', 'oval --conditions examples/storm.csv --mlt 0,6,12,18 --format csv'],
+  examples: ['oval --time 2025-03-20T22:00:00Z --bz -5 --format csv', 'oval --mlt-step 0.5 --hemisphere north --format geojson', 'oval --conditions examples/series.csv --mlt 0,6,12,18 --format csv'],
   run(ctx) {
     if (ctx.flags.conditions !== undefined) return runOvalSeries(ctx);
     const step = (ctx.flags['mlt-step'] as number | undefined) ?? 1;
-    if (ctx.flags.mlt !== undefined) throw new UsageError('--mlt', 'is for --conditions (boundaries at chosen MLTs through a series); for one instant use --mlt-step');
+    for (const flag of ['mlt', 'workers', 'series-format']) {
+      if (ctx.flags[flag] !== undefined) throw new UsageError(`--${flag}`, `is for --conditions (boundaries at chosen MLTs through a series)${flag === 'mlt' ? '; for one instant use --mlt-step' : ''}`);
+    }
     const given = ctx.flags['source-re'] as number | undefined;
     const mlts = mltGrid(step);
     const hems = hemispheresOf(ctx.flags);

@@ -40,7 +40,7 @@ export interface RealismRow {
 interface Sample { noonOc: number; midOc: number; noonEq: number; midEq: number }
 
 function sample(pdynNpa: number, bzNt: number, storm: { dstNt: number; speedKms: number } | null = null): Sample {
-  const m = prepareModel({ time: TIME, tiltDeg: 0, pdynNpa, bzNt, byNt: 0, tail: true, ...storm });
+  const m = prepareModel({ time: TIME, internal: 'dipole', tiltDeg: 0, pdynNpa, bzNt, byNt: 0, tail: true, ...storm });
   const t = makeTracer(m);
   const n = sectorBoundaries(m, t, 'north', 12);
   const d = sectorBoundaries(m, t, 'north', 0);
@@ -86,7 +86,7 @@ export const STORM_SEQUENCE: readonly StormDriving[] = [
 export const YOKOYAMA_POINTS: readonly (readonly [number, number])[] = [[-107, 64], [-182, 62], [-259, 60], [-337, 58], [-417, 56]];
 
 function openFluxGwb(pdynNpa: number, bzNt: number): number {
-  const m = prepareModel({ time: TIME, tiltDeg: 0, pdynNpa, bzNt, byNt: 0, tail: true });
+  const m = prepareModel({ time: TIME, internal: 'dipole', tiltDeg: 0, pdynNpa, bzNt, byNt: 0, tail: true });
   const t = makeTracer(m);
   const [h] = ovalBoundaries(m, t, ['north'], mltGrid(2));
   return openFluxWb(m, h) / 1e9;

@@ -29,7 +29,7 @@ export const DEMO_SCENARIO: Scenario = {
     bzNt: -5,
     byNt: 2,
     tiltDeg: null,
-    internal: 'dipole',
+    internal: 'igrf',
     magnetopause: true,
     imfEfficiency: DEFAULT_IMF_EFFICIENCY,
     tail: true,

@@ -139,7 +139,8 @@ export function parseFlags(words: readonly string[], specs: readonly FlagSpec[],
     let raw: string;
     if (eq >= 0) raw = w.slice(eq + 1);
     else {
-      if (i + 1 >= words.length) throw new UsageError(`--${name}`, `expected a value${spec.meta ? ` ${spec.meta}` : ''}`);
+      // A value never starts with "--" (negative numbers have one dash): the next word is another flag.
+      if (i + 1 >= words.length || words[i + 1].startsWith('--')) throw new UsageError(`--${name}`, `expected a value${spec.meta ? ` ${spec.meta}` : ''}${i + 1 < words.length ? `, got the flag "${words[i + 1]}"` : ''}`);
       raw = words[++i];
     }
     out[name] = convert(spec, raw);
@@ -148,6 +149,26 @@ export function parseFlags(words: readonly string[], specs: readonly FlagSpec[],
     if (s.required && out[s.name] === undefined) throw new UsageError(`--${s.name}`, `is required for ${command}${s.meta ? ` (${s.meta})` : ''}`);
   }
   return out;
+}
+
+/**
+ * Whether the words ask for help: `--help` or `-h` where a flag may stand, not
+ * as the (missing) value of the flag before it (`--time --help` is a missing
+ * --time value, reported by parseFlags).
+ */
+export function asksForHelp(words: readonly string[], specs: readonly FlagSpec[]): boolean {
+  const byName = new Map(specs.map((s) => [s.name, s]));
+  for (let i = 0; i < words.length; i++) {
+    const w = words[i];
+    if (w === '--help' || w === '-h') return true;
+    if (!w.startsWith('--') || w.includes('=')) continue;
+    const spec = byName.get(w.slice(2));
+    if (!spec || spec.kind === 'switch') continue;
+    const next = words[i + 1];
+    if (next === undefined || next.startsWith('--')) return false; // a missing value: parseFlags reports it
+    i++;
+  }
+  return false;
 }
 
 /** Help lines for a list of flags, aligned. */

@@ -5,7 +5,7 @@ import type { FeatureCollection } from '../io/geojson';
 import type { FlagSpec, ParsedFlags } from './args';
 import type { OutputFormat } from './common';
 
-interface CommandContext {
+export interface CommandContext {
   flags: ParsedFlags;
   conditions: FieldConditions;
   /** The model for `conditions` (sweeps prepare more of their own). */
@@ -13,15 +13,27 @@ interface CommandContext {
   altKm: number;
   /** Add a warning: printed on stderr and listed in conditions.warnings. */
   warn(message: string): void;
+  /** The process's streams, for commands that stream their rows (result.streamed). */
+  io: { stdout(text: string): void; stderr(text: string): void };
 }
 
-interface CommandResult {
+export interface CommandResult {
   /** Members after the conditions block. */
   json: Record<string, unknown>;
   /** Header-first CSV text. */
   csv?(): string;
   /** Features of a GeoJSON FeatureCollection (the conditions block is added as a foreign member). */
   geojson?(): FeatureCollection['features'];
+  /** Settings of this run beyond the conditions (e.g. conjugateAltKm, sourceRe): added to the conditions block and the CSV metadata. */
+  settings?: Record<string, unknown>;
+  /** A summary line for stderr (e.g. how many boundaries were found and why others are missing). */
+  summary?: string;
+  /** The command wrote its output itself (through ctx.io); only warnings and the summary remain. */
+  streamed?: boolean;
+  /** The conditions came from elsewhere (a series): drop the warnings of the flags' model, keep only those the command added. */
+  ownWarningsOnly?: boolean;
+  /** Set when the command finished but computed nothing: the reason (stderr; exit code 3). */
+  nothingComputed?: string;
 }
 
 export interface CommandDef {

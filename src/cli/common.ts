@@ -8,29 +8,18 @@ import { DEFAULT_CONDITIONS, DEFAULT_IMF_EFFICIENCY, type PreparedModel } from '
 import { DEG_PER_RAD } from '../physics/constants';
 import { InputError } from '../physics/errors';
 import { UsageError, inputErrorReason, type FlagSpec, type ParsedFlags } from './args';
-import { DEFAULT_SOURCE_RE, type Hemisphere } from '../physics/mapping';
-import { DST_LIMIT_NT, SPEED_LIMIT_KMS, NOMINAL_SPEED_KMS } from '../physics/field/storm-index';
+import { DEFAULT_SOURCE_RE, type Hemisphere, type CgmResult } from '../physics/mapping';
+import type { CsvCell } from '../io/csv';
+import { NOMINAL_SPEED_KMS } from '../physics/field/storm-index';
+import { INPUT_RANGES } from '../io/input-ranges';
 
 export type OutputFormat = 'json' | 'csv' | 'geojson';
 
 /** Default footpoint altitude, km (common practice for the auroral emission height, references §7). */
 export const DEFAULT_ALT_KM = 110;
 
-/**
- * The allowed range of each input kind the CLI reads, shared by its flags and
- * the batch table's columns (inclusive min/max; `above` an exclusive lower bound).
- */
-export const INPUT_RANGES = {
-  latDeg: { min: -90, max: 90 },
-  lonDeg: { min: -360, max: 360 },
-  siteHeightKm: { min: -1, max: 100_000 },
-  pdynNpa: { above: 0, max: 1e4 },
-  imfNt: { min: -1000, max: 1000 },
-  altKm: { min: 0, max: 5000 },
-  sourceRe: { min: 1.5, max: 100 },
-  dstNt: { min: -DST_LIMIT_NT, max: DST_LIMIT_NT },
-  speedKms: { above: 0, max: SPEED_LIMIT_KMS },
-} as const;
+/** The allowed range of each input kind (shared with the app: src/io/input-ranges.ts). */
+export { INPUT_RANGES };
 
 /** --source-re, the same for every command that finds the equatorward edge. */
 export const SOURCE_RE_FLAG: FlagSpec = { name: 'source-re', kind: 'number', meta: '<RE>', unit: 'RE', ...INPUT_RANGES.sourceRe, help: 'equatorial source distance of the equatorward edge', defaultText: `follows the storm (${DEFAULT_SOURCE_RE} in quiet times)` };
@@ -52,13 +41,13 @@ export function sourceReOf(f: ParsedFlags): number | undefined {
 export function commonFlags(formats: readonly OutputFormat[]): FlagSpec[] {
   return [
     { name: 'time', kind: 'string', meta: '<ISO 8601 UTC>', help: 'instant, e.g. 2025-03-20T22:00:00Z', defaultText: 'now' },
-    { name: 'pdyn', kind: 'number', meta: '<nPa>', unit: 'nPa', ...INPUT_RANGES.pdynNpa, help: 'solar-wind dynamic pressure', defaultText: String(DEFAULT_CONDITIONS.pdynNpa) },
+    { name: 'pdyn', kind: 'number', meta: '<nPa>', unit: 'nPa', ...INPUT_RANGES.pdynNpa, help: 'solar-wind dynamic pressure (from 0.01: the tail term needs its inner edge within 1000 RE)', defaultText: String(DEFAULT_CONDITIONS.pdynNpa) },
     { name: 'bz', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.imfNt, help: 'IMF Bz (GSM)', defaultText: String(DEFAULT_CONDITIONS.bzNt) },
     { name: 'by', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.imfNt, help: 'IMF By (GSM)', defaultText: String(DEFAULT_CONDITIONS.byNt) },
     { name: 'dst', kind: 'number', meta: '<nT>', unit: 'nT', ...INPUT_RANGES.dstNt, help: 'storm index (Dst or SYM-H); sets the ring current', defaultText: 'estimated from --bz and --speed, and said so' },
     { name: 'speed', kind: 'number', meta: '<km/s>', unit: 'km/s', ...INPUT_RANGES.speedKms, help: 'solar-wind speed, for the storm-index estimate', defaultText: `${NOMINAL_SPEED_KMS} (nominal)` },
     { name: 'tilt-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'dipole tilt, overrides the tilt from --time', defaultText: 'from --time' },
-    { name: 'internal', kind: 'enum', meta: 'dipole|igrf', values: ['dipole', 'igrf'], help: 'main field: centred dipole of the date or full IGRF-14', defaultText: DEFAULT_CONDITIONS.internal },
+    { name: 'internal', kind: 'enum', meta: 'igrf|dipole', values: ['igrf', 'dipole'], help: 'main field: igrf = full IGRF-14 of the date (for site answers, footpoints, conjugates); dipole = its centred dipole alone (for analytic checks, teaching, dipole-based statistics)', defaultText: DEFAULT_CONDITIONS.internal },
     { name: 'magnetopause', kind: 'enum', meta: 'on|off', values: ['on', 'off'], help: 'off removes both the compression term and the boundary', defaultText: 'on' },
     { name: 'tail', kind: 'enum', meta: 'on|off', values: ['on', 'off'], help: 'tail current-sheet term (off for the dipole + magnetopause analytic limits)', defaultText: DEFAULT_CONDITIONS.tail ? 'on' : 'off' },
     { name: 'imf-efficiency', kind: 'number', meta: '<0..1>', min: 0, max: 1, help: 'share of the IMF that penetrates the magnetosphere', defaultText: String(DEFAULT_IMF_EFFICIENCY) },
@@ -181,4 +170,54 @@ export function checkFlag(flag: string, check: () => void): void {
     if (e instanceof InputError) throw new UsageError(flag, inputErrorReason(e));
     throw e;
   }
+}
+
+/**
+ * The one conjugate-altitude rule of every front end (references §13): the
+ * conjugate point lies at the footpoint altitude unless --conjugate-alt-km sets
+ * it apart. `trace` and `batch` both call this.
+ */
+export function conjugateAltKmOf(f: ParsedFlags, altKm: number): number {
+  return (f['conjugate-alt-km'] as number | undefined) ?? altKm;
+}
+
+/** --conjugate-alt-km, the same for every command that gives conjugate points. */
+export const CONJUGATE_ALT_FLAG: FlagSpec = {
+  name: 'conjugate-alt-km', kind: 'number', meta: '<km>', unit: 'km', ...INPUT_RANGES.altKm,
+  help: 'altitude of the conjugate point above the ellipsoid', defaultText: 'the footpoint altitude, --alt-km',
+};
+
+/** `# key: value` metadata lines (CRLF) before a CSV table, as batch writes them. */
+export function csvMetadata(entries: Record<string, unknown>): string {
+  return Object.entries(entries)
+    .map(([k, v]) => `# ${k}: ${typeof v === 'string' ? v : JSON.stringify(v)}`.replace(/[\r\n]+/g, ' '))
+    .join('\r\n') + '\r\n';
+}
+
+/** Time and condition columns every table row carries (the same for trace, oval, sweep and timeline). */
+export const CONDITION_COLUMNS = ['time_utc', 'pdyn_npa', 'bz_nt', 'by_nt', 'dst_nt', 'dst_source', 'internal'] as const;
+
+/** The condition cells of one model, in CONDITION_COLUMNS order. */
+export function conditionCells(model: PreparedModel): CsvCell[] {
+  const c = model.conditions;
+  return [new Date(model.ms).toISOString(), c.pdynNpa, c.bzNt, c.byNt, model.storm.dstNt, model.storm.dstSource, c.internal];
+}
+
+/** CGM columns of a point at its height (prefix "") or at the ground below it (prefix "ground_"). */
+export const cgmColumns = (prefix: string): string[] => [`${prefix}cgm_lat_deg`, `${prefix}cgm_lon_deg`, `${prefix}cgm_mlt_h`];
+
+/** CGM cells (lat, lon, MLT (CGM)); empty where CGM is undefined (the reason goes in a note column). */
+export function cgmCells(r: CgmResult | null): CsvCell[] {
+  return r && r.defined ? [r.latDeg, r.lonDeg, r.mltH] : [null, null, null];
+}
+
+/** The reason(s) CGM is undefined, for a note column ('' when defined). */
+export function cgmNote(...rs: (CgmResult | null)[]): string {
+  const reasons = rs.filter((r): r is Extract<CgmResult, { defined: false }> => r !== null && !r.defined).map((r) => r.reason);
+  return [...new Set(reasons)].join('; ');
+}
+
+/** A CGM result for JSON: {latDeg, lonDeg, mltCgmHours, apexRe} or {defined: false, reason}. */
+export function cgmJson(r: CgmResult): Record<string, unknown> {
+  return r.defined ? { defined: true, latDeg: r.latDeg, lonDeg: r.lonDeg, mltCgmHours: r.mltH, apexRe: r.apexRe } : { defined: false, reason: r.reason };
 }

@@ -7,15 +7,16 @@
 import { prepareModel, type PreparedModel } from '../physics/field/model';
 import { featureCollection } from '../io/geojson';
 import { writeJson } from '../io/json';
-import { UsageError, errorText, parseFlags, flagHelp } from './args';
-import { commonFlags, conditionsFromFlags, conditionsBlock, programVersion, sourceReOf, usageFromInputError, DEFAULT_ALT_KM, type OutputFormat } from './common';
+import { UsageError, errorText, parseFlags, flagHelp, asksForHelp } from './args';
+import { commonFlags, conditionsFromFlags, conditionsBlock, csvMetadata, programVersion, sourceReOf, usageFromInputError, DEFAULT_ALT_KM, type OutputFormat } from './common';
 import type { CommandDef } from './command';
 import { fieldCommand } from './commands/field';
 import { traceCommand } from './commands/trace';
 import { ovalCommand } from './commands/oval';
 import { sweepCommand } from './commands/sweep';
+import { timelineCommand } from './commands/timeline';
 import { runBatch, batchHelp, BATCH_SUMMARY } from './batch/index';
-import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE } from './exit-codes';
+import { EXIT_OK, EXIT_FAILURE, EXIT_USAGE, EXIT_ROWS_FAILED } from './exit-codes';
 
 interface CliIo {
   stdout(text: string): void;
@@ -25,7 +26,7 @@ interface CliIo {
 }
 
 const PROGRAM = 'fieldline-atlas';
-const COMMANDS: readonly CommandDef[] = [fieldCommand, traceCommand, ovalCommand, sweepCommand];
+const COMMANDS: readonly CommandDef[] = [fieldCommand, traceCommand, ovalCommand, sweepCommand, timelineCommand];
 
 /** Every command name, the streamed `batch` included (it parses and prints on its own). */
 const COMMAND_NAMES: readonly string[] = [...COMMANDS.map((c) => c.name), 'batch'];
@@ -34,7 +35,7 @@ function topHelp(): string {
   const width = Math.max(...COMMANDS.map((c) => c.name.length)) + 4;
   return [
     `${PROGRAM} ${programVersion()}: field lines, footpoints, conjugate points and oval boundaries`,
-    'through a tilted dipole or IGRF-14 main field, a Shue (1998) magnetopause with its',
+    'through the IGRF-14 main field (or its centred dipole), a Shue (1998) magnetopause with its',
     'compression field, and a penetrating IMF.',
     '',
     'Usage: npm run --silent cli -- <command> [options]',
@@ -48,7 +49,7 @@ function topHelp(): string {
     '',
     'Run `<command> --help` for the options of one command.',
     'Output goes to stdout (JSON by default, with a "conditions" block); messages to stderr.',
-    'Exit codes: 0 success, 2 bad arguments, 1 computation failure.',
+    'Exit codes: 0 success, 2 bad arguments, 1 computation failure, 3 finished but nothing (oval, sweep) or not every row (batch) computed.',
     '',
   ].join('\n');
 }
@@ -108,7 +109,7 @@ export async function run(argv: readonly string[], io: CliIo): Promise<number> {
     const what = name.startsWith('-') ? `expected a command before options, got "${name}"` : `unknown command "${name}"`;
     return report(io, '', new UsageError('', `${what}; commands: ${COMMAND_NAMES.join(', ')}`));
   }
-  if (rest.includes('--help') || rest.includes('-h')) {
+  if (asksForHelp(rest, [...cmd.flags, ...commonFlags(cmd.formats)])) {
     io.stdout(commandHelp(cmd));
     return EXIT_OK;
   }
@@ -126,14 +127,21 @@ export async function run(argv: readonly string[], io: CliIo): Promise<number> {
     }
     const warnings: string[] = [...model.warnings];
     const warn = (m: string) => { if (!warnings.includes(m)) warnings.push(m); };
-    const result = await cmd.run({ flags, conditions: model.conditions, model, altKm, warn });
-    const block = conditionsBlock(model, altKm, warnings, sourceReOf(flags));
-    let text: string;
-    if (format === 'csv' && result.csv) text = result.csv();
+    const result = await cmd.run({ flags, conditions: model.conditions, model, altKm, warn, io });
+    if (result.ownWarningsOnly) warnings.splice(0, model.warnings.length);
+    const block = { ...conditionsBlock(model, altKm, warnings, sourceReOf(flags)), ...result.settings };
+    let text = '';
+    if (result.streamed) text = '';
+    else if (format === 'csv' && result.csv) text = csvMetadata({ program: `${PROGRAM} ${cmd.name}`, ...block }) + result.csv();
     else if (format === 'geojson' && result.geojson) text = writeJson(featureCollection(result.geojson(), { conditions: block }));
     else text = writeJson({ conditions: block, ...result.json });
     for (const w of warnings) io.stderr(`${PROGRAM} ${cmd.name}: warning: ${w}\n`);
-    io.stdout(text);
+    if (text) io.stdout(text);
+    if (result.summary) io.stderr(`${PROGRAM} ${cmd.name}: ${result.summary}\n`);
+    if (result.nothingComputed) {
+      io.stderr(`${PROGRAM} ${cmd.name}: nothing computed: ${result.nothingComputed}\n`);
+      return EXIT_ROWS_FAILED;
+    }
     return EXIT_OK;
   } catch (e) {
     return report(io, cmd.name, e);

@@ -11,8 +11,8 @@
  */
 import { expectedGot } from '../physics/errors';
 import { parseUtc } from '../physics/frames/time';
-import { DST_LIMIT_NT, SPEED_LIMIT_KMS } from '../physics/field/storm-index';
 import { pdynFromPlasmaNominal } from '../physics/field/magnetopause';
+import { INPUT_RANGES } from './input-ranges';
 
 /** An inclusive range (or, with `above`, an exclusive lower bound) and its unit. */
 export interface ValueRange {
@@ -37,14 +37,14 @@ export const APP_LIMITS = {
 
 /** Allowed values of every number the app reads (the CLI's ranges where the CLI has the input). */
 export const APP_RANGES = {
-  latDeg: { min: -90, max: 90, unit: 'deg' },
-  lonDeg: { min: -360, max: 360, unit: 'deg' },
-  pdynNpa: { above: 0, max: 1e4, unit: 'nPa' },
-  imfNt: { min: -1000, max: 1000, unit: 'nT' },
-  altKm: { min: 0, max: 5000, unit: 'km' },
-  sourceRe: { min: 1.5, max: 100, unit: 'RE' },
-  dstNt: { min: -DST_LIMIT_NT, max: DST_LIMIT_NT, unit: 'nT' },
-  speedKms: { above: 0, max: SPEED_LIMIT_KMS, unit: 'km/s' },
+  latDeg: { ...INPUT_RANGES.latDeg, unit: 'deg' },
+  lonDeg: { ...INPUT_RANGES.lonDeg, unit: 'deg' },
+  pdynNpa: { ...INPUT_RANGES.pdynNpa, unit: 'nPa' },
+  imfNt: { ...INPUT_RANGES.imfNt, unit: 'nT' },
+  altKm: { ...INPUT_RANGES.altKm, unit: 'km' },
+  sourceRe: { ...INPUT_RANGES.sourceRe, unit: 'RE' },
+  dstNt: { ...INPUT_RANGES.dstNt, unit: 'nT' },
+  speedKms: { ...INPUT_RANGES.speedKms, unit: 'km/s' },
   imfEfficiency: { min: 0, max: 1, unit: '' },
   tiltDeg: { min: -90, max: 90, unit: 'deg' },
   minElevationDeg: { min: -90, max: 90, unit: 'deg' },

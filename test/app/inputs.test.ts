@@ -26,7 +26,7 @@ describe('the app validation path shares the command line rules', () => {
   it('refuses hex, exponents, Infinity, NaN and empty text with the CLI wording "expected …, got …"', () => {
     for (const t of ['0x3C', '6e1', 'Infinity', 'NaN', '', ' ', '1,5', '--1', '1.2.3']) expect(parseDecimal(t), t).toBeNull();
     expect(readNumber('lat_deg', '0x3C', APP_RANGES.latDeg)).toEqual({ ok: false, message: 'lat_deg: expected a decimal number in -90..90 deg, got "0x3C"' });
-    expect(readNumber('p', '0', APP_RANGES.pdynNpa)).toEqual({ ok: false, message: 'p: expected a decimal number > 0 and ≤ 10000 nPa, got "0"' });
+    expect(readNumber('p', '0', APP_RANGES.pdynNpa)).toEqual({ ok: false, message: 'p: expected a decimal number in 0.01..10000 nPa, got "0"' });
     expect(readNumber('p', ' 12.5 ', APP_RANGES.pdynNpa)).toEqual({ ok: true, value: 12.5 });
   });
 

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { cli, cliJson, spawnCli } from './helpers';
+import { cli, cliJson, spawnCli, csvBody } from './helpers';
 import { spawnSync } from 'node:child_process';
 import { run } from '../../src/cli/run';
 import { readCsv } from '../../src/io/csv';
@@ -19,7 +19,7 @@ function expectKeys(o: Record<string, unknown>, keys: string[], what: string) {
 
 describe('JSON results carry the fixed keys', () => {
   it('conditions block echoes the flags', async () => {
-    const j = await cliJson('field', '--gsm', '5,0,0', ...T, '--pdyn', '3', '--bz', '-4', '--by', '1.5', '--tilt-deg', '10', '--alt-km', '200', '--imf-efficiency', '0.2');
+    const j = await cliJson('field', '--gsm', '5,0,0', ...T, '--internal', 'dipole', '--pdyn', '3', '--bz', '-4', '--by', '1.5', '--tilt-deg', '10', '--alt-km', '200', '--imf-efficiency', '0.2');
     expectKeys(j.conditions, CONDITION_KEYS, 'conditions');
     expect(j.conditions).toMatchObject({ time: '2025-03-20T22:00:00.000Z', pdynNpa: 3, bzNt: -4, byNt: 1.5, internal: 'dipole', magnetopause: true, imfEfficiency: 0.2, altKm: 200 });
     expectClose(j.conditions.tiltDeg, 10, 1e-9, 'tiltDeg echoes --tilt-deg');
@@ -27,9 +27,9 @@ describe('JSON results carry the fixed keys', () => {
     expect(Array.isArray(j.conditions.warnings)).toBe(true);
   });
 
-  it('defaults: --time now, pdyn 2, bz 0, by 0, dipole, magnetopause on, alt 110 km', async () => {
+  it('defaults: --time now, pdyn 2, bz 0, by 0, IGRF-14 main field, magnetopause on, alt 110 km', async () => {
     const j = await cliJson('field', '--gsm', '5,0,0');
-    expect(j.conditions).toMatchObject({ time: '2025-03-20T12:00:00.000Z', pdynNpa: 2, bzNt: 0, byNt: 0, internal: 'dipole', magnetopause: true, altKm: 110 });
+    expect(j.conditions).toMatchObject({ time: '2025-03-20T12:00:00.000Z', pdynNpa: 2, bzNt: 0, byNt: 0, internal: 'igrf', magnetopause: true, altKm: 110 });
     // Shue et al. (1998) worked value for Dp = 2 nPa, Bz = 0 (references §3): r0 = 10.2519 RE.
     expectClose(j.conditions.standoffRe, 10.2519, 1e-4, 'standoff at the default conditions');
   });
@@ -107,7 +107,8 @@ describe('CSV output (RFC 4180, units in the header)', () => {
       const r = await cli(...argv, ...T, '--format', 'csv');
       expect(r.code, r.err).toBe(EXIT_OK);
       expect(r.out.endsWith('\r\n')).toBe(true);
-      const rows = readCsv(r.out);
+      expect(r.out.startsWith('# program: fieldline-atlas '), 'metadata lines first (references §13)').toBe(true);
+      const rows = readCsv(csvBody(r.out));
       for (const c of cols) expect(rows[0]).toContain(c);
       expect(rows.length).toBeGreaterThan(1);
       for (const row of rows) expect(row.length).toBe(rows[0].length);
@@ -166,9 +167,9 @@ describe('GeoJSON output (RFC 7946)', () => {
 describe('bad arguments exit 2 with a message naming the flag', () => {
   const cases: [string, string[], RegExp][] = [
     ['unknown flag', ['field', '--gsm', '5,0,0', '--colour', 'red'], /--colour: unknown flag for field; valid flags: --gsm, --geo, --time/],
-    ['bad number', ['field', '--gsm', '5,0,0', '--pdyn', 'lots'], /--pdyn: expected a number > 0 and ≤ 10000 nPa, got "lots"/],
+    ['bad number', ['field', '--gsm', '5,0,0', '--pdyn', 'lots'], /--pdyn: expected a number in 0.01..10000 nPa, got "lots"/],
     ['out of range', ['field', '--gsm', '5,0,0', '--imf-efficiency', '1.5'], /--imf-efficiency: expected a number in 0..1, got 1.5/],
-    ['wrong enum', ['field', '--gsm', '5,0,0', '--internal', 'foo'], /--internal: expected dipole or igrf, got "foo"/],
+    ['wrong enum', ['field', '--gsm', '5,0,0', '--internal', 'foo'], /--internal: expected igrf or dipole, got "foo"/],
     ['wrong on/off', ['oval', '--magnetopause', 'yes'], /--magnetopause: expected on or off, got "yes"/],
     ['missing required', ['trace', '--lat', '60'], /--lon: is required for trace/],
     ['missing --vary', ['sweep', '--from', '1', '--to', '2', '--steps', '2'], /--vary: is required for sweep/],
@@ -177,9 +178,9 @@ describe('bad arguments exit 2 with a message naming the flag', () => {
     ['time outside IGRF-14', ['field', '--gsm', '5,0,0', '--time', '1850-01-01T00:00:00Z'], /--time: IGRF-14 covers 1900.0/],
     ['MLT step must divide 24', ['oval', '--mlt-step', '5'], /--mlt-step: 5 h must divide 24 h evenly/],
     ['format not offered', ['sweep', '--vary', 'bz', '--from', '0', '--to', '1', '--steps', '2', '--format', 'geojson'], /--format: expected json or csv, got "geojson"/],
-    ['pdyn sweep below zero', ['sweep', '--vary', 'pdyn', '--from', '-1', '--to', '2', '--steps', '2'], /--from: dynamic pressure must be > 0 nPa/],
+    ['pdyn sweep below zero', ['sweep', '--vary', 'pdyn', '--from', '-1', '--to', '2', '--steps', '2'], /--from: with --vary pdyn expected a dynamic pressure in 0.01..10000 nPa, got -1/],
     ['integer steps', ['sweep', '--vary', 'bz', '--from', '0', '--to', '1', '--steps', '2.5'], /--steps: expected a whole number in 1..1000/],
-    ['unknown command', ['orbit'], /unknown command "orbit"; commands: field, trace, oval, sweep, batch/],
+    ['unknown command', ['orbit'], /unknown command "orbit"; commands: field, trace, oval, sweep, timeline, batch/],
     ['no command', [], /a command is required/],
   ];
   for (const [what, argv, re] of cases) {

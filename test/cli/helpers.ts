@@ -52,3 +52,25 @@ export function scratchDir(prefix: string): { file(name: string, text: string): 
     remove: () => rmSync(dir, { recursive: true, force: true }),
   };
 }
+
+/** The CSV table after the `#` metadata lines. */
+export function csvBody(text: string): string {
+  let i = 0;
+  while (text.startsWith('#', i)) {
+    const nl = text.indexOf('\n', i);
+    if (nl < 0) return '';
+    i = nl + 1;
+  }
+  return text.slice(i);
+}
+
+/** The `# key: value` metadata lines of a CSV as an object (values as written). */
+export function csvMeta(text: string): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const line of text.split(/\r?\n/)) {
+    if (!line.startsWith('# ')) break;
+    const k = line.indexOf(': ');
+    out[line.slice(2, k)] = line.slice(k + 2);
+  }
+  return out;
+}

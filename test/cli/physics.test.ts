@@ -42,7 +42,7 @@ describe('Dungey polar cap through `oval` (references §5: Dungey 1961, derived)
 
 describe('north/south symmetry at zero tilt with By = 0 (derived: mirror symmetry of the model about the SM equator)', () => {
   it('open–closed and equatorward latitudes mirror at every MLT', async () => {
-    const j = await cliJson('oval', ...T, '--tilt-deg', '0', '--by', '0', '--bz', '-5', '--mlt-step', '3', '--tail', 'off');
+    const j = await cliJson('oval', ...T, '--internal', 'dipole', '--tilt-deg', '0', '--by', '0', '--bz', '-5', '--mlt-step', '3', '--tail', 'off');
     const [n, s] = j.hemispheres;
     expect([n.hemisphere, s.hemisphere]).toEqual(['north', 'south']);
     let worst = 0;
@@ -120,7 +120,7 @@ describe('dipole geometry through `trace` and `field` (references §1, derived)'
   });
 
   it('field at GSM (6.6, 0, 0), zero tilt, magnetopause off: (0, 0, B0/6.6³)', async () => {
-    const j = await cliJson('field', ...T, '--gsm', '6.6,0,0', '--tilt-deg', '0', '--magnetopause', 'off', '--tail', 'off');
+    const j = await cliJson('field', ...T, '--internal', 'dipole', '--gsm', '6.6,0,0', '--tilt-deg', '0', '--magnetopause', 'off', '--tail', 'off');
     const b0 = j.conditions.b0Nt;
     expectClose(j.bGsmNt[0], 0, 1e-9, 'Bx');
     expectClose(j.bGsmNt[1], 0, 1e-9, 'By');

@@ -51,7 +51,7 @@ describe.skipIf(!HAVE_BROWSER)('app data rules', () => {
   it('reads a link time without a zone as UTC, refuses bad values with a notice, and keeps the good site', async () => {
     await status('has no zone; it is read as UTC (2025-03-20T22:00:00Z)');
     await status('dipole tilt (tilt=): expected a decimal number in -90..90 deg, got "95"');
-    await status('dynamic pressure (p=): expected a decimal number > 0 and ≤ 10000 nPa, got "0x3C"');
+    await status('dynamic pressure (p=): expected a decimal number in 0.01..10000 nPa, got "0x3C"');
     await status('1 site in the link refused: site 2: expected name|lat|lon');
     const s = await atlas((st) => ({ sites: st.sites, c: st.conditions }));
     expect(s.sites).toEqual([{ name: 'Tarrow Fen', latDeg: 56.5, lonDeg: -20 }]);

@@ -8,7 +8,7 @@ import { prepareModel, type PreparedModel } from '../../physics/field/model';
 import { makeTracer, siteGsm, boundaryFinder } from '../../physics/mapping';
 import { splitFootpoints } from '../../physics/mapping';
 import { siteReport, type SiteInput, type SiteResult, type BoundaryProvider, type SectorBoundaries, type Hemisphere } from '../../physics/mapping';
-import { boundaryReason } from './reasons';
+import { sectorReasons } from '../reasons';
 import { gridBoundaries } from './grid-boundaries';
 import { DEG_PER_RAD } from '../../physics/constants';
 import { parseUtc } from '../../physics/frames/time';
@@ -215,7 +215,7 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
   const reasonOf = (): string | null => {
     const a = asked as { h: Hemisphere; b: SectorBoundaries } | null;
     if (!a || (a.b.openClosed && a.b.equatorward)) return null;
-    return boundaryReason(a.b);
+    return sectorReasons(a.b);
   };
   const notes = [...(model ? model.warnings : []), ...(cond?.note ? [cond.note] : [])];
   const warnings = notes.length ? notes.join('; ') : null;

@@ -56,7 +56,8 @@ export const fieldCommand: CommandDef = {
     const rRe = Math.hypot(p[0], p[1], p[2]);
     const d = describePoint(f, p[0], p[1], p[2]);
     if (!inside) ctx.warn('the point lies outside the magnetopause: the model describes the field inside only');
-    if (rRe < 1) ctx.warn('the point lies below the reference sphere (r < 1 RE): the model is a source-free field outside Earth');
+    // Below the ground, not below the 6371.2 km reference sphere: the WGS84 ellipsoid lies inside that sphere poleward of ~35°, and the main field holds down to the ground.
+    if (d.altKm < -1e-6) ctx.warn(`the point lies ${(-d.altKm).toFixed(3)} km below the ground (the WGS84 ellipsoid): the model is a source-free field outside Earth`);
     const position = {
       gsmRe: [p[0], p[1], p[2]],
       rRe,

@@ -1,13 +1,17 @@
 /** `trace`: the field line through a site, its footpoints and its conjugate. */
-import { makeTracer, traceSite, type Footpoint } from '../../physics/mapping';
+import { makeTracer, traceSite, cgmPair, type Footpoint, type CgmPair } from '../../physics/mapping';
 import { describePoint } from '../../physics/trace/footpoint';
 import { writeCsv, type CsvCell } from '../../io/csv';
 import { lineFeature, pointFeature, type Feature } from '../../io/geojson';
 import { triples } from '../../io/json';
 import { CSV_DECIMALS, type CommandDef } from '../command';
-import { INPUT_RANGES } from '../common';
+import {
+  INPUT_RANGES, CONJUGATE_ALT_FLAG, CONDITION_COLUMNS, conditionCells, conjugateAltKmOf, cgmColumns, cgmCells, cgmNote, cgmJson,
+} from '../common';
 
-const FOOT_HEADER = ['role', 'hemisphere', 'geo_lat_deg', 'geo_lon_deg', 'mag_lat_deg', 'mag_lon_deg', 'mlt_h', 'alt_km',
+// mlt_h is MLT (MAG), from the centred dipole; cgm_mlt_h is MLT (CGM). ground_cgm_* is the point's CGM at 0 km below it.
+const FOOT_HEADER = [...CONDITION_COLUMNS, 'role', 'hemisphere', 'geo_lat_deg', 'geo_lon_deg', 'mag_lat_deg', 'mag_lon_deg', 'mlt_h', 'alt_km',
+  ...cgmColumns(''), ...cgmColumns('ground_'), 'cgm_note',
   'line_type', 'length_re', 'equator_r_re', 'equator_b_nt'];
 const POINT_HEADER = ['index', 'x_gsm_re', 'y_gsm_re', 'z_gsm_re', 'r_re', 'geo_lat_deg', 'geo_lon_deg', 'alt_km', 'b_nt'];
 
@@ -19,10 +23,17 @@ export const traceCommand: CommandDef = {
   usage: 'trace --lat <deg> --lon <deg> [--height-km <km>] [--coords geo|mag] [--points] [common options]',
   notes: [
     'The site is geodetic (WGS84) with --coords geo, or centred-dipole magnetic latitude and',
-    'longitude on a sphere with --coords mag. Footpoints lie at --alt-km above the ellipsoid;',
-    'use --alt-km 0 for ground conjugates. "siteFootpoint" is the footpoint on the site\'s side,',
-    '"conjugate" the one in the other hemisphere (null on open or unresolved lines).',
-    'CSV: one row per footpoint; with --points one row per line point instead.',
+    'longitude on a sphere with --coords mag. Footpoints lie at --alt-km above the ellipsoid; the',
+    'conjugate point lies at the same altitude unless --conjugate-alt-km sets it apart (one rule',
+    'for trace and batch). Use --alt-km 0 for ground conjugates. "siteFootpoint" is the footpoint',
+    'on the site\'s side, "conjugate" the one in the other hemisphere (null on open or unresolved lines).',
+    'Corrected geomagnetic (CGM) coordinates by tracing the main field (references §6) come with',
+    'the site, each footpoint and the conjugate: at the point\'s altitude and at the ground below it;',
+    'MLT (CGM) beside the centred dipole\'s MLT (MAG). Near the dipole equator CGM is undefined,',
+    'and the reason is given instead.',
+    'CSV: `#` metadata lines (time, conditions, storm index source, model switches, altitudes,',
+    'version), a header, one row per point (site, near footpoint, conjugate) with the time and',
+    'condition columns; with --points one row per line point instead.',
     'GeoJSON: the line\'s sub-point track as a LineString ([lon, lat, height m]; cut into a',
     'MultiLineString where it crosses the antimeridian) and Points for the site and footpoints.',
   ].join('\n'),
@@ -32,9 +43,10 @@ export const traceCommand: CommandDef = {
     { name: 'height-km', kind: 'number', meta: '<km>', unit: 'km', ...INPUT_RANGES.siteHeightKm, help: 'site height', defaultText: '0' },
     { name: 'coords', kind: 'enum', meta: 'geo|mag', values: ['geo', 'mag'], help: 'coordinates of --lat/--lon', defaultText: 'geo' },
     { name: 'points', kind: 'switch', help: 'include the line\'s points (GSM, RE)' },
+    CONJUGATE_ALT_FLAG,
   ],
   formats: ['json', 'csv', 'geojson'],
-  examples: ['trace --lat 62.5 --lon 25.1 --alt-km 0 --time 2025-03-20T22:00:00Z', 'trace --lat 70 --lon 0 --coords mag --points --format geojson'],
+  examples: ['trace --lat 62.5 --lon 25.1 --alt-km 0 --time 2025-03-20T22:00:00Z', 'trace --lat 64.8 --lon -19.6 --alt-km 110 --conjugate-alt-km 0 --format csv', 'trace --lat 70 --lon 0 --coords mag --points --format geojson'],
   run(ctx) {
     const lat = ctx.flags.lat as number;
     const lon = ctx.flags.lon as number;
@@ -45,6 +57,14 @@ export const traceCommand: CommandDef = {
     const model = ctx.model;
     const tracer = makeTracer(model, { altKm: ctx.altKm, ellipsoid: true });
     const line = traceSite(model, tracer, lat, lon, heightKm, coords, wantPoints || format === 'geojson');
+    const conjugateAltKm = conjugateAltKmOf(ctx.flags, ctx.altKm);
+    if (conjugateAltKm !== ctx.altKm && line.conjugate) {
+      // The same line, ended at the conjugate altitude in the far hemisphere.
+      const far = traceSite(model, makeTracer(model, { altKm: conjugateAltKm, ellipsoid: true }), lat, lon, heightKm, coords, false);
+      const i = line.footpoints.indexOf(line.conjugate);
+      line.conjugate = far.conjugate;
+      if (far.conjugate && i >= 0) line.footpoints[i] = far.conjugate;
+    }
     if (line.type === 'unresolved') ctx.warn('the line was not resolved within the step and length budget: footpoints may be missing');
     if (line.type === 'open') ctx.warn('the line is open: it has no conjugate point');
     const footpoints = [...line.footpoints].sort(byHemisphere);
@@ -58,9 +78,26 @@ export const traceCommand: CommandDef = {
     if (wantPoints && pts) fieldLine.points = pts;
     const s = line.siteGsm;
     const sd = describePoint(model.frames, s[0], s[1], s[2]);
-    const site = { latDeg: lat, lonDeg: lon, heightKm, coords, gsmRe: s, geoLatDeg: sd.geoLatDeg, geoLonDeg: sd.geoLonDeg, magLatDeg: sd.magLatDeg, mltHours: sd.mltHours };
+    // CGM of the site at its height and at the mapping altitude above it; of each footpoint at its altitude and at the ground.
+    const siteLat = coords === 'geo' ? lat : sd.geoLatDeg, siteLon = coords === 'geo' ? lon : sd.geoLonDeg;
+    const siteHeight = coords === 'geo' ? heightKm : sd.altKm;
+    const siteCgm = cgmPair(model, siteLat, siteLon, siteHeight);
+    const siteCgmAtAlt = cgmPair(model, siteLat, siteLon, ctx.altKm).atAlt;
+    const fpCgm = new Map<Footpoint, CgmPair>(footpoints.map((fp) => [fp, cgmPair(model, fp.geoLatDeg, fp.geoLonDeg, fp.altKm)]));
+    const withCgm = (fp: Footpoint | null) => {
+      if (!fp) return null;
+      const c = fpCgm.get(fp)!;
+      return { ...fp, cgm: cgmJson(c.atAlt), groundCgm: cgmJson(c.ground) };
+    };
+    const site = {
+      latDeg: lat, lonDeg: lon, heightKm, coords, gsmRe: s, geoLatDeg: sd.geoLatDeg, geoLonDeg: sd.geoLonDeg, magLatDeg: sd.magLatDeg, mltHours: sd.mltHours,
+      cgm: cgmJson(siteCgm.atAlt), cgmAtMappingAlt: { altKm: ctx.altKm, ...cgmJson(siteCgmAtAlt) },
+    };
+    fieldLine.footpoints = footpoints.map(withCgm);
+    const cond = conditionCells(model);
     return {
-      json: { site, fieldLine, siteFootpoint: line.near, conjugate: line.conjugate, evaluations: line.evals },
+      settings: { conjugateAltKm, mltLabels: { mltHours: 'MLT (MAG)', mltCgmHours: 'MLT (CGM)' } },
+      json: { site, fieldLine, siteFootpoint: withCgm(line.near), conjugate: withCgm(line.conjugate), evaluations: line.evals },
       csv: () => {
         if (wantPoints && pts) {
           const b = new Float64Array(3);
@@ -71,10 +108,16 @@ export const traceCommand: CommandDef = {
           });
           return writeCsv(POINT_HEADER, rows, { maxDecimals: CSV_DECIMALS });
         }
-        const rows = footpoints.map((fp): CsvCell[] => [
-          fp === line.conjugate ? 'conjugate' : 'near', fp.hemisphere, fp.geoLatDeg, fp.geoLonDeg, fp.magLatDeg, fp.magLonDeg, fp.mltHours, fp.altKm,
-          line.type, line.lengthRe, line.equator?.rRe, line.equator?.bNt,
-        ]);
+        const lineCells: CsvCell[] = [line.type, line.lengthRe, line.equator?.rRe, line.equator?.bNt];
+        const rows: CsvCell[][] = [[
+          ...cond, 'site', sd.magLatDeg >= 0 ? 'north' : 'south', siteLat, siteLon, sd.magLatDeg, sd.magLonDeg, sd.mltHours, siteHeight,
+          ...cgmCells(siteCgm.atAlt), ...cgmCells(siteCgm.ground), cgmNote(siteCgm.atAlt, siteCgm.ground), ...lineCells,
+        ]];
+        for (const fp of footpoints) {
+          const c = fpCgm.get(fp)!;
+          rows.push([...cond, fp === line.conjugate ? 'conjugate' : 'near', fp.hemisphere, fp.geoLatDeg, fp.geoLonDeg, fp.magLatDeg, fp.magLonDeg, fp.mltHours, fp.altKm,
+            ...cgmCells(c.atAlt), ...cgmCells(c.ground), cgmNote(c.atAlt, c.ground), ...lineCells]);
+        }
         return writeCsv(FOOT_HEADER, rows, { maxDecimals: CSV_DECIMALS });
       },
       geojson: () => {

@@ -36,11 +36,11 @@ export function shueMagnetopause(pdynNpa: number, bzNt: number, byNt = 0): Magne
   // Shue et al. (1998) JGR 103, 17691, eq. 11 (flaring).
   const alpha = (0.58 - 0.007 * bzNt) * (1 + 0.024 * Math.log(pdynNpa));
   const warnings: string[] = [];
-  // Data range of the fit: Shue et al. (1997) JGR 102, 9497.
-  if (!(bzNt > -18 && bzNt < 15)) {
+  // Data range of the fit: Shue et al. (1997) JGR 102, 9497; its edges count as inside.
+  if (!(bzNt >= -18 && bzNt <= 15)) {
     warnings.push(`magnetopause: IMF Bz ${bzNt} nT is outside the fitted range −18..15 nT of Shue et al. (1998); the surface is extrapolated`);
   }
-  if (!(pdynNpa > 0.5 && pdynNpa < 8.5)) {
+  if (!(pdynNpa >= 0.5 && pdynNpa <= 8.5)) {
     warnings.push(`magnetopause: dynamic pressure ${pdynNpa} nPa is outside the fitted range 0.5..8.5 nPa of Shue et al. (1998); the surface is extrapolated`);
   }
   if (r0Re < 2) {

@@ -31,7 +31,7 @@ export const DEFAULT_CONDITIONS: Readonly<Omit<FieldConditions, 'time'>> = Objec
   bzNt: 0,
   byNt: 0,
   tiltDeg: null,
-  internal: 'dipole' as InternalFieldKind,
+  internal: 'igrf' as InternalFieldKind,
   magnetopause: true,
   imfEfficiency: DEFAULT_IMF_EFFICIENCY,
   // On by default: the calibrated defaults (references §12) assume the tail sheet (src/physics/field/tail.ts).

@@ -10,6 +10,7 @@
  *   sweep.ts       boundaries as Pdyn or Bz varies
  *   sky.ts         where a point at altitude stands in a site's sky
  *   site-report.ts everything about one site
+ *   cgm-model.ts   corrected geomagnetic coordinates for a prepared model
  */
 export type { Footpoint, EquatorCrossing, Hemisphere } from '../trace/footpoint';
 export { makeTracer, traceGsm, type LineResult } from './lines';
@@ -24,3 +25,4 @@ export { openFluxWb, type OpenFluxOptions } from './flux';
 export { sweepBoundaries, type SweepOptions, type SweepRows } from './sweep';
 export { skyPosition, horizonCentralAngleDeg, elevationAtCentralAngleDeg, type SkyPosition } from './sky';
 export { siteReport, type SiteInput, type SiteResult, type SiteReportOptions, type BoundaryProvider } from './site-report';
+export { cgmOf, cgmPair, MLT_LABEL_CGM, MLT_LABEL_MAG, type CgmPair, type CgmResult, type CgmConverter } from './cgm-model';

@@ -179,7 +179,7 @@ describe('tail in the model: the compression fit shields internal + tail', () =>
     for (const pd of [0.5, 2, 10]) {
       for (const bz of [-10, 0, 10]) {
         for (const tilt of [-35, 0, 35]) {
-          const m = prepareModel({ time: '2025-03-20T12:00:00Z', tiltDeg: tilt, pdynNpa: pd, bzNt: bz, tail: true });
+          const m = prepareModel({ internal: 'dipole', time: '2025-03-20T12:00:00Z', tiltDeg: tilt, pdynNpa: pd, bzNt: bz, tail: true });
           const r = residual(m);
           if (tilt === 0) worst0 = Math.max(worst0, r);
           else worstTilt = Math.max(worstTilt, r);
@@ -195,7 +195,7 @@ describe('tail in the model: the compression fit shields internal + tail', () =>
   }, 60_000);
 
   it('switches: tail off gives no tail term; on adds the sheet and changes the field; default is on', () => {
-    const base = { time: '2025-03-20T12:00:00Z', pdynNpa: 2, bzNt: -2 };
+    const base = { internal: 'dipole' as const, time: '2025-03-20T12:00:00Z', pdynNpa: 2, bzNt: -2 };
     const off = prepareModel({ ...base, tail: false }), on = prepareModel({ ...base, tail: true }), def = prepareModel(base);
     expect(off.tail).toBeNull();
     expect(on.tail).not.toBeNull();
@@ -213,7 +213,7 @@ describe('openFluxWb (flux through the polar cap, derived)', () => {
     for (const [b, worked] of [[5, 0.63], [10, 0.79]]) {
       // 2020.0: B0 = 29,804.7 nT (references §2), within 0.02 % of the worked 29,800.
       // Bare Dungey superposition: no saturation, no ring current.
-      const m = prepareModel({ time: '2020-01-01T00:00:00Z', tiltDeg: 0, magnetopause: false, tail: false, imfEfficiency: 1, bzNt: -b, byNt: 0 }, { imfSaturationNt: Infinity, ringCurrent: false });
+      const m = prepareModel({ internal: 'dipole', time: '2020-01-01T00:00:00Z', tiltDeg: 0, magnetopause: false, tail: false, imfEfficiency: 1, bzNt: -b, byNt: 0 }, { imfSaturationNt: Infinity, ringCurrent: false });
       const t = makeTracer(m, { altKm: 0, ellipsoid: false });
       const [north, south] = ovalBoundaries(m, t, ['north', 'south'], mltGrid(3));
       const b0 = m.dipole.b0Nt;
@@ -231,7 +231,7 @@ describe('openFluxWb (flux through the polar cap, derived)', () => {
   }, 60_000);
 
   it('is NaN when a sector has no open–closed boundary, and rejects unequal sectors', () => {
-    const m = prepareModel({ time: '2020-01-01T00:00:00Z', tiltDeg: 0, magnetopause: false, tail: false, imfEfficiency: 0 });
+    const m = prepareModel({ internal: 'dipole', time: '2020-01-01T00:00:00Z', tiltDeg: 0, magnetopause: false, tail: false, imfEfficiency: 0 });
     const t = makeTracer(m);
     const [h] = ovalBoundaries(m, t, ['north'], mltGrid(6));
     expect(Number.isFinite(openFluxWb(m, h)), 'pure dipole: lines beyond 100 RE count as open, a small cap').toBe(true);

@@ -20,7 +20,7 @@ const DEG = Math.PI / 180;
 const lat = (b: { magLatDeg: number } | null): number => (b ? Math.abs(b.magLatDeg) : NaN);
 
 function model(c: Partial<FieldConditions>, o: ModelOptions = {}) {
-  return prepareModel({ time: TIME, tiltDeg: 0, byNt: 0, tail: true, ...c }, o);
+  return prepareModel({ time: TIME, internal: 'dipole', tiltDeg: 0, byNt: 0, tail: true, ...c }, o);
 }
 
 /** A centred dipole alone (no magnetopause, tail, IMF or ring current), footpoints on r = 1 RE. */

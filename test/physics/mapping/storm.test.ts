@@ -19,7 +19,7 @@ const OPTS = { minLatDeg: 30 };
 type Cond = Partial<FieldConditions>;
 
 function model(c: Cond, o: ModelOptions = {}) {
-  return prepareModel({ time: TIME, tiltDeg: 0, byNt: 0, tail: true, ...c }, o);
+  return prepareModel({ time: TIME, internal: 'dipole', tiltDeg: 0, byNt: 0, tail: true, ...c }, o);
 }
 const lat = (b: { magLatDeg: number } | null): number => (b ? Math.abs(b.magLatDeg) : NaN);
 
@@ -127,7 +127,7 @@ describe('storm-time boundaries (references §10)', () => {
         fc.double({ min: -30, max: 30, noNaN: true }),
         fc.double({ min: -1200, max: 50, noNaN: true }),
         (p, bz, by, dst) => {
-          const m = prepareModel({ time: TIME, pdynNpa: p, bzNt: bz, byNt: by, dstNt: dst, tail: true });
+          const m = prepareModel({ time: TIME, internal: 'dipole', pdynNpa: p, bzNt: bz, byNt: by, dstNt: dst, tail: true });
           expect(Number.isFinite(m.compression!.rmsResidualRel)).toBe(true);
           const t = makeTracer(m);
           let unresolved = 0;

@@ -21,24 +21,7 @@ export function truncationRadii(c: MainFieldCoefficients, relTol: number): Float
     for (let m = 0; m <= n; m++) sum += Math.hypot(c.g[coefIndex(n, m)], c.h[coefIndex(n, m)]);
     K[n] = Math.SQRT2 * (n + 1) * sum;
   }
-  const excess = (n: number, r: number): number => {
-    let e = 0;
-    for (let j = n; j <= N; j++) e += K[j] * Math.pow(r, -(j - 1));
-    return e - relTol * b0;
-  };
-  for (let n = 2; n <= N; n++) {
-    if (excess(n, 1) <= 0) { rCut[n] = 1; continue; }
-    let lo = 1, hi = 2;
-    while (excess(n, hi) > 0 && hi < 1e6) hi *= 2;
-    for (let i = 0; i < 60; i++) {
-      const mid = 0.5 * (lo + hi);
-      if (excess(n, mid) > 0) lo = mid; else hi = mid;
-    }
-    rCut[n] = hi;
-  }
-  // Keep rCut non-increasing in n so dropping degree n implies dropping all above it.
-  for (let n = N - 1; n >= 2; n--) rCut[n] = Math.max(rCut[n], rCut[n + 1]);
-  return rCut;
+  return cutRadii(K, N, relTol * b0, rCut);
 }
 
 /**
@@ -89,7 +72,10 @@ export function footpointTruncationRadii(c: MainFieldCoefficients, footpointTolD
   return cutRadii(U, N, relTol * b0, rCut);
 }
 
-/** Bisection for rCut[n]: Σ_{j ≥ n} U_j r^−(j−1) = limit (U_j the degree bound at r = 1), then made non-increasing in n. */
+/**
+ * Bisection for rCut[n]: Σ_{j ≥ n} U_j r^−(j−1) = limit (U_j the degree bound at r = 1), then made
+ * non-increasing in n so dropping degree n implies dropping all above it.
+ */
 function cutRadii(U: Float64Array, N: number, limit: number, rCut: Float64Array): Float64Array {
   const excess = (n: number, r: number): number => {
     let e = 0;

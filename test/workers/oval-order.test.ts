@@ -1,0 +1,43 @@
+import { describe, it, expect } from 'vitest';
+import { createEngineApi } from '../../workers/engine-api';
+import { sectorOrder } from '../../workers/channels/oval';
+import { prepareModel } from '../../src/physics/field/model';
+import { makeTracer, ovalBoundaries, mltGrid } from '../../src/physics/mapping';
+import { expectAtMost } from '../helpers';
+
+const C = { time: '2025-03-20T22:00:00Z', pdynNpa: 2, bzNt: -5, byNt: 2, internal: 'dipole' as const, magnetopause: true, imfEfficiency: 0.2, tail: true };
+const O = { altKm: 110, sourceRe: 7, mltStepHours: 1 };
+
+describe('oval channel: coarse sectors first, previous answer as hints', () => {
+  it('orders every sector once: 8 coarse ones all around the clock, then the middles of the gaps', () => {
+    const { order, coarse } = sectorOrder(48);
+    expect([...order].sort((a, b) => a - b)).toEqual([...Array(48).keys()]);
+    expect(order.slice(0, 8)).toEqual([0, 6, 12, 18, 24, 30, 36, 42]);
+    expect(order.slice(8, 16)).toEqual([3, 9, 15, 21, 27, 33, 39, 45]);
+    expect(coarse.filter(Boolean).length).toBe(8);
+    for (const n of [1, 2, 5, 24, 96]) expect(new Set(sectorOrder(n).order).size).toBe(n);
+  });
+
+  it('a hinted oval (after a pressure step) equals the plain oval loop to the search tolerance 0.01°', async () => {
+    const api = createEngineApi();
+    await api.oval(1, C, O); // becomes the hint of the next request
+    for (const [id, pdynNpa] of [[2, 6], [3, 1.5]] as const) {
+      const c = { ...C, pdynNpa };
+      const r = await api.oval(id, c, O);
+      expect(r.error).toBeUndefined();
+      const m = prepareModel(c);
+      const plain = ovalBoundaries(m, makeTracer(m, { altKm: O.altKm, ellipsoid: true }), ['north', 'south'], mltGrid(O.mltStepHours), { sourceRe: O.sourceRe });
+      plain.forEach((h, k) => {
+        const cur = r.curves[k];
+        expect(cur.hemisphere).toBe(h.hemisphere);
+        h.sectors.forEach((s, i) => {
+          for (const [got, want, what] of [[cur.openClosedMagLatDeg[i], s.openClosed?.magLatDeg, 'open–closed'], [cur.equatorwardMagLatDeg[i], s.equatorward?.magLatDeg, 'equatorward']] as const) {
+            expect(Number.isNaN(got)).toBe(want === undefined);
+            // Two searches to 0.01° each land within the tolerance of the same root (0.01° apart at most, plus rounding).
+            if (want !== undefined) expectAtMost(Math.abs(got - want), 0.0101, `${h.hemisphere} ${what} at ${s.mltHours} h, Pdyn ${pdynNpa}`);
+          }
+        });
+      });
+    }
+  });
+});

@@ -421,7 +421,7 @@ export const tracerSection: BenchSection = {
       Object.assign(detail, { speedWithTail: spTail, sceneWithTail: scTail });
     }
 
-    // --- Every term on, with a strong ring current (issue 10 performance: ≥ 10,000 closed traces/s on one core).
+    // --- Every term on, with a strong ring current (target: ≥ 10,000 closed traces/s on one core).
     if (!o.part || o.part === 'storm') {
       const sp = tracingSpeed(BENCH_CONDITIONS_STORM, ls, reps);
       o.log(`tracer: ${sp.nLines} of ${sp.nSeeds} equatorial seeds are closed (storm, ring current on)`);

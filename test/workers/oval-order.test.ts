@@ -18,11 +18,11 @@ describe('oval channel: coarse sectors first, previous answer as hints', () => {
     for (const n of [1, 2, 5, 24, 96]) expect(new Set(sectorOrder(n).order).size).toBe(n);
   });
 
-  it('a hinted oval (after a pressure step) equals the plain oval loop to the search tolerance 0.01°', async () => {
+  it('a hinted oval (after pressure and Bz steps) equals the plain oval loop to the search tolerance 0.01°', async () => {
     const api = createEngineApi();
     await api.oval(1, C, O); // becomes the hint of the next request
-    for (const [id, pdynNpa] of [[2, 6], [3, 1.5]] as const) {
-      const c = { ...C, pdynNpa };
+    for (const [id, pdynNpa, bzNt] of [[2, 6, -5], [3, 1.5, -12]] as const) {
+      const c = { ...C, pdynNpa, bzNt };
       const r = await api.oval(id, c, O);
       expect(r.error).toBeUndefined();
       const m = prepareModel(c);
@@ -34,7 +34,7 @@ describe('oval channel: coarse sectors first, previous answer as hints', () => {
           for (const [got, want, what] of [[cur.openClosedMagLatDeg[i], s.openClosed?.magLatDeg, 'open–closed'], [cur.equatorwardMagLatDeg[i], s.equatorward?.magLatDeg, 'equatorward']] as const) {
             expect(Number.isNaN(got)).toBe(want === undefined);
             // Two searches to 0.01° each land within the tolerance of the same root (0.01° apart at most, plus rounding).
-            if (want !== undefined) expectAtMost(Math.abs(got - want), 0.0101, `${h.hemisphere} ${what} at ${s.mltHours} h, Pdyn ${pdynNpa}`);
+            if (want !== undefined) expectAtMost(Math.abs(got - want), 0.0101, `${h.hemisphere} ${what} at ${s.mltHours} h, Pdyn ${pdynNpa}, Bz ${bzNt}`);
           }
         });
       });

@@ -1,40 +1,36 @@
 /**
- * The prepared model's field with its IGRF main field replaced by a truncated one
- * (prepareMainField's footpointTolDeg rule), composed term by term the way
- * src/physics/field/model.ts composes it: IMF + internal (GEO synthesis rotated to GSM)
- * + tail + compression. The compression keeps the fit made against the full field.
- * Used by the bench to time an accelerated IGRF trace before model.ts adopts the option.
+ * The reference for the IGRF footpoint check: a prepared IGRF model's field with its truncated
+ * main field (prepareMainField footpointTolDeg, as model.ts uses it) replaced by the full
+ * degree-13 synthesis, everything else (IMF, tail, ring current, compression, boundary, neutral
+ * line) unchanged: B_ref = B_model + R·(B_full − B_truncated), R the GEO → GSM rotation.
+ * Untimed (three syntheses per evaluation); the bench times model.ts itself.
  */
 import type { PreparedModel } from '../src/physics/field/model';
-import { prepareImf } from '../src/physics/field/imf';
 import { igrfCoefficients } from '../src/physics/field/mainfield/coefficients';
-import { prepareMainField, type MainFieldModel } from '../src/physics/field/mainfield/synthesis';
+import { prepareMainField } from '../src/physics/field/mainfield/synthesis';
 import type { TraceField } from '../src/physics/trace/tracer';
 
-export interface AcceleratedIgrf extends TraceField {
-  readonly mainField: MainFieldModel;
-}
+/** The footpoint tolerance model.ts truncates the IGRF synthesis with, deg. */
+export const MODEL_FOOTPOINT_TOL_DEG = 0.001;
 
-export function acceleratedIgrfField(model: PreparedModel, footpointTolDeg: number): AcceleratedIgrf {
-  if (model.conditions.internal !== 'igrf') throw new Error('acceleratedIgrfField needs a model prepared with internal "igrf"');
-  const mf = prepareMainField(igrfCoefficients(model.decimalYear, 13), { footpointTolDeg });
-  const c = model.conditions;
-  const imf = prepareImf(c.byNt, c.bzNt, c.imfEfficiency);
-  const imfBy = imf.byNt, imfBz = imf.bzNt;
+export function fullSynthesisField(model: PreparedModel, truncatedTolDeg = MODEL_FOOTPOINT_TOL_DEG): TraceField {
+  if (model.conditions.internal !== 'igrf') throw new Error('fullSynthesisField needs a model prepared with internal "igrf"');
+  const coeffs = igrfCoefficients(model.decimalYear, 13);
+  const full = prepareMainField(coeffs);
+  const truncated = prepareMainField(coeffs, { footpointTolDeg: truncatedTolDeg });
   const m = model.frames.gsmFromGeo;
-  const tail = model.tail;
-  const comp = model.compression;
+  const a = new Float64Array(3), b = new Float64Array(3);
   const evaluate = (out: Float64Array, x: number, y: number, z: number): void => {
+    model.evaluate(out, x, y, z);
     const gx = m[0] * x + m[3] * y + m[6] * z;
     const gy = m[1] * x + m[4] * y + m[7] * z;
     const gz = m[2] * x + m[5] * y + m[8] * z;
-    mf.evaluateGeo(out, gx, gy, gz);
-    const bx = out[0], by = out[1], bz = out[2];
-    out[0] = m[0] * bx + m[1] * by + m[2] * bz;
-    out[1] = m[3] * bx + m[4] * by + m[5] * bz + imfBy;
-    out[2] = m[6] * bx + m[7] * by + m[8] * bz + imfBz;
-    if (tail !== null) tail.evaluate(out, x, y, z);
-    if (comp !== null) comp.evaluate(out, x, y, z);
+    full.evaluateGeo(a, gx, gy, gz);
+    truncated.evaluateGeo(b, gx, gy, gz);
+    const dx = a[0] - b[0], dy = a[1] - b[1], dz = a[2] - b[2];
+    out[0] += m[0] * dx + m[1] * dy + m[2] * dz;
+    out[1] += m[3] * dx + m[4] * dy + m[5] * dz;
+    out[2] += m[6] * dx + m[7] * dy + m[8] * dz;
   };
-  return { evaluate, isInside: model.isInside, boundaryMinRe: model.boundaryMinRe, geoZRow: model.geoZRow, mainField: mf };
+  return { evaluate, isInside: model.isInside, boundaryMinRe: model.boundaryMinRe, geoZRow: model.geoZRow, neutralLineXRe: model.neutralLineXRe };
 }

@@ -64,6 +64,9 @@ export interface BoundaryCurve {
   equatorwardMagLatDeg: Float64Array;
   equatorwardGeoLatDeg: Float64Array;
   equatorwardGeoLonDeg: Float64Array;
+  /** Why each sector's boundary is missing (the engine search's reason; null where it was found). */
+  openClosedReason: (string | null)[];
+  equatorwardReason: (string | null)[];
 }
 
 /** What the model used for a result (the storm state it resolved, the source distance): every export's metadata. */

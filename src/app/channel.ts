@@ -3,6 +3,11 @@
  * one is in flight, and while it runs only the newest follow-up is kept
  * (older ones are never sent). An answer is applied only when its id is the
  * latest sent on this channel and the worker did not mark it stale.
+ *
+ * With `supersede` (for channels whose worker work pauses between pieces and
+ * answers { stale: true } once a newer request has arrived), a newer request is
+ * sent at once instead: the worker learns of it at its next pause and drops the
+ * older work there, instead of finishing it first.
  */
 export interface Answer {
   requestId: number;
@@ -13,7 +18,7 @@ export interface Answer {
 export class Channel<A extends Answer> {
   private nextId = 1;
   private latestSent = 0;
-  private inFlight = false;
+  private inFlight = 0;
   private queued: ((id: number) => Promise<A>) | null = null;
   dropped = 0;
 
@@ -21,11 +26,12 @@ export class Channel<A extends Answer> {
     private readonly apply: (a: A) => void,
     private readonly fail: (msg: string) => void,
     private readonly busy: (b: boolean) => void = () => {},
+    private readonly supersede = false,
   ) {}
 
   /** Ask; `call(id)` performs the worker call with that request id. */
   request(call: (id: number) => Promise<A>): void {
-    if (this.inFlight) {
+    if (this.inFlight > 0 && !this.supersede) {
       this.queued = call;
       return;
     }
@@ -39,16 +45,15 @@ export class Channel<A extends Answer> {
   private send(call: (id: number) => Promise<A>): void {
     const id = this.nextId++;
     this.latestSent = id;
-    this.inFlight = true;
-    this.busy(true);
+    if (this.inFlight++ === 0) this.busy(true);
     call(id)
       .then((a) => this.accept(a), (e: unknown) => this.fail(e instanceof Error ? e.message : String(e)))
       .finally(() => {
-        this.inFlight = false;
+        this.inFlight--;
         const q = this.queued;
         this.queued = null;
         if (q) this.send(q);
-        else this.busy(false);
+        else if (this.inFlight === 0) this.busy(false);
       });
   }
 

@@ -19,6 +19,9 @@ const SWEEP = { pdyn: { from: 0.3, to: 30, steps: 13 }, bz: { from: -20, to: 10,
 
 const OVAL_MLT_STEP_H = 0.5;
 
+/** Rest of the controls (ms) before the refined products are asked for. */
+const SETTLE_MS = 40;
+
 interface EngineClient {
   dispose(): void;
   refreshSweep(): void;
@@ -85,18 +88,27 @@ export function startEngine(makeWorker?: () => Worker): EngineClient {
   // Each answer remembers which change and which inputs it belongs to.
   const book = requestBook();
   const scene = new Channel<SceneResult>((a) => store.set({ scene: a, errors: errorsWithout('scene'), sceneSeq: book.seq('scene', a.requestId), ...book.answered('scene', a.requestId) }), reportError('scene'), reportBusy('scene'));
-  // The sweep (many model preparations) waits until the oval is idle, so the refined oval comes first.
+  // After a change the sites and the sweep (many model preparations) wait until the oval is idle,
+  // so the refined oval has the worker to itself (their work would interleave with its sectors).
   let sweepDue = false;
+  let sitesDue = false;
   const ovalBusy = reportBusy('oval');
+  // Oval, sites and sweep pause between pieces of work in the worker, so a newer request goes out at
+  // once and the older one stops at its next pause (Channel's supersede); the scene does not pause.
   const oval = new Channel<OvalResult>((a) => store.set({ oval: a, errors: errorsWithout('oval'), ovalSeq: book.seq('oval', a.requestId), ...book.answered('oval', a.requestId) }), reportError('oval'), (b) => {
     ovalBusy(b);
-    if (!b && sweepDue) {
+    if (b) return;
+    if (sitesDue) {
+      sitesDue = false;
+      askSites();
+    }
+    if (sweepDue) {
       sweepDue = false;
       askSweep();
     }
-  });
-  const sites = new Channel<SitesResult>((a) => store.set({ siteResults: a, errors: errorsWithout('sites'), ...book.answered('sites', a.requestId) }), reportError('sites'), reportBusy('sites'));
-  const sweep = new Channel<SweepResult>((a) => store.set({ sweep: a, errors: errorsWithout('sweep'), ...book.answered('sweep', a.requestId) }), reportError('sweep'), reportBusy('sweep'));
+  }, true);
+  const sites = new Channel<SitesResult>((a) => store.set({ siteResults: a, errors: errorsWithout('sites'), ...book.answered('sites', a.requestId) }), reportError('sites'), reportBusy('sites'), true);
+  const sweep = new Channel<SweepResult>((a) => store.set({ sweep: a, errors: errorsWithout('sweep'), ...book.answered('sweep', a.requestId) }), reportError('sweep'), reportBusy('sweep'), true);
 
   const askScene = () => scene.request((id) => api.scene(id, book.remember('scene', id).conditions, FAN));
   const askOval = () => oval.request((id) => {
@@ -113,15 +125,16 @@ export function startEngine(makeWorker?: () => Worker): EngineClient {
     return api.sweep(id, s.conditions, { ...productOpts(s), vary: v, ...SWEEP[v], mltHours: s.view.sweepMlt });
   });
 
-  // Refined products wait until the controls rest a moment, so dragging stays fluid.
+  // Refined products wait until the controls rest a moment (longer than the interval of a drag's
+  // input events), so dragging stays fluid; a stale oval stops at its next sector anyway.
   let settle: ReturnType<typeof setTimeout> | undefined;
   const refine = (withSweep: boolean) => {
     clearTimeout(settle);
     settle = setTimeout(() => {
       if (withSweep) sweepDue = true;
+      sitesDue = true;
       askOval();
-      askSites();
-    }, 80);
+    }, SETTLE_MS);
   };
 
   const unsub = store.subscribe((s, prev) => {
@@ -138,8 +151,8 @@ export function startEngine(makeWorker?: () => Worker): EngineClient {
 
   askScene();
   sweepDue = true;
+  sitesDue = true;
   askOval();
-  askSites();
 
   return {
     dispose() {

@@ -109,6 +109,7 @@ export function sitesCsv(sites: SiteResult[], meta?: ExportMeta): string {
 const BOUNDARY_HEADER = [
   'hemisphere', 'mlt_h', 'open_closed_mag_lat_deg', 'open_closed_geo_lat_deg', 'open_closed_geo_lon_deg',
   'equatorward_mag_lat_deg', 'equatorward_geo_lat_deg', 'equatorward_geo_lon_deg',
+  'open_closed_missing_reason', 'equatorward_missing_reason',
 ];
 
 export function boundariesCsv(curves: BoundaryCurve[], meta?: ExportMeta): string {
@@ -118,6 +119,7 @@ export function boundariesCsv(curves: BoundaryCurve[], meta?: ExportMeta): strin
       rows.push([
         c.hemisphere, r(c.mltHours[i], 3), r(c.openClosedMagLatDeg[i], 4), r(c.openClosedGeoLatDeg[i], 4), r(c.openClosedGeoLonDeg[i], 4),
         r(c.equatorwardMagLatDeg[i], 4), r(c.equatorwardGeoLatDeg[i], 4), r(c.equatorwardGeoLonDeg[i], 4),
+        c.openClosedReason?.[i] ?? null, c.equatorwardReason?.[i] ?? null,
       ]);
   return (meta ? csvMetadataLines(meta) : '') + writeCsv(BOUNDARY_HEADER, rows);
 }
@@ -175,6 +177,8 @@ export function fullJson(meta: ExportMeta, sites: SiteResult[], curves: Boundary
       equatorward_mag_lat_deg: arr(c.equatorwardMagLatDeg, 4),
       equatorward_geo_lat_deg: arr(c.equatorwardGeoLatDeg, 4),
       equatorward_geo_lon_deg: arr(c.equatorwardGeoLonDeg, 4),
+      open_closed_missing_reason: c.openClosedReason,
+      equatorward_missing_reason: c.equatorwardReason,
     })),
     sweep: sweep && {
       vary: sweep.vary,

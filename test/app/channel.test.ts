@@ -45,3 +45,28 @@ describe('request channel', () => {
     expect(ch.dropped).toBe(2);
   });
 });
+
+describe('request channel that supersedes', () => {
+  it('sends a newer request at once, applies only the newest answer, and is busy until all are back', async () => {
+    const applied: number[] = [];
+    const busy: boolean[] = [];
+    const ch = new Channel<Answer & { v: number }>((a) => applied.push(a.v), () => {}, (b) => busy.push(b), true);
+    const calls: { id: number; d: ReturnType<typeof deferred<Answer & { v: number }>> }[] = [];
+    const call = (id: number) => {
+      const d = deferred<Answer & { v: number }>();
+      calls.push({ id, d });
+      return d.promise;
+    };
+    ch.request(call);
+    ch.request(call);
+    expect(calls.length).toBe(2); // both went out: the worker stops the first at its next pause
+    calls[0].d.resolve({ requestId: calls[0].id, stale: true, v: 1 });
+    await new Promise((r) => setTimeout(r, 0));
+    expect(busy).toEqual([true]);
+    calls[1].d.resolve({ requestId: calls[1].id, v: 2 });
+    await new Promise((r) => setTimeout(r, 0));
+    expect(applied).toEqual([2]);
+    expect(busy).toEqual([true, false]);
+    expect(ch.dropped).toBe(1);
+  });
+});

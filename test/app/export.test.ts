@@ -35,10 +35,12 @@ describe('CSV export', () => {
       hemisphere: 'north', mltHours: Float64Array.from([0, 12]),
       openClosedMagLatDeg: Float64Array.from([70, NaN]), openClosedGeoLatDeg: Float64Array.from([68, NaN]), openClosedGeoLonDeg: Float64Array.from([10, NaN]),
       equatorwardMagLatDeg: Float64Array.from([65, 72]), equatorwardGeoLatDeg: Float64Array.from([63, 74]), equatorwardGeoLonDeg: Float64Array.from([12, -170]),
+      openClosedReason: [null, 'no closed lines at this MLT'], equatorwardReason: [null, null],
     };
     const rows = readCsv(boundariesCsv([c]));
     expect(rows.length).toBe(3);
     expect(rows[2][2]).toBe('');
+    expect(rows[2][8], 'an empty boundary carries the engine search\'s reason').toBe('no closed lines at this MLT');
     const gj = boundariesGeoJson([c], meta);
     expect(geoJsonProblems(gj)).toEqual([]);
   });

@@ -62,6 +62,7 @@ describe('display geometry', () => {
       hemisphere: 'north', mltHours: Float64Array.from([0, 6, 12, 18]),
       openClosedMagLatDeg: new Float64Array(n), openClosedGeoLatDeg: Float64Array.from([75, 76, NaN, 74]), openClosedGeoLonDeg: Float64Array.from([0, 90, 180, -90]),
       equatorwardMagLatDeg: new Float64Array(n), equatorwardGeoLatDeg: Float64Array.from([65, 66, 70, 64]), equatorwardGeoLonDeg: Float64Array.from([0, 90, 180, -90]),
+      openClosedReason: [null, null, 'no closed lines at this MLT', null], equatorwardReason: [null, null, null, null],
     };
     const m = ovalBandMesh(c, 1.02);
     expect(m.index.length).toBe(2 * 6); // sectors 0→1 and 3→0 only

@@ -43,8 +43,7 @@ function useWidth(fallback: number): [React.RefObject<HTMLDivElement | null>, nu
 }
 
 function reasonAt(curve: BoundaryCurve, which: 'openClosed' | 'equatorward', i: number): string {
-  const arr = (curve as unknown as Record<string, ArrayLike<string | null> | undefined>)[`${which}Reason`];
-  const r = arr?.[i];
+  const r = (which === 'openClosed' ? curve.openClosedReason : curve.equatorwardReason)?.[i];
   return typeof r === 'string' && r.trim() !== '' ? r : 'not found';
 }
 

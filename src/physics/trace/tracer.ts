@@ -11,9 +11,13 @@
  *
  * Stop rules:
  *  - footpoint: the line crosses the stop surface going down; the crossing is
- *    located by secant iteration (kept inside a bracket) on the length of a
- *    partial RK4 step, so the footpoint lies on the surface to 1e-10 RE, not at
- *    the last full step;
+ *    located by secant iteration (kept inside a bracket) on the cubic Hermite
+ *    curve of the finished step (its two end points and unit tangents, no field
+ *    evaluations), so the footpoint lies on the surface to 1e-10 RE, not at the
+ *    last full step; the field is then evaluated once at the landed point. The
+ *    Hermite curve's error is O(h⁴) like RK4's global error (the 16× convergence
+ *    test and the dipole worked values in test/physics/trace/tracer.test.ts hold);
+ *  - a seed on the stop surface (within 1e-10 RE) is its own footpoint;
  *  - open: the line leaves through the magnetopause, passes rMaxRe, or reaches tailward of
  *    the field's distant neutral line (`neutralLineXRe`);
  *  - unresolved: the step or length budget is exhausted (reported, never dropped).
@@ -67,13 +71,8 @@ const DEFAULT_TRACE_OPTIONS: Readonly<TraceOptions> = Object.freeze({
   maxLengthRe: 1000,
 });
 
-/** Result of one half-trace (one direction from the seed). */
-interface HalfTrace {
-  end: number;
-  nPoints: number;
-  lengthRe: number;
-  evals: number;
-}
+/** A seed this close to the stop surface (RE) is on it: the footpoint precision of the landing. */
+const SURFACE_TOL_RE = 1e-10;
 
 /**
  * Preallocated tracer. One instance per thread; not re-entrant. Points of the
@@ -104,6 +103,12 @@ export class Tracer {
   private opts: TraceOptions;
   private readonly field: TraceField;
   private rStopSphere = 1;
+  /** Largest stop radius over the globe (RE), and the radius beyond which the stop surface cannot matter this step. */
+  private rStopMax = 1;
+  private rStopFar = 1;
+  /** Result of the last half-trace (no record allocated per half). */
+  private halfN = 0;
+  private halfLength = 0;
 
   constructor(field: TraceField, options: Partial<TraceOptions> = {}) {
     this.field = field;
@@ -122,6 +127,10 @@ export class Tracer {
     o.maxSteps = Math.min(o.maxSteps, this.capacity - 2);
     this.opts = o;
     this.rStopSphere = 1 + o.altKm / RE_KM;
+    // The ellipsoid's radius is largest on the equator (a > b).
+    this.rStopMax = o.ellipsoid ? ellipsoidRadiusRe(0, o.altKm) : this.rStopSphere;
+    // Beyond rStopMax + hMax neither a crossing within one step nor the near-surface step cap can happen.
+    this.rStopFar = this.rStopMax + o.hMaxRe + 1e-9;
   }
 
   get options(): Readonly<TraceOptions> {
@@ -145,10 +154,10 @@ export class Tracer {
     this.evals = 0;
     const cap = this.capacity;
     // −B half: stored reversed at the front of points.
-    const m = this.traceHalf(x, y, z, -1);
-    this.endMinus = m.end;
+    const endM = this.traceHalf(x, y, z, -1);
+    this.endMinus = endM;
     const upM = this.upIndex;
-    const nm = m.nPoints;
+    const nm = this.halfN;
     const pts = this.points;
     const bm = this.bMag;
     const half = this.half;
@@ -161,15 +170,16 @@ export class Tracer {
       pts[3 * i + 2] = half[3 * j + 2];
       bm[i] = hb[j];
     }
-    let lengthRe = m.lengthRe;
-    const p = this.traceHalf(x, y, z, 1);
-    this.endPlus = p.end;
+    let lengthRe = this.halfLength;
+    const endP = this.traceHalf(x, y, z, 1);
+    this.endPlus = endP;
     const upP = this.upIndex;
-    lengthRe += p.lengthRe;
+    const np = this.halfN;
+    lengthRe += this.halfLength;
     // Append the +B half, skipping its seed when the −B half already holds it.
-    const skip = nm > 0 && p.nPoints > 0 ? 1 : 0;
+    const skip = nm > 0 && np > 0 ? 1 : 0;
     let n = nm;
-    for (let i = skip; i < p.nPoints && n < 2 * cap; i++, n++) {
+    for (let i = skip; i < np && n < 2 * cap; i++, n++) {
       pts[3 * n] = half[3 * i];
       pts[3 * n + 1] = half[3 * i + 1];
       pts[3 * n + 2] = half[3 * i + 2];
@@ -179,27 +189,33 @@ export class Tracer {
     this.nPoints = n;
     // Footpoint indices: the −B end is point 0, the +B end is point n−1; a
     // start below the surface takes the upward crossing of the other half.
-    this.footMinus = m.end === END_SURFACE ? 0 : m.end === END_START_BELOW && upP >= 0 ? nm + upP - skip : -1;
-    this.footPlus = p.end === END_SURFACE ? n - 1 : p.end === END_START_BELOW && upM >= 0 ? nm - 1 - upM : -1;
+    this.footMinus = endM === END_SURFACE ? 0 : endM === END_START_BELOW && upP >= 0 ? nm + upP - skip : -1;
+    this.footPlus = endP === END_SURFACE ? n - 1 : endP === END_START_BELOW && upM >= 0 ? nm - 1 - upM : -1;
     this.lengthRe = lengthRe;
-    return classify(m.end, p.end);
+    return classify(endM, endP);
   }
 
   /**
    * One direction (sign +1 along B, −1 against) into this.half. Returns the
-   * end state. Allocation-free apart from the returned record.
+   * end state; the point count and length are left in halfN and halfLength,
+   * the index of an upward surface crossing in upIndex. Allocation-free.
    */
-  private traceHalf(x0: number, y0: number, z0: number, sign: number): HalfTrace {
+  private traceHalf(x0: number, y0: number, z0: number, sign: number): number {
     const o = this.opts;
     const f = this.field;
     const b = this.b;
     const out = this.half;
     const outB = this.halfB;
     const maxSteps = o.maxSteps;
+    const stepFactor = o.stepFactor, hMin = o.hMinRe, hMax = o.hMaxRe;
+    const rMax = o.rMaxRe, maxLength = o.maxLengthRe;
+    const rFar = this.rStopFar, rStopMax = this.rStopMax;
     let x = x0, y = y0, z = z0;
     let evals = 0;
     let length = 0;
     let n = 0;
+    this.upIndex = -1;
+    this.halfLength = 0;
     // Start state: below the stop surface?
     let r = Math.sqrt(x * x + y * y + z * z);
     let rStop = this.stopRadius(x, y, z);
@@ -208,73 +224,84 @@ export class Tracer {
     let bx = b[0], by = b[1], bz = b[2];
     let bmag = Math.sqrt(bx * bx + by * by + bz * bz);
     out[0] = x; out[1] = y; out[2] = z; outB[0] = bmag; n = 1;
+    this.halfN = 1;
     if (!(bmag > 0)) {
       this.evals += evals;
-      return { end: END_BUDGET, nPoints: n, lengthRe: 0, evals };
+      return END_BUDGET;
     }
-    // dr/ds along the chosen direction.
-    let below = r <= rStop + 1e-12;
+    // A seed on the surface (to the footpoint precision) is its own footpoint.
+    const onSurface = Math.abs(r - rStop) <= SURFACE_TOL_RE;
+    let below = r <= rStop + 1e-12 || onSurface;
+    // The first step from a seed on the surface going up is not capped by its (zero) height.
+    let firstCapped = 0;
     if (below) {
       const drds = (sign * (x * bx + y * by + z * bz)) / (bmag * r);
       if (drds <= 0) {
         this.evals += evals;
-        return { end: END_START_BELOW, nPoints: 1, lengthRe: 0, evals };
+        return END_START_BELOW;
+      }
+      if (onSurface) {
+        this.upIndex = 0;
+        below = false;
+        firstCapped = 1;
       }
     }
     let end = END_BUDGET;
-    this.upIndex = -1;
     const bMin = f.boundaryMinRe;
     const xNeutral = f.neutralLineXRe ?? -Infinity;
     for (let step = 0; step < maxSteps; step++) {
-      let h = o.stepFactor * r;
-      if (h < o.hMinRe) h = o.hMinRe;
-      else if (h > o.hMaxRe) h = o.hMaxRe;
+      let h = stepFactor * r;
+      if (h < hMin) h = hMin;
+      else if (h > hMax) h = hMax;
       // Keep the step from jumping deep below the surface near the footpoint.
-      if (!below && r - rStop < h && r > rStop) {
-        const hs = 2 * (r - rStop) + o.hMinRe;
+      if (!below && r - rStop < h && r > rStop && step >= firstCapped) {
+        const hs = 2 * (r - rStop) + hMin;
         if (hs < h) h = hs;
       }
       // One RK4 step (stage 1 uses the field already at (x, y, z)).
       evals += this.rk4Step(x, y, z, bx, by, bz, bmag, sign, h);
       const nx = this.stepEndX, ny = this.stepEndY, nz = this.stepEndZ;
       const nr = Math.sqrt(nx * nx + ny * ny + nz * nz);
-      const nStop = this.stopRadius(nx, ny, nz);
-      if (nr <= nStop && !below) {
-        // Crossed the surface going down: find the partial step that lands on it.
-        evals += this.landOnSurface(x, y, z, bx, by, bz, bmag, sign, h, r - rStop, nr - nStop);
-        this.storeStepEnd(n++);
-        length += this.stepEndH;
-        end = END_SURFACE;
-        break;
-      }
-      if (below && nr > nStop) {
-        // Crossed the surface going up (start below it): record the exact near footpoint.
-        evals += this.landOnSurface(x, y, z, bx, by, bz, bmag, sign, h, r - rStop, nr - nStop);
+      // Far from the surface its exact radius cannot matter (see rStopFar).
+      const nStop = nr < rFar ? this.stopRadius(nx, ny, nz) : rStopMax;
+      // The field at the step end: the next step's first stage, and the Hermite curve's end tangent.
+      f.evaluate(b, nx, ny, nz);
+      evals++;
+      const ebx = b[0], eby = b[1], ebz = b[2];
+      const ebmag = Math.sqrt(ebx * ebx + eby * eby + ebz * ebz);
+      if (below ? nr > nStop : nr <= nStop) {
+        // Crossed the surface (down: the footpoint; up: a seed below it): land on the step's Hermite curve.
+        evals += this.landOnSurface(x, y, z, bx, by, bz, bmag, nx, ny, nz, ebx, eby, ebz, ebmag, sign, h, r - rStop);
+        if (!below) {
+          this.storeStepEnd(n++);
+          length += this.stepEndH;
+          end = END_SURFACE;
+          break;
+        }
         this.upIndex = n;
         this.storeStepEnd(n++);
         below = false;
       }
       x = nx; y = ny; z = nz; r = nr; rStop = nStop;
       length += h;
-      f.evaluate(b, x, y, z);
-      evals++;
-      bx = b[0]; by = b[1]; bz = b[2];
-      bmag = Math.sqrt(bx * bx + by * by + bz * bz);
+      bx = ebx; by = eby; bz = ebz; bmag = ebmag;
       out[3 * n] = x; out[3 * n + 1] = y; out[3 * n + 2] = z; outB[n] = bmag;
       n++;
       if (r >= bMin && !f.isInside(x, y, z)) { end = END_MAGNETOPAUSE; break; }
-      if (r > o.rMaxRe || x < xNeutral) { end = END_DISTANCE; break; }
-      if (length > o.maxLengthRe) { end = END_BUDGET; break; }
+      if (r > rMax || x < xNeutral) { end = END_DISTANCE; break; }
+      if (length > maxLength) { end = END_BUDGET; break; }
       if (!(bmag > 0)) { end = END_BUDGET; break; }
     }
     this.evals += evals;
-    return { end, nPoints: n, lengthRe: length, evals };
+    this.halfN = n;
+    this.halfLength = length;
+    return end;
   }
 
   /** Index (in the half) of the upward surface crossing of the last half-trace, or −1. */
   private upIndex = -1;
   // End of the last rk4Step (scratch, not re-entrant); after landOnSurface, the landing
-  // point, |B| there (stepEndB) and the partial step length (stepEndH).
+  // point, |B| there (stepEndB) and the arc length from the step's start (stepEndH).
   private stepEndX = 0;
   private stepEndY = 0;
   private stepEndZ = 0;
@@ -283,33 +310,54 @@ export class Tracer {
   private readonly lb = new Float64Array(3);
 
   /**
-   * Secant iteration, kept inside the bracket (bisection when a secant step leaves it),
-   * on the partial step length t ∈ (0, h] so that one RK4 step of length t from
-   * (x, y, z) ends on the stop surface. g(t) = r(t) − rStop(t); g0 = g(0) and
-   * gh = g(h) have opposite signs. Leaves the landing point in stepEnd{X,Y,Z},
-   * |B| there in stepEndB and t in stepEndH. Returns the evaluations used.
+   * Landing on the stop surface within a finished step of length h from P0 = (x, y, z)
+   * (field bx, by, bz) to P1 = (ex, ey, ez) (field ebx, eby, ebz): the step's cubic Hermite
+   * curve p(s), s ∈ [0, 1], matches both points and both unit tangents (times h), so it
+   * follows the line to O(h⁴) with s·h its arc length to the same order (Hermite
+   * interpolation of an arc-length-parameterised curve). Secant iteration, kept inside the
+   * bracket (bisection when a secant step leaves it), on g(s) = |p(s)| − rStop(p(s)); g0 = g(0)
+   * and g(1) have opposite signs. No field evaluations but one at the landed point. Leaves the
+   * point in stepEnd{X,Y,Z}, |B| there in stepEndB and s·h in stepEndH; returns 1 (evaluations).
    */
-  private landOnSurface(x: number, y: number, z: number, bx: number, by: number, bz: number, bmag: number, sign: number, h: number, g0: number, gh: number): number {
-    let evals = 0;
-    let lo = 0, glo = g0, hi = h, ghi = gh;
-    let t = h * (g0 / (g0 - gh));
-    for (let it = 0; it < 30; it++) {
-      evals += this.rk4Step(x, y, z, bx, by, bz, bmag, sign, t);
-      const r = Math.sqrt(this.stepEndX * this.stepEndX + this.stepEndY * this.stepEndY + this.stepEndZ * this.stepEndZ);
-      const g = r - this.stopRadius(this.stepEndX, this.stepEndY, this.stepEndZ);
-      if (Math.abs(g) < 1e-11 || hi - lo < 1e-13) break;
-      if ((g > 0) === (glo > 0)) { lo = t; glo = g; } else { hi = t; ghi = g; }
-      // Secant within the bracket (the function is near-linear at this scale).
-      let tn = lo + (hi - lo) * (glo / (glo - ghi));
-      if (!(tn > lo && tn < hi)) tn = 0.5 * (lo + hi);
-      t = tn;
+  private landOnSurface(
+    x: number, y: number, z: number, bx: number, by: number, bz: number, bmag: number,
+    ex: number, ey: number, ez: number, ebx: number, eby: number, ebz: number, ebmag: number,
+    sign: number, h: number, g0: number,
+  ): number {
+    // Tangents scaled by the step length (dp/ds); a vanished end field falls back to the start tangent.
+    const m0 = (sign * h) / bmag;
+    const t0x = bx * m0, t0y = by * m0, t0z = bz * m0;
+    let t1x = t0x, t1y = t0y, t1z = t0z;
+    if (ebmag > 0) {
+      const m1 = (sign * h) / ebmag;
+      t1x = ebx * m1; t1y = eby * m1; t1z = ebz * m1;
     }
-    this.stepEndH = t;
+    const er = Math.sqrt(ex * ex + ey * ey + ez * ez);
+    const g1 = er - this.stopRadius(ex, ey, ez);
+    let lo = 0, glo = g0, hi = 1, ghi = g1;
+    let s = g0 / (g0 - g1);
+    if (!(s > 0 && s < 1)) s = 0.5;
+    let px = x, py = y, pz = z;
+    for (let it = 0; it < 60; it++) {
+      const s2 = s * s, s3 = s2 * s;
+      const h00 = 2 * s3 - 3 * s2 + 1, h10 = s3 - 2 * s2 + s, h01 = 1 - h00, h11 = s3 - s2;
+      px = h00 * x + h10 * t0x + h01 * ex + h11 * t1x;
+      py = h00 * y + h10 * t0y + h01 * ey + h11 * t1y;
+      pz = h00 * z + h10 * t0z + h01 * ez + h11 * t1z;
+      const g = Math.sqrt(px * px + py * py + pz * pz) - this.stopRadius(px, py, pz);
+      if (Math.abs(g) < 1e-11 || hi - lo < 1e-15) break;
+      if ((g > 0) === (glo > 0)) { lo = s; glo = g; } else { hi = s; ghi = g; }
+      // Secant within the bracket (the function is near-linear at this scale).
+      let sn = lo + (hi - lo) * (glo / (glo - ghi));
+      if (!(sn > lo && sn < hi)) sn = 0.5 * (lo + hi);
+      s = sn;
+    }
+    this.stepEndX = px; this.stepEndY = py; this.stepEndZ = pz;
+    this.stepEndH = s * h;
     const lb = this.lb;
-    this.field.evaluate(lb, this.stepEndX, this.stepEndY, this.stepEndZ);
-    evals++;
+    this.field.evaluate(lb, px, py, pz);
     this.stepEndB = Math.sqrt(lb[0] * lb[0] + lb[1] * lb[1] + lb[2] * lb[2]);
-    return evals;
+    return 1;
   }
 
   /** Store the landing point (stepEnd{X,Y,Z}, stepEndB) as point n of the half. */
@@ -319,7 +367,7 @@ export class Tracer {
     this.halfB[n] = this.stepEndB;
   }
 
-  /** One RK4 step of length t from (x, y, z) (field bx, by, bz there) into stepEnd{X,Y,Z}; 3 evaluations. Used for every step and for the partial landing steps. */
+  /** One RK4 step of length t from (x, y, z) (field bx, by, bz there) into stepEnd{X,Y,Z}; 3 evaluations. */
   private rk4Step(x: number, y: number, z: number, bx: number, by: number, bz: number, bmag: number, sign: number, t: number): number {
     const f = this.field;
     const b = this.lb;

@@ -145,3 +145,48 @@ describe('stop rules', () => {
     expect(new Tracer(field).trace(3, 0, 0)).toBe(LINE_UNRESOLVED);
   });
 });
+
+describe('landing and seeds on the stop surface', () => {
+  it('a seed on the stop surface is its own footpoint, and the far footpoint is the dipole conjugate (references §1, derived)', () => {
+    const t = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 110 });
+    const rStop = 1 + 110 / RE_KM;
+    for (const latDeg of [55, 65, 72]) {
+      const lat = latDeg * RAD_PER_DEG;
+      const x = rStop * Math.cos(lat), z = rStop * Math.sin(lat);
+      expect(t.trace(x, 0, z)).toBe(LINE_CLOSED);
+      // The northern seed: the +B half goes down at once, the −B half starts at the seed itself.
+      expect(t.footPlus).toBe(t.seedIndex);
+      const p = t.points, i = t.footPlus;
+      expect([p[3 * i], p[3 * i + 1], p[3 * i + 2]]).toEqual([x, 0, z]);
+      // Dipole: the conjugate footpoint at the same height has the opposite latitude.
+      expectClose(latOf(p, t.footMinus), -latDeg, 3e-4, `conjugate of ${latDeg}° (same L, same height)`);
+      expectClose(Math.hypot(p[3 * t.footMinus], p[3 * t.footMinus + 1], p[3 * t.footMinus + 2]), rStop, 1e-10, 'far footpoint radius');
+    }
+  });
+
+  it('the Hermite landing agrees with a fine-step trace: footpoint error falls with the step like RK4 (derived: both O(h⁴))', () => {
+    // Footpoint latitude error against the analytic dipole (references §1) with a coarse and a halved step; the
+    // landing happens on the last step's cubic Hermite curve, so a landing error of lower order would show here.
+    const L = 7.3;
+    const exact = Math.acos(Math.sqrt((1 + 110 / RE_KM) / L)) * DEG_PER_RAD;
+    const err = (sf: number) => {
+      const t = new Tracer(dipoleOnly(), { ellipsoid: false, altKm: 110, stepFactor: sf, hMaxRe: 10 });
+      t.trace(L, 0, 0);
+      return Math.max(Math.abs(latOf(t.points, t.footPlus) - exact), Math.abs(latOf(t.points, t.footMinus) + exact));
+    };
+    const order = Math.log2(err(0.16) / err(0.08));
+    expectBetween(order, 3.3, 4.7, 'observed order 0.16→0.08 including the landing');
+  });
+
+  it('counts one evaluation per landing beyond the crossing step (no repeated partial steps)', () => {
+    let evals = 0;
+    const f = dipoleOnly();
+    const counting: TraceField = { ...f, evaluate(o, x, y, z) { evals++; f.evaluate(o, x, y, z); } };
+    const t = new Tracer(counting, { ellipsoid: false, altKm: 110 });
+    t.trace(5, 0, 0);
+    expect(t.evals).toBe(evals);
+    // Each half: 1 at the seed + 4 per full step (3 stages + the step end) + 1 at the landed point.
+    const steps = t.nPoints - 1 - 2; // points beyond the seed, less the two landed footpoints
+    expect(evals).toBe(2 + 4 * (steps + 2) + 2);
+  });
+});

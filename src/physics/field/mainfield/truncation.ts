@@ -72,7 +72,10 @@ export function footpointTruncationRadii(c: MainFieldCoefficients, footpointTolD
   return cutRadii(U, N, relTol * b0, rCut);
 }
 
-/** Bisection for rCut[n]: Σ_{j ≥ n} U_j r^−(j−1) = limit (U_j the degree bound at r = 1), then made non-increasing in n. */
+/**
+ * Bisection for rCut[n]: Σ_{j ≥ n} U_j r^−(j−1) = limit (U_j the degree bound at r = 1), then made
+ * non-increasing in n so dropping degree n implies dropping all above it.
+ */
 function cutRadii(U: Float64Array, N: number, limit: number, rCut: Float64Array): Float64Array {
   const excess = (n: number, r: number): number => {
     let e = 0;

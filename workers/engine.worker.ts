@@ -29,6 +29,7 @@ const api: EngineApi = {
   oval: (id, c, o) => withTransfer(inner.oval(id, c, o)),
   sites: (id, c, o, s) => withTransfer(inner.sites(id, c, o, s)),
   sweep: (id, c, o) => withTransfer(inner.sweep(id, c, o)),
+  timeline: (id, b, st, o, s, p) => inner.timeline(id, b, st, o, s, p),
 };
 
 expose(api, self as unknown as Endpoint);

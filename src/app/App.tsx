@@ -8,6 +8,7 @@ import { ExportPanel } from './panels/ExportPanel';
 import { Caution } from './panels/Caution';
 import { Warnings } from './panels/Warnings';
 import { ViewBar } from './panels/ViewBar';
+import { TimelinePanel } from './panels/TimelinePanel';
 import { useStore } from './store';
 
 export function App() {
@@ -31,6 +32,7 @@ export function App() {
       </main>
       <div className="sites-area">
         <SitesPanel />
+        <TimelinePanel />
       </div>
       <aside className="right">
         <PolarMaps />

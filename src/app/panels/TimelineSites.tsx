@@ -21,7 +21,10 @@ function fmt(v: number | null | undefined, d: number): string {
 
 /** The cell at the cursor in words. */
 function cellText(c: TimelineCell): string {
-  const rel = c.ovalRelation === 'unknown' ? 'oval relation unknown' : `${c.ovalRelation === 'inside' ? 'inside the oval' : `${c.ovalRelation} of the oval`}${c.ovalMarginDeg === null ? '' : ` by ${fmt(c.ovalMarginDeg, 2)}°`}`;
+  const m = c.ovalMarginDeg === null ? '' : fmt(c.ovalMarginDeg, 2);
+  const rel = c.ovalRelation === 'unknown' ? 'oval relation unknown'
+    : c.ovalRelation === 'inside' ? `inside the oval${m ? `, ${m}° from its nearer edge` : ''}`
+      : `${c.ovalRelation} of the oval${m ? ` by ${m}°` : ''}`;
   const sky = c.ovalElevationDeg === null ? 'no oval point in the sky' : `nearest oval point at elevation ${fmt(c.ovalElevationDeg, 1)}°, azimuth ${fmt(c.ovalAzimuthDeg, 0)}°`;
   const sun = `Sun ${fmt(c.sunElevationDeg, 1)}° (${c.twilight}), ${c.dark ? 'dark' : 'not dark'}`;
   const moon = `Moon ${fmt(c.moonElevationDeg, 1)}°, ${Math.round(c.moonIlluminatedFraction * 100)} % lit`;

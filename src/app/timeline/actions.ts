@@ -32,13 +32,16 @@ export function loadFile(file: File): Promise<void> {
   return useLoad(() => loadSeriesBlob(file, file.name));
 }
 
+/** The demo files as text, each its own chunk loaded on first use (Vite's glob import with the raw query). */
+const DEMO_FILES = import.meta.glob<string>(['../../../examples/demo-storm.csv', '../../../examples/demo-storm-hourly.txt'], { query: '?raw', import: 'default' });
+
 /** The invented demo storm (our own numbers), in our CSV or as the community hourly file. */
 export function loadDemo(which: 'csv' | 'hourly' = 'csv'): Promise<void> {
   return useLoad(async () => {
-    const text = which === 'csv'
-      ? (await import('../../../examples/demo-storm.csv?raw')).default
-      : (await import('../../../examples/demo-storm-hourly.txt?raw')).default;
-    return loadSeriesText(which === 'csv' ? 'demo-storm.csv' : 'demo-storm-hourly.txt', text);
+    const name = which === 'csv' ? 'demo-storm.csv' : 'demo-storm-hourly.txt';
+    const load = DEMO_FILES[`../../../examples/${name}`];
+    if (!load) throw new Error(`the demo file ${name} is missing from this build`);
+    return loadSeriesText(name, await load());
   });
 }
 

@@ -105,3 +105,26 @@ describe('timeline export', () => {
     expect(timelineFileName(steps.slice(0, 1), 'json')).toBe('fieldline-atlas-timeline-20271014T2000Z.json');
   });
 });
+
+describe('timeline cursor', () => {
+  it('sets the app conditions from the series row, and in a night keeps the night where it started', async () => {
+    const { store } = await import('../../src/app/store');
+    const { timelineStore } = await import('../../src/app/timeline/state');
+    const { moveCursor, unloadSeries } = await import('../../src/app/timeline/actions');
+    const series = await loadSeriesText('demo-storm.csv', readFileSync(resolve(EXAMPLES, 'demo-storm.csv'), 'utf8'));
+    timelineStore.set({ series });
+    moveCursor(22);
+    const c = store.get().conditions;
+    const row = series.steps[22];
+    expect([c.time, c.pdynNpa, c.bzNt, c.byNt, c.dstNt, c.speedKms]).toEqual([row.time, row.pdynNpa, row.bzNt, row.byNt, row.dstNt, row.speedKms]);
+    moveCursor(500);
+    expect(timelineStore.get().cursor).toBe(71);
+    unloadSeries();
+    // Night: from the current time's hour (2027-10-16T23:00Z after the last step), 30-min steps.
+    moveCursor(3);
+    expect(store.get().conditions.time).toBe('2027-10-17T00:30:00Z');
+    moveCursor(5);
+    expect(store.get().conditions.time).toBe('2027-10-17T01:30:00Z');
+    expect(timelineStore.get().night.startIso).toBe('2027-10-16T23:00:00Z');
+  });
+});

@@ -67,7 +67,8 @@ export function moveCursor(i: number): void {
   }
   const times = nightTimesMs(t.night, c);
   const k = Math.max(0, Math.min(times.length - 1, Math.round(i)));
-  timelineStore.set({ cursor: k });
+  // Pin the night's start before the cursor moves the time it was taken from.
+  timelineStore.set(t.night.startIso ? { cursor: k } : { cursor: k, night: { ...t.night, startIso: isoUtc(times[0]) } });
   setConditions({ time: isoUtc(times[k]) });
 }
 

@@ -10,7 +10,7 @@ import type { EngineApi, TimelineResult } from '../../../workers/protocol';
 import { Channel } from '../channel';
 import { store, type AppState } from '../store';
 import { timelineStore, type TimelineState } from './state';
-import { timelineSteps } from './steps';
+import { nightStartMs, timelineSteps } from './steps';
 
 /** Wait this long after the last change before asking (typing a night length, editing sites). */
 const SETTLE_MS = 250;
@@ -20,7 +20,7 @@ function requestKey(t: TimelineState, s: AppState): string {
   const c = s.conditions;
   const base = { internal: c.internal, magnetopause: c.magnetopause, imfEfficiency: c.imfEfficiency, tail: c.tail, tiltDeg: c.tiltDeg };
   // A series fixes every step; a night follows the current solar wind (not the cursor's time).
-  const wind = t.series ? null : { p: c.pdynNpa, bz: c.bzNt, by: c.byNt, dst: c.dstNt, v: c.speedKms, night: t.night, start: t.night.startIso ? '' : c.time.slice(0, 13) };
+  const wind = t.series ? null : { p: c.pdynNpa, bz: c.bzNt, by: c.byNt, dst: c.dstNt, v: c.speedKms, hours: t.night.hours, stepMin: t.night.stepMin, start: nightStartMs(t.night, c) };
   return JSON.stringify([t.series?.name, t.series?.steps.length, t.series?.steps[0]?.ms, wind, base, s.products, s.sites, t.sunLimitDeg]);
 }
 

@@ -69,6 +69,14 @@ describe.skipIf(!HAVE_BROWSER)('timeline (browser)', () => {
     await expect.poll(() => b.page.getByLabel('Series summary').textContent(), { timeout: 30_000 }).toMatch(/23 steps .*1 line skipped/);
     await b.page.getByText('1 line not used').click();
     expect(await b.page.getByLabel('Series summary').textContent()).toMatch(/line 10: word 17 \(Bz GSM\) is a fill value/);
+    // The file picker: a bad line reported by its number, the rest kept.
+    await b.page.getByLabel('Solar-wind series file', { exact: true }).setInputFiles({
+      name: 'camp-wind.csv', mimeType: 'text/csv',
+      buffer: Buffer.from('time,pdyn_npa,bz_nt,by_nt\n2027-10-14T00:00:00Z,2,-3,1\n2027-10-14T01:00:00Z,two,-3,1\n2027-10-14T02:00:00Z,2.5,-6,1\n'),
+    });
+    await expect.poll(() => b.page.getByLabel('Series summary').textContent(), { timeout: 30_000 }).toMatch(/2 steps every 2 h from camp-wind\.csv \(csv\).*storm index estimated through the series; 1 line unreadable/);
+    await b.page.getByText('1 line not used').click();
+    expect(await b.page.getByLabel('Series summary').textContent()).toMatch(/unreadable: series line 3/);
     await b.page.getByRole('button', { name: 'Load the demo storm', exact: true }).click();
     await expect.poll(() => b.page.getByLabel('Series summary').textContent(), { timeout: 30_000 }).toMatch(/72 steps/);
   });

@@ -16,12 +16,11 @@ import { InputError, requireInRange } from '../../src/physics/errors';
 import { parseUtc } from '../../src/physics/frames/time';
 import type { EngineApi, TimelineCell, TimelineResult, TimelineSite } from '../protocol';
 import type { EngineContext } from './context';
+import { MAX_TIMELINE_STEPS } from './timeline-limits';
 
 /** Lowest elevation (deg) at which the oval counts as visible when the request gives none (as the sites channel). */
 const DEFAULT_MIN_ELEVATION_DEG = 10;
 
-/** Most steps one call accepts (a 1-minute day is 1440; a year of hours 8760). */
-export const MAX_TIMELINE_STEPS = 10_000;
 
 /**
  * Distance (deg of magnetic latitude, ≥ 0) from |magLat| to the nearest oval

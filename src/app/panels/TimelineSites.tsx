@@ -19,6 +19,18 @@ function fmt(v: number | null | undefined, d: number): string {
   return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(d);
 }
 
+/** Runs of equal values along the steps: [from, to) each, so a strip draws one rectangle per change, not per step. */
+function runs<V>(cells: readonly TimelineCell[], key: (c: TimelineCell) => V): { from: number; to: number; value: V }[] {
+  const out: { from: number; to: number; value: V }[] = [];
+  cells.forEach((c, i) => {
+    const v = key(c);
+    const last = out[out.length - 1];
+    if (last && last.value === v) last.to = i + 1;
+    else out.push({ from: i, to: i + 1, value: v });
+  });
+  return out;
+}
+
 /** The cell at the cursor in words. */
 function cellText(c: TimelineCell): string {
   const m = c.ovalMarginDeg === null ? '' : fmt(c.ovalMarginDeg, 2);
@@ -47,14 +59,10 @@ function SiteStrip({ site, n, cursor, stepsMs }: { site: TimelineSite; n: number
         aria-label={`${site.name}: line type, oval relation, sky darkness and best hours through the timeline`}
         onPointerDown={(e) => moveCursor(stepAt(e.currentTarget, e.clientX, n))}
       >
-        {site.cells.map((cell, i) => (
-          <g key={i}>
-            <rect x={x(i)} y={0} width={w + 0.3} height={ROW} fill={LINE_COLOURS[cell.type]} />
-            <rect x={x(i)} y={ROW} width={w + 0.3} height={ROW} fill={RELATION_COLOURS[cell.ovalRelation]} />
-            <rect x={x(i)} y={2 * ROW} width={w + 0.3} height={ROW} fill={TWILIGHT_COLOURS[cell.twilight]} />
-            {cell.moonElevationDeg > 0 && <rect x={x(i)} y={2 * ROW + ROW - 3} width={w + 0.3} height={3} fill={MOON_COLOUR} opacity={0.3 + 0.7 * cell.moonIlluminatedFraction} />}
-          </g>
-        ))}
+        {runs(site.cells, (c) => c.type).map((r) => <rect key={`t${r.from}`} x={x(r.from)} y={0} width={x(r.to) - x(r.from) + 0.3} height={ROW} fill={LINE_COLOURS[r.value]} />)}
+        {runs(site.cells, (c) => c.ovalRelation).map((r) => <rect key={`o${r.from}`} x={x(r.from)} y={ROW} width={x(r.to) - x(r.from) + 0.3} height={ROW} fill={RELATION_COLOURS[r.value]} />)}
+        {runs(site.cells, (c) => c.twilight).map((r) => <rect key={`s${r.from}`} x={x(r.from)} y={2 * ROW} width={x(r.to) - x(r.from) + 0.3} height={ROW} fill={TWILIGHT_COLOURS[r.value]} />)}
+        {runs(site.cells, (c) => c.moonElevationDeg > 0).filter((r) => r.value).map((r) => <rect key={`m${r.from}`} x={x(r.from)} y={3 * ROW - 3} width={x(r.to) - x(r.from) + 0.3} height={3} fill={MOON_COLOUR} opacity={0.3 + 0.7 * site.cells[r.from].moonIlluminatedFraction} />)}
         {site.bestIntervals.map((iv, k) => <rect key={k} x={xt(iv.startMs)} y={3 * ROW + 1} width={Math.max(1, xt(iv.endMs) - xt(iv.startMs))} height={ROW} fill={BEST_COLOUR} />)}
         <rect x={x(cursor)} y={0} width={Math.max(w, 1.5)} height={ROW * 4 + 2} className="tl-site-cursor" />
       </svg>

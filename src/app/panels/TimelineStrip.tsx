@@ -27,21 +27,36 @@ export function stepAt(el: Element, clientX: number, n: number): number {
 export function TimelineStrip({ label, values, dashed, cursor, onScrub, colour, zero }: Props) {
   const ref = useRef<SVGSVGElement>(null);
   const n = values.length;
-  const finite = values.filter(Number.isFinite);
-  let lo = Math.min(...finite), hi = Math.max(...finite);
+  let lo = Infinity, hi = -Infinity;
+  for (const v of values) if (Number.isFinite(v)) { if (v < lo) lo = v; if (v > hi) hi = v; }
+  if (lo === Infinity) { lo = 0; hi = 0; }
   if (zero) { lo = Math.min(lo, 0); hi = Math.max(hi, 0); }
   if (!(hi > lo)) { hi = lo + 1; lo -= 1; }
   const x = (i: number) => (n > 1 ? (i / (n - 1)) * W : W / 2);
   const y = (v: number) => PAD + (1 - (v - lo) / (hi - lo)) * (H - 2 * PAD);
-  // Solid and dashed runs as separate paths.
+  // Solid and dashed runs as separate paths; long series drawn as the min and max of each pixel-wide bucket.
   const paths: { d: string; dashed: boolean }[] = [];
-  for (let i = 0; i < n; i++) {
-    if (!Number.isFinite(values[i])) continue;
-    const dsh = !!dashed?.[i];
+  let prev = '';
+  const add = (i: number, v: number, dsh: boolean) => {
     const last = paths[paths.length - 1];
-    const pt = `${x(i).toFixed(1)},${y(values[i]).toFixed(1)}`;
+    const pt = `${x(i).toFixed(1)},${y(v).toFixed(1)}`;
     if (last && last.dashed === dsh) last.d += ` L${pt}`;
-    else paths.push({ d: `${last ? `M${x(i - 1).toFixed(1)},${y(values[i - 1]).toFixed(1)} L` : 'M'}${pt}`, dashed: dsh });
+    else paths.push({ d: `${prev ? `M${prev} L` : 'M'}${pt}`, dashed: dsh });
+    prev = pt;
+  };
+  const bucket = n > 2 * W ? Math.ceil(n / W) : 1;
+  for (let i0 = 0; i0 < n; i0 += bucket) {
+    let lo = Infinity, hi = -Infinity, iLo = i0, iHi = i0, dsh = false;
+    for (let i = i0; i < Math.min(n, i0 + bucket); i++) {
+      const v = values[i];
+      if (!Number.isFinite(v)) continue;
+      if (v < lo) { lo = v; iLo = i; }
+      if (v > hi) { hi = v; iHi = i; }
+      dsh ||= !!dashed?.[i];
+    }
+    if (lo === Infinity) continue;
+    if (iLo <= iHi) { add(iLo, lo, dsh); if (iHi !== iLo) add(iHi, hi, dsh); }
+    else { add(iHi, hi, dsh); add(iLo, lo, dsh); }
   }
   const cur = values[cursor];
   const drag = (e: React.PointerEvent<SVGSVGElement>) => {

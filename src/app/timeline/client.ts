@@ -11,6 +11,7 @@ import { Channel } from '../channel';
 import { store, type AppState } from '../store';
 import { timelineStore, type TimelineState } from './state';
 import { nightStartMs, timelineSteps } from './steps';
+import { MAX_TIMELINE_STEPS } from '../../../workers/channels/timeline-limits';
 
 /** Wait this long after the last change before asking (typing a night length, editing sites). */
 const SETTLE_MS = 250;
@@ -45,6 +46,10 @@ export function startTimelineClient(): void {
     if (key === lastKey) return;
     lastKey = key;
     const steps = timelineSteps(t, s.conditions);
+    if (steps.length > MAX_TIMELINE_STEPS) {
+      timelineStore.set({ result: null, error: `the site timelines cover at most ${MAX_TIMELINE_STEPS.toLocaleString('en')} steps; this series has ${steps.length.toLocaleString('en')} (the strips and the cursor still work; use a shorter file or a coarser cadence for the site timelines)` });
+      return;
+    }
     api ??= Comlink.wrap<EngineApi>(new Worker(new URL('../../../workers/engine.worker.ts', import.meta.url), { type: 'module' }));
     const remote = api;
     timelineStore.set({ progress: { done: 0, total: steps.length } });

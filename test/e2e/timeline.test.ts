@@ -77,6 +77,14 @@ describe.skipIf(!HAVE_BROWSER)('timeline (browser)', () => {
     await expect.poll(() => b.page.getByLabel('Series summary').textContent(), { timeout: 30_000 }).toMatch(/2 steps every 2 h from camp-wind\.csv \(csv\).*storm index estimated through the series; 1 line unreadable/);
     await b.page.getByText('1 line not used').click();
     expect(await b.page.getByLabel('Series summary').textContent()).toMatch(/unreadable: series line 3/);
+    // Drag-and-drop: the hourly demo file dropped on the load area.
+    const hourlyText = readFileSync(resolve(ROOT, 'examples/demo-storm-hourly.txt'), 'utf8');
+    await b.page.evaluate((text) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([text], 'dropped-hourly.txt', { type: 'text/plain' }));
+      document.querySelector('.tl-drop')!.dispatchEvent(new DragEvent('drop', { dataTransfer: dt, bubbles: true, cancelable: true }));
+    }, hourlyText);
+    await expect.poll(() => b.page.getByLabel('Series summary').textContent(), { timeout: 30_000 }).toMatch(/23 steps every 1 h from dropped-hourly\.txt \(hourly\)/);
     await b.page.getByRole('button', { name: 'Load the demo storm', exact: true }).click();
     await expect.poll(() => b.page.getByLabel('Series summary').textContent(), { timeout: 30_000 }).toMatch(/72 steps/);
   });

@@ -33,7 +33,7 @@ function dstSourceOf(i: number, r: TimelineResult, stepSources?: readonly ('give
 }
 
 /** Rows in step order, sites in table order within a step. */
-export function timelineRows(steps: readonly TimelineStepInput[], r: TimelineResult, stepSources?: readonly ('given' | 'estimated')[]): CsvCell[][] {
+function timelineRows(steps: readonly TimelineStepInput[], r: TimelineResult, stepSources?: readonly ('given' | 'estimated')[]): CsvCell[][] {
   const rows: CsvCell[][] = [];
   steps.forEach((st, i) => {
     for (const s of r.sites) {

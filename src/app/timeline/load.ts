@@ -6,7 +6,7 @@
  * injection–decay, references §10), restarting from the file's value wherever
  * one is given.
  */
-import { SeriesParser, streamChunks, type SeriesRecord } from '../../io/series/series';
+import { SeriesParser, streamChunks, type SeriesRecord, type SeriesValue } from '../../io/series/series';
 import { DstStarStepper, dstFromCorrected, pressureCorrectedDst, steadyDstStar, DST_LIMIT_NT, NOMINAL_SPEED_KMS } from '../../physics/field/storm-index';
 import type { LineNote, LoadedSeries, SeriesStep } from './state';
 
@@ -21,57 +21,62 @@ function median(xs: number[]): number {
 
 const clampDst = (v: number) => Math.max(-DST_LIMIT_NT, Math.min(DST_LIMIT_NT, v));
 
-/** Steps from the reader's records: values in time order; gaps and unreadable lines as notes. */
-export function seriesFromRecords(name: string, format: LoadedSeries['format'], records: Iterable<SeriesRecord>): LoadedSeries {
-  const skipped: LineNote[] = [];
-  const errors: LineNote[] = [];
-  const raw: { line: number; v: Extract<SeriesRecord, { kind: 'ok' }>['value'] }[] = [];
-  for (const r of records) {
-    if (r.kind === 'skipped') skipped.push({ line: r.line, text: r.reason });
-    else if (r.kind === 'error') errors.push({ line: r.line, text: r.error });
-    else {
-      const prev = raw[raw.length - 1];
-      if (prev && !(r.value.timeMs > prev.v.timeMs)) {
-        errors.push({ line: r.line, text: `line ${r.line}: time ${r.value.time} is not after the previous step (${prev.v.time}, line ${prev.line}); row dropped` });
-        continue;
-      }
-      raw.push({ line: r.line, v: r.value });
+/**
+ * Turns the reader's records into steps as they arrive (values in time order,
+ * the storm index resolved at once; gaps and unreadable lines as notes), so
+ * a long file is never held as records.
+ */
+class StepCollector {
+  readonly steps: SeriesStep[] = [];
+  readonly skipped: LineNote[] = [];
+  readonly errors: LineNote[] = [];
+  private stepper: DstStarStepper | null = null;
+  private prev: { line: number; v: SeriesValue } | null = null;
+
+  add(r: SeriesRecord): void {
+    if (r.kind === 'skipped') { this.skipped.push({ line: r.line, text: r.reason }); return; }
+    if (r.kind === 'error') { this.errors.push({ line: r.line, text: r.error }); return; }
+    const v = r.value;
+    const p = this.prev;
+    if (p && !(v.timeMs > p.v.timeMs)) {
+      this.errors.push({ line: r.line, text: `line ${r.line}: time ${v.time} is not after the previous step (${p.v.time}, line ${p.line}); row dropped` });
+      return;
     }
-  }
-  const steps: SeriesStep[] = [];
-  let stepper: DstStarStepper | null = null;
-  raw.forEach(({ v }, i) => {
     const speed = v.speedKms ?? null;
-    if (stepper === null) {
+    if (this.stepper === null || p === null) {
       const star = v.dstNt !== undefined ? pressureCorrectedDst(v.dstNt, v.pdynNpa) : steadyDstStar(speed ?? NOMINAL_SPEED_KMS, v.bzNt);
-      stepper = new DstStarStepper(clampDst(star));
+      this.stepper = new DstStarStepper(clampDst(star));
     } else {
-      const p = raw[i - 1].v;
-      stepper.step((v.timeMs - p.timeMs) / MS_PER_HOUR, p.speedKms ?? NOMINAL_SPEED_KMS, p.bzNt);
+      this.stepper.step((v.timeMs - p.v.timeMs) / MS_PER_HOUR, p.v.speedKms ?? NOMINAL_SPEED_KMS, p.v.bzNt);
     }
     let dstNt: number;
     let dstSource: SeriesStep['dstSource'];
     if (v.dstNt !== undefined) {
       dstNt = v.dstNt;
       dstSource = 'given';
-      stepper.dstStarNt = clampDst(pressureCorrectedDst(v.dstNt, v.pdynNpa));
+      this.stepper.dstStarNt = clampDst(pressureCorrectedDst(v.dstNt, v.pdynNpa));
     } else {
-      dstNt = clampDst(dstFromCorrected(stepper.dstStarNt, v.pdynNpa));
+      dstNt = clampDst(dstFromCorrected(this.stepper.dstStarNt, v.pdynNpa));
       dstSource = 'estimated';
     }
-    steps.push({ time: v.time, ms: v.timeMs, pdynNpa: v.pdynNpa, bzNt: v.bzNt, byNt: v.byNt, dstNt: Math.round(dstNt * 10) / 10, dstSource, speedKms: speed });
-  });
-  const gaps = steps.slice(1).map((s, i) => s.ms - steps[i].ms);
-  return { name, format, steps, cadenceMs: median(gaps), skipped, errors };
+    this.steps.push({ time: v.time, ms: v.timeMs, pdynNpa: v.pdynNpa, bzNt: v.bzNt, byNt: v.byNt, dstNt: Math.round(dstNt * 10) / 10, dstSource, speedKms: speed });
+    this.prev = { line: r.line, v };
+  }
+
+  finish(name: string, format: LoadedSeries['format']): LoadedSeries {
+    const st = this.steps;
+    const gaps = st.slice(1).map((s, i) => s.ms - st[i].ms);
+    return { name, format, steps: st, cadenceMs: median(gaps), skipped: this.skipped, errors: this.errors };
+  }
 }
 
 /** Records of text chunks through the one reader, and the format it detected. */
 async function parseChunks(name: string, chunks: AsyncIterable<string | Uint8Array> | Iterable<string | Uint8Array>): Promise<LoadedSeries> {
   const parser = new SeriesParser();
-  const recs: SeriesRecord[] = [];
-  for await (const chunk of chunks) for (const r of parser.push(chunk)) recs.push(r);
-  for (const r of parser.end()) recs.push(r);
-  return seriesFromRecords(name, parser.format ?? 'csv', recs);
+  const c = new StepCollector();
+  for await (const chunk of chunks) for (const r of parser.push(chunk)) c.add(r);
+  for (const r of parser.end()) c.add(r);
+  return c.finish(name, parser.format ?? 'csv');
 }
 
 /** Read a File (or any Blob) chunk by chunk. Whole-file problems throw an InputError. */

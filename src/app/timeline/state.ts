@@ -65,7 +65,7 @@ export interface TimelineState {
   error: string | null;
 }
 
-export const NIGHT_DEFAULT: NightPlan = { startIso: '', hours: 12, stepMin: 30 };
+const NIGHT_DEFAULT: NightPlan = { startIso: '', hours: 12, stepMin: 30 };
 
 export const timelineStore: Store<TimelineState> = createStore<TimelineState>({
   series: null,

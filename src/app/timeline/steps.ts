@@ -5,7 +5,7 @@ import type { NightPlan, TimelineState } from './state';
 
 const MS_PER_MIN = 60_000;
 /** Most steps of a planned night (a day at one minute). */
-export const MAX_NIGHT_STEPS = 1440;
+const MAX_NIGHT_STEPS = 1440;
 
 /** ISO UTC without `.000`. */
 export function isoUtc(ms: number): string {
@@ -31,9 +31,4 @@ export function nightTimesMs(plan: NightPlan, c: FieldConditions): number[] {
 export function timelineSteps(t: TimelineState, c: FieldConditions): TimelineStepInput[] {
   if (t.series) return t.series.steps.map((s) => ({ time: s.time, pdynNpa: s.pdynNpa, bzNt: s.bzNt, byNt: s.byNt, dstNt: s.dstNt, speedKms: s.speedKms }));
   return nightTimesMs(t.night, c).map((ms) => ({ time: isoUtc(ms), pdynNpa: c.pdynNpa, bzNt: c.bzNt, byNt: c.byNt, dstNt: c.dstNt ?? null, speedKms: c.speedKms ?? null }));
-}
-
-/** Number of steps on the timeline now. */
-export function stepCount(t: TimelineState, c: FieldConditions): number {
-  return t.series ? t.series.steps.length : nightTimesMs(t.night, c).length;
 }

@@ -10,6 +10,7 @@ import { sceneChannel } from './channels/scene';
 import { ovalChannel } from './channels/oval';
 import { sitesChannel } from './channels/sites';
 import { sweepChannel } from './channels/sweep';
+import { timelineChannel } from './channels/timeline';
 
 export function createEngineApi(): EngineApi {
   const ctx = createEngineContext();
@@ -18,5 +19,6 @@ export function createEngineApi(): EngineApi {
     oval: ovalChannel(ctx),
     sites: sitesChannel(ctx),
     sweep: sweepChannel(ctx),
+    timeline: timelineChannel(ctx),
   };
 }

@@ -3,7 +3,7 @@
  * The browser's engine worker: exposes createEngineApi() with comlink and
  * transfers the typed arrays of every answer (no copies).
  */
-import { expose, transfer, type Endpoint } from 'comlink';
+import { expose, releaseProxy, transfer, type Endpoint } from 'comlink';
 import { createEngineApi } from './engine-api';
 import type { EngineApi } from './protocol';
 
@@ -29,6 +29,8 @@ const api: EngineApi = {
   oval: (id, c, o) => withTransfer(inner.oval(id, c, o)),
   sites: (id, c, o, s) => withTransfer(inner.sites(id, c, o, s)),
   sweep: (id, c, o) => withTransfer(inner.sweep(id, c, o)),
+  // The progress callback arrives as a comlink proxy: release its port once the call is over.
+  timeline: (id, b, st, o, s, p) => inner.timeline(id, b, st, o, s, p).finally(() => (p as unknown as { [releaseProxy]?: () => void } | undefined)?.[releaseProxy]?.()),
 };
 
 expose(api, self as unknown as Endpoint);

@@ -127,6 +127,77 @@ export interface SweepResult {
 /** Product options of a request: sourceRe absent = the model's storm-following value; minLatDeg = lowest latitude of the boundary searches. */
 export type RequestProducts = Omit<ProductOptions, 'sourceRe'> & { sourceRe?: number; minLatDeg?: number };
 
+/** One step of a timeline: the time and the solar wind (the rest of the conditions come from `base`). */
+export interface TimelineStepInput {
+  time: string;
+  pdynNpa: number;
+  bzNt: number;
+  byNt: number;
+  /** Storm index, nT; null = estimated from the solar wind at that step. */
+  dstNt: number | null;
+  speedKms: number | null;
+}
+
+export type TimelineOptions = RequestProducts & {
+  conjugateAltKm?: number;
+  minElevationDeg?: number;
+  /** The Sun must be below this elevation (deg) for a dark sky: −6, −12 or −18 (twilight limits) or any in −30..0. */
+  sunLimitDeg: number;
+  /** Best hours: the oval within this zenith distance (deg). */
+  maxZenithDeg?: number;
+};
+
+/** One site at one step. Angles in degrees; null where unknown (open line, no boundary). */
+export interface TimelineCell {
+  type: 'closed' | 'open' | 'unresolved';
+  ovalRelation: 'poleward' | 'inside' | 'equatorward' | 'unknown';
+  /** Distance to the nearest oval edge at the site's MLT, deg of magnetic latitude (≥ 0). */
+  ovalMarginDeg: number | null;
+  mltHours: number;
+  magLatDeg: number;
+  lShell: number | null;
+  conjugateLatDeg: number | null;
+  conjugateLonDeg: number | null;
+  openClosedMagLatDeg: number | null;
+  equatorwardMagLatDeg: number | null;
+  ovalElevationDeg: number | null;
+  ovalAzimuthDeg: number | null;
+  ovalVisible: boolean;
+  sunElevationDeg: number;
+  twilight: 'day' | 'civil' | 'nautical' | 'astronomical' | 'night';
+  dark: boolean;
+  moonElevationDeg: number;
+  moonIlluminatedFraction: number;
+  error?: string;
+}
+
+export interface TimelineSite {
+  name: string;
+  latDeg: number;
+  lonDeg: number;
+  /** One cell per step. */
+  cells: TimelineCell[];
+  /** Plain-language best hours over the timeline. */
+  bestHours: string;
+  bestIntervals: { startMs: number; endMs: number }[];
+}
+
+export interface TimelineResult {
+  requestId: number;
+  stale?: boolean;
+  error?: string;
+  warnings: string[];
+  /** Unix ms of each step. */
+  stepsMs: number[];
+  /** Storm index used at each step (nT) and whether it was given or estimated. */
+  dstNt: number[];
+  dstSource: ('given' | 'estimated')[];
+  sites: TimelineSite[];
+}
+
+/** Progress of a timeline call: steps done of the total. */
+export type TimelineProgress = (done: number, total: number) => void;
+
 export interface EngineApi {
   /** Frames, magnetopause and a fan of field lines (fast: the first thing drawn). */
   scene(requestId: number, c: FieldConditions, fan: FanSpec): Promise<SceneResult>;
@@ -135,4 +206,9 @@ export interface EngineApi {
   /** Conjugates and products for sites. Conjugate altitude: o.conjugateAltKm (default 0). */
   sites(requestId: number, c: FieldConditions, o: RequestProducts & { conjugateAltKm?: number; minElevationDeg?: number }, sites: SiteInput[]): Promise<SitesResult>;
   sweep(requestId: number, c: FieldConditions, o: RequestProducts & { vary: 'pdyn' | 'bz'; from: number; to: number; steps: number; mltHours: number }): Promise<SweepResult>;
+  /**
+   * Every site at every step of a timeline (one call per series; a newer
+   * request stops it between steps). `base` supplies the model switches.
+   */
+  timeline(requestId: number, base: FieldConditions, steps: TimelineStepInput[], o: TimelineOptions, sites: SiteInput[], progress?: TimelineProgress): Promise<TimelineResult>;
 }

@@ -14,6 +14,7 @@ import { Warnings } from './panels/Warnings';
 import { ViewBar } from './panels/ViewBar';
 import { AnswerCard } from './panels/AnswerCard';
 import { KeyHelp } from './panels/KeyHelp';
+import { TimelinePanel } from './panels/TimelinePanel';
 import { useStore } from './store';
 
 export function App() {
@@ -35,6 +36,7 @@ export function App() {
         </div>
         <div className="sites-area">
           <SitesPanel />
+          <TimelinePanel />
         </div>
       </main>
       <aside className="left" aria-label="Conditions and model settings">

@@ -11,7 +11,7 @@ import { prepareModel, type PreparedModel } from '../../src/physics/field/model'
 import { makeTracer } from '../../src/physics/mapping';
 import type { Tracer } from '../../src/physics/trace/tracer';
 
-type Channel = 'scene' | 'oval' | 'sites' | 'sweep';
+type Channel = 'scene' | 'oval' | 'sites' | 'sweep' | 'timeline';
 
 /** The text of a thrown value (an engine InputError's message names the input and what is allowed). */
 function errorText(e: unknown): string {
@@ -49,7 +49,7 @@ export interface EngineContext {
 }
 
 export function createEngineContext(): EngineContext {
-  const latest: Record<Channel, number> = { scene: -1, oval: -1, sites: -1, sweep: -1 };
+  const latest: Record<Channel, number> = { scene: -1, oval: -1, sites: -1, sweep: -1, timeline: -1 };
   let cacheKey = '';
   let cacheModel: PreparedModel | null = null;
   const tracers = new Map<number, Tracer>();

@@ -14,7 +14,7 @@ import { readCsvTable } from '../../src/io/csv';
 import { readSeriesText } from '../../src/io/series/series';
 import { prepareModel } from '../../src/physics/field/model';
 import type { FieldConditions } from '../../src/physics/field/conditions';
-import { makeTracer, siteReport, type SiteInput, type SiteResult } from '../../src/physics/mapping';
+import { makeTracer, sectorBoundaries, siteReport, type SiteInput, type SiteResult } from '../../src/physics/mapping';
 import { CHROMIUM, launch, ROOT, serveApp, waitForEngine, type Browser, type Served } from './harness';
 import { downloadText, waitFresh } from './pageHelpers';
 import { expectClose } from '../helpers';
@@ -28,7 +28,7 @@ const consoleErrors: string[] = [];
 
 interface PageState {
   conditions: FieldConditions;
-  products: { altKm: number; sourceRe: number; minElevationDeg: number };
+  products: { altKm: number; sourceRe: number | null; minElevationDeg: number; minLatDeg: number; conjugateAltKm?: number | null };
   sites: SiteInput[];
   siteResults: { sites: SiteResult[] } | null;
 }
@@ -100,13 +100,18 @@ describe.skipIf(!HAVE_BROWSER)('timeline (browser)', () => {
       expectClose(s.conditions.bzNt, row.bzNt, 0, `step ${step} Bz from the series`);
       expectClose(s.conditions.dstNt!, row.dstNt!, 0, `step ${step} storm index from the series`);
       const m = prepareModel(s.conditions);
-      const tConj = makeTracer(m, { altKm: 0, ellipsoid: true });
+      // The app's rules: the conjugate at the footpoint altitude unless set apart; the storm-following
+      // source distance unless set; searches from the lowest latitude setting.
+      const conjAltKm = s.products.conjugateAltKm ?? s.products.altKm;
+      const sourceRe = s.products.sourceRe ?? m.sourceRe;
+      const tConj = makeTracer(m, { altKm: conjAltKm, ellipsoid: true });
       const tAlt = makeTracer(m, { altKm: s.products.altKm, ellipsoid: true });
-      const opts = { conjugateAltKm: 0, altKm: s.products.altKm, sourceRe: s.products.sourceRe, minElevationDeg: s.products.minElevationDeg };
+      const opts = { conjugateAltKm: conjAltKm, altKm: s.products.altKm, sourceRe, minElevationDeg: s.products.minElevationDeg };
+      const boundaryAt = (h: 'north' | 'south', mlt: number) => sectorBoundaries(m, tAlt, h, mlt, { sourceRe, minLatDeg: s.products.minLatDeg });
       const shown = s.siteResults!.sites;
       expect(shown.length).toBe(s.sites.length);
       s.sites.forEach((site, k) => {
-        const want = siteReport(m, tConj, tAlt, site, opts, undefined, false);
+        const want = siteReport(m, tConj, tAlt, site, opts, boundaryAt, false);
         const got = shown[k];
         expect(got.type, `${site.name} line type at step ${step}`).toBe(want.type);
         expect(got.ovalRelation, `${site.name} oval relation at step ${step}`).toBe(want.ovalRelation);

@@ -6,7 +6,7 @@
 import type { FieldConditions } from '../physics/field/conditions';
 import { DEFAULT_IMF_EFFICIENCY } from '../physics/field/imf';
 import type { SiteInput } from '../../workers/protocol';
-import type { ProductSettings } from './store';
+import type { ProductSettings } from './store/products';
 
 interface Scenario {
   name: string;

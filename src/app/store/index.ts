@@ -10,25 +10,8 @@ import { DEMO_SCENARIO } from '../scenario';
 import { noteChange } from '../perf';
 import { createStore, type Store } from './core';
 
-export type AltPreset = 'ground' | 'green' | 'red' | 'custom';
-
-export interface ProductSettings {
-  altPreset: AltPreset;
-  /** Footpoint (emission) altitude, km. */
-  altKm: number;
-  /** Altitude of the conjugate point, km; null = the footpoint altitude (the one rule of app, trace and batch). */
-  conjugateAltKm: number | null;
-  /** Equatorial source distance of the equatorward edge, RE; null = follows the conditions (the model's storm-following value). */
-  sourceRe: number | null;
-  minElevationDeg: number;
-  /** Lowest magnetic latitude the boundary searches start from, deg. */
-  minLatDeg: number;
-}
-
-/** The conjugate altitude in use (km): the set value, or the footpoint altitude when none is set. */
-export function conjugateAltOf(p: ProductSettings): number {
-  return p.conjugateAltKm ?? p.altKm;
-}
+export { conjugateAltOf, type AltPreset, type ProductSettings } from './products';
+import type { ProductSettings } from './products';
 
 interface ViewSettings {
   magGraticule: boolean;

@@ -16,7 +16,8 @@ import { PDYN_NOMINAL_COEFF } from '../../physics/field/magnetopause';
 import { decimalYear, parseUtc } from '../../physics/frames/time';
 import { sitesHeader, parseSite, checkTime, SITES_EXPECTED, type RowOutcome } from './inputs';
 import { BATCH_COLUMNS, SITES_PER_JOB, type BatchFormat, type BatchSettings, type ConditionJob, type JobResult } from './compute';
-import { inProcessRunner, threadRunner, runOrdered, Interrupted, type JobRunner } from './pool';
+import { inProcessRunner, threadRunner, type JobRunner } from './pool';
+import { runInOrder, Interrupted } from '../pool/ordered-pool';
 import { fileSink, stdoutSink, outputPrefix, outputSuffix, chunkSeparator, PARTIAL_SUFFIX, type Sink } from './output';
 import { checkOutNotInput } from './guard';
 import { csvRecords, requireFile, countLines } from './read';
@@ -373,7 +374,7 @@ export async function runBatch(argv: readonly string[], io: BatchIo): Promise<nu
     const t0 = performance.now();
     let wroteRows = false;
     const sep = chunkSeparator(format);
-    await runOrdered(jobs, runner, jobWindow(workers), async (r: JobResult) => {
+    await runInOrder(jobs, runner, jobWindow(workers), async (r: JobResult) => {
       if (r.firstChunk) conditions++;
       totals.rows += r.rows; totals.ok += r.ok; totals.skipped += r.skipped; totals.failed += r.failed;
       for (const m of r.problems) if (totals.problems.length < 20) totals.problems.push(m);

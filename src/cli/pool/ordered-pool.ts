@@ -74,12 +74,33 @@ export function threadPool<J extends Job, R extends Job>(bootUrl: URL, n: number
   };
 }
 
-/** Feed `jobs` to `pool`, hand results to `sink` in submission order, at most `window` in flight. */
-export async function runInOrder<J extends Job, R extends Job>(jobs: AsyncIterable<J>, pool: JobPool<J, R>, window: number, sink: (r: R) => void | Promise<void>): Promise<void> {
+/** Thrown by runInOrder when `stop` settles first. */
+export class Interrupted extends Error {
+  constructor() { super('interrupted'); this.name = 'Interrupted'; }
+}
+
+/**
+ * Feed `jobs` to `pool` and hand results to `sink` in submission order, with at
+ * most `window` jobs submitted but not yet handed on. When `stop` resolves, no
+ * further job is submitted or handed on and Interrupted is thrown (the caller
+ * closes the pool, which ends the jobs in flight).
+ */
+export async function runInOrder<J extends Job, R extends Job>(jobs: AsyncIterable<J>, pool: JobPool<J, R>, window: number, sink: (r: R) => void | Promise<void>, stop?: Promise<void>): Promise<void> {
   const inFlight: Promise<R>[] = [];
-  for await (const j of jobs) {
-    inFlight.push(pool.submit(j));
-    if (inFlight.length >= window) await sink(await inFlight.shift()!);
+  // Unobserved rejections are re-thrown when their turn comes.
+  const guard = (p: Promise<R>) => { p.catch(() => {}); return p; };
+  let stopped = false;
+  const stopSignal = stop ? stop.then(() => { stopped = true; return null; }) : new Promise<null>(() => {});
+  const next = async (): Promise<void> => {
+    const r = await Promise.race([inFlight.shift()!, stopSignal]);
+    if (r === null || stopped) throw new Interrupted();
+    await sink(r);
+  };
+  for await (const job of jobs) {
+    if (stopped) throw new Interrupted();
+    inFlight.push(guard(pool.submit(job)));
+    while (inFlight.length >= window) await next();
   }
-  while (inFlight.length > 0) await sink(await inFlight.shift()!);
+  while (inFlight.length > 0) await next();
+  if (stopped) throw new Interrupted();
 }

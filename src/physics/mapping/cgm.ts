@@ -67,10 +67,9 @@ export function prepareCgm(mainField: MainFieldModel, frames: FrameSet): CgmConv
   const tracer = new Tracer(field, { ellipsoid: false, stepFactor: CGM_STEP_FACTOR, hMaxRe: 1, rMaxRe: CGM_MAX_APEX_RE, maxSteps: 6000 });
   const b = new Float64Array(3);
   const mag = new Float64Array(3);
-  const tA = new Float64Array(3);
-  const tB = new Float64Array(3);
+  const apex = new Float64Array(3);
 
-  const unitTangent = (out: Float64Array, x: number, y: number, z: number): void => {
+  const unitTangent: TangentAt = (out, x, y, z) => {
     mainField.evaluateGeo(b, x, y, z);
     const m = Math.hypot(b[0], b[1], b[2]);
     out[0] = b[0] / m; out[1] = b[1] / m; out[2] = b[2] / m;
@@ -99,35 +98,8 @@ export function prepareCgm(mainField: MainFieldModel, frames: FrameSet): CgmConv
       }
     }
     if (k < 0 || dir === 0) return { defined: false, reason: UNDEFINED_NEAR_EQUATOR };
-    // Cubic Hermite segment between points k and k+1 with field-aligned tangents (chord-length scaled).
-    const ax = p[3 * k], ay = p[3 * k + 1], az = p[3 * k + 2];
-    const bx = p[3 * k + 3], by = p[3 * k + 4], bz = p[3 * k + 5];
-    const chord = Math.hypot(bx - ax, by - ay, bz - az);
-    unitTangent(tA, ax, ay, az);
-    unitTangent(tB, bx, by, bz);
-    // Orient the tangents from a to b.
-    const oA = (tA[0] * (bx - ax) + tA[1] * (by - ay) + tA[2] * (bz - az)) < 0 ? -chord : chord;
-    const oB = (tB[0] * (bx - ax) + tB[1] * (by - ay) + tB[2] * (bz - az)) < 0 ? -chord : chord;
-    const sA = axis[0] * ax + axis[1] * ay + axis[2] * az;
-    const dA = oA * (axis[0] * tA[0] + axis[1] * tA[1] + axis[2] * tA[2]);
-    const sB = axis[0] * bx + axis[1] * by + axis[2] * bz;
-    const dB = oB * (axis[0] * tB[0] + axis[1] * tB[1] + axis[2] * tB[2]);
-    const hermite = (t: number, f0: number, d0: number, f1: number, d1: number): number => {
-      const t2 = t * t, t3 = t2 * t;
-      return (2 * t3 - 3 * t2 + 1) * f0 + (t3 - 2 * t2 + t) * d0 + (-2 * t3 + 3 * t2) * f1 + (t3 - t2) * d1;
-    };
-    // Root of the axis coordinate on [0, 1] by bisection (the end values have opposite signs).
-    let lo = 0, hi = 1;
-    const fLo = sA;
-    for (let it = 0; it < 60; it++) {
-      const mid = 0.5 * (lo + hi);
-      const fm = hermite(mid, sA, dA, sB, dB);
-      if (Math.sign(fm) === Math.sign(fLo)) lo = mid; else hi = mid;
-    }
-    const t = 0.5 * (lo + hi);
-    const ex = hermite(t, ax, oA * tA[0], bx, oB * tB[0]);
-    const ey = hermite(t, ay, oA * tA[1], by, oB * tB[1]);
-    const ez = hermite(t, az, oA * tA[2], bz, oB * tB[2]);
+    dipoleEquatorCrossing(apex, p, k, axis, unitTangent);
+    const ex = apex[0], ey = apex[1], ez = apex[2];
     const apexRe = Math.hypot(ex, ey, ez);
     if (!(apexRe > r)) return { defined: false, reason: UNDEFINED_NEAR_EQUATOR };
     magFromGeo(mag, [ex, ey, ez], frames);
@@ -148,6 +120,46 @@ export function prepareCgm(mainField: MainFieldModel, frames: FrameSet): CgmConv
       return fromGeo(g[0], g[1], g[2]);
     },
   };
+}
+
+/** Unit field direction at a point (writes out). */
+type TangentAt = (out: Float64Array, x: number, y: number, z: number) => void;
+
+const tA = new Float64Array(3);
+const tB = new Float64Array(3);
+
+function hermite(t: number, f0: number, d0: number, f1: number, d1: number): number {
+  const t2 = t * t, t3 = t2 * t;
+  return (2 * t3 - 3 * t2 + 1) * f0 + (t3 - 2 * t2 + t) * d0 + (-2 * t3 + 3 * t2) * f1 + (t3 - t2) * d1;
+}
+
+/**
+ * Where the traced line crosses the dipole equator between points k and k+1 of
+ * `p` (the axis coordinate changes sign there): a cubic Hermite segment with
+ * field-aligned, chord-scaled tangents, its root found by bisection. Writes out.
+ */
+function dipoleEquatorCrossing(out: Float64Array, p: Float64Array, k: number, axis: ArrayLike<number>, unitTangent: TangentAt): void {
+  const ax = p[3 * k], ay = p[3 * k + 1], az = p[3 * k + 2];
+  const bx = p[3 * k + 3], by = p[3 * k + 4], bz = p[3 * k + 5];
+  const chord = Math.hypot(bx - ax, by - ay, bz - az);
+  unitTangent(tA, ax, ay, az);
+  unitTangent(tB, bx, by, bz);
+  // Orient the tangents from a to b.
+  const oA = (tA[0] * (bx - ax) + tA[1] * (by - ay) + tA[2] * (bz - az)) < 0 ? -chord : chord;
+  const oB = (tB[0] * (bx - ax) + tB[1] * (by - ay) + tB[2] * (bz - az)) < 0 ? -chord : chord;
+  const sA = axis[0] * ax + axis[1] * ay + axis[2] * az;
+  const dA = oA * (axis[0] * tA[0] + axis[1] * tA[1] + axis[2] * tA[2]);
+  const sB = axis[0] * bx + axis[1] * by + axis[2] * bz;
+  const dB = oB * (axis[0] * tB[0] + axis[1] * tB[1] + axis[2] * tB[2]);
+  let lo = 0, hi = 1;
+  for (let it = 0; it < 60; it++) {
+    const mid = 0.5 * (lo + hi);
+    if (Math.sign(hermite(mid, sA, dA, sB, dB)) === Math.sign(sA)) lo = mid; else hi = mid;
+  }
+  const t = 0.5 * (lo + hi);
+  out[0] = hermite(t, ax, oA * tA[0], bx, oB * tB[0]);
+  out[1] = hermite(t, ay, oA * tA[1], by, oB * tB[1]);
+  out[2] = hermite(t, az, oA * tA[2], bz, oB * tB[2]);
 }
 
 /** CGM latitude of a point at radius rRe on a dipole line of apex apexRe (deg, ≥ 0): cos²Λ = r/R (references §1). */

@@ -98,14 +98,26 @@ export interface OvalResult {
 
 export type { SiteInput, SiteResult } from '../src/physics/mapping';
 export type { Footpoint } from '../src/physics/trace/footpoint';
-import type { SiteInput, SiteResult } from '../src/physics/mapping';
+import type { CgmResult, SiteInput, SiteResult } from '../src/physics/mapping';
+import type { Footpoint } from '../src/physics/trace/footpoint';
+export type { CgmResult } from '../src/physics/mapping';
+
+/**
+ * A site's answer in the app: the engine's SiteResult and the site's corrected
+ * geomagnetic (CGM) position at its own height (cgmPair of src/physics/mapping;
+ * CGM is constant along the main-field line, so it is the footpoint's too).
+ * Absent when the row was filled from a timeline answer, which carries no CGM.
+ */
+export type AppSiteResult = SiteResult & { cgm?: CgmResult };
 
 export interface SitesResult {
   requestId: number;
   stale?: boolean;
   error?: string;
   warnings: string[];
-  sites: SiteResult[];
+  sites: AppSiteResult[];
+  /** Filled from the site timelines at the cursor's step (no field lines or CGM yet); the sites channel's own answer follows. */
+  fromTimeline?: boolean;
   /** Absent on a stale or failed answer. */
   used?: ModelUsed;
 }
@@ -168,6 +180,12 @@ export interface TimelineCell {
   dark: boolean;
   moonElevationDeg: number;
   moonIlluminatedFraction: number;
+  /** The rest of the step's siteReport, so the sites table can be filled from the timeline at once (src/app/timeline/fill.ts). */
+  equatorRe: number | null;
+  conjugate: Footpoint | null;
+  ovalDistanceKm: number | null;
+  ovalRelationReason?: string | null;
+  boundaries: SiteResult['boundaries'];
   error?: string;
 }
 

@@ -105,6 +105,32 @@ export function readTime(what: string, text: string): Checked<{ iso: string; noZ
   return { ok: true, value: { iso: d.toISOString().replace('.000Z', 'Z'), noZone } };
 }
 
+const UTC_FIELD_RE = /^(\d{4}-\d{2}-\d{2})[ T](\d{2}:\d{2}(?::\d{2})?)(?:\s*(?:UTC|Z))?$/i;
+
+/**
+ * The app's time field: a 24-hour UTC time "YYYY-MM-DD HH:MM" (seconds
+ * optional, "T" for the space and a trailing "UTC" or "Z" accepted); another
+ * zone or a 12-hour clock (am/pm) is refused, and the calendar checks are
+ * readTime's. The value is normalised to `YYYY-MM-DDTHH:MM:SSZ`.
+ */
+export function readUtcField(what: string, text: string): Checked<string> {
+  const t = text.trim();
+  const m = UTC_FIELD_RE.exec(t);
+  const shown = t.length > 40 ? `${t.slice(0, 40)}…` : t;
+  if (!m) return { ok: false, message: `${what}: ${expectedGot('a 24-hour UTC time as YYYY-MM-DD HH:MM, such as 2025-03-20 22:00 UTC', shown, true)}` };
+  const [hh, mm, ss = 0] = m[2].split(':').map(Number);
+  if (hh > 23 || mm > 59 || ss > 59) return { ok: false, message: `${what}: ${expectedGot('hours 00–23 and minutes 00–59 (24-hour clock)', shown, true)}` };
+  const r = readTime(what, `${m[1]}T${m[2]}Z`);
+  if (!r.ok) return { ok: false, message: `${what}: ${expectedGot('a date that exists, as YYYY-MM-DD HH:MM UTC', shown, true)}` };
+  return { ok: true, value: r.value.iso };
+}
+
+/** An ISO instant as the time field shows it: "YYYY-MM-DD HH:MM UTC" (24-hour clock). */
+export function utcFieldText(iso: string): string {
+  const d = new Date(Date.parse(iso));
+  return `${d.toISOString().slice(0, 10)} ${d.toISOString().slice(11, 16)} UTC`;
+}
+
 /** A site name: trimmed, at most APP_LIMITS.maxNameChars characters (longer is refused, not cut). */
 export function readSiteName(what: string, text: string): Checked<string> {
   const t = text.trim();

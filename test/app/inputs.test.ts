@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { APP_LIMITS, APP_RANGES, parseDecimal, pressureFromPlasma, readNumber, readTime, siteLimitText } from '../../src/io/app-inputs';
+import { APP_LIMITS, APP_RANGES, parseDecimal, pressureFromPlasma, readNumber, readTime, readUtcField, siteLimitText, utcFieldText } from '../../src/io/app-inputs';
 import { parseSitesCsv } from '../../src/io/app-csv';
 import { INPUT_RANGES } from '../../src/cli/common';
 import { parseNumberText } from '../../src/cli/args';
@@ -36,6 +36,20 @@ describe('the app validation path shares the command line rules', () => {
     expect(readTime('t', '2024-02-30').ok).toBe(false);
     expect(readTime('t', '2023-02-29T00:00Z').ok).toBe(false);
     expect(readTime('t', '2024-02-29T00:00Z').ok).toBe(true);
+  });
+
+  it('the time field reads a 24-hour UTC time "YYYY-MM-DD HH:MM UTC" and refuses a 12-hour clock, another zone or an impossible date', () => {
+    expect(readUtcField('Time (UTC)', '2025-03-20 22:00 UTC')).toEqual({ ok: true, value: '2025-03-20T22:00:00Z' });
+    expect(readUtcField('Time (UTC)', ' 2025-03-20 22:00 ')).toEqual({ ok: true, value: '2025-03-20T22:00:00Z' });
+    expect(readUtcField('Time (UTC)', '2025-03-20T23:30')).toEqual({ ok: true, value: '2025-03-20T23:30:00Z' });
+    expect(readUtcField('Time (UTC)', '2025-03-20 23:30:15Z')).toEqual({ ok: true, value: '2025-03-20T23:30:15Z' });
+    expect(readUtcField('Time (UTC)', '2025-03-20 10:00 PM')).toEqual({ ok: false, message: 'Time (UTC): expected a 24-hour UTC time as YYYY-MM-DD HH:MM, such as 2025-03-20 22:00 UTC, got "2025-03-20 10:00 PM"' });
+    expect(readUtcField('Time (UTC)', '2025-03-20 22:00+02:00').ok).toBe(false);
+    expect(readUtcField('Time (UTC)', '2025-03-20 24:00')).toEqual({ ok: false, message: 'Time (UTC): expected hours 00–23 and minutes 00–59 (24-hour clock), got "2025-03-20 24:00"' });
+    expect(readUtcField('Time (UTC)', '2025-02-30 01:00')).toEqual({ ok: false, message: 'Time (UTC): expected a date that exists, as YYYY-MM-DD HH:MM UTC, got "2025-02-30 01:00"' });
+    expect(utcFieldText('2025-03-20T07:05:00Z')).toBe('2025-03-20 07:05 UTC');
+    // Round trip: what the field shows reads back to the same instant.
+    expect(readUtcField('t', utcFieldText('2031-12-31T23:59:00Z'))).toEqual({ ok: true, value: '2031-12-31T23:59:00Z' });
   });
 
   it('"Use … nPa" from density and speed gives exactly 2.0e-6·n·v² (references §3), never a clamped value', () => {

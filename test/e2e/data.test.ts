@@ -62,14 +62,14 @@ describe.skipIf(!HAVE_BROWSER)('app data rules', () => {
   it('clears the site results and refuses exports (with the reason) when the time leaves the model range; recovers after', async () => {
     const before = await atlas((st) => (st.siteResults as { sites: unknown[] }).sites.length);
     expect(before).toBe(1);
-    await b.page.getByLabel('Time (UTC)', { exact: true }).fill('2031-06-01T00:00');
+    await b.page.getByLabel('Time (UTC)', { exact: true }).fill('2031-06-01 00:00 UTC');
     await expect.poll(() => atlas((st) => st.errors.sites ?? ''), { timeout: 60_000 }).toMatch(/time/);
     expect(await atlas((st) => st.siteResults)).toBeNull();
     await b.page.getByRole('button', { name: 'Sites CSV', exact: true }).click();
     await status('Sites CSV not exported: no site results for the current inputs: time');
     await b.page.getByRole('button', { name: 'Boundaries GeoJSON', exact: true }).click();
     await status('Boundaries GeoJSON not exported: no boundaries for the current inputs');
-    await b.page.getByLabel('Time (UTC)', { exact: true }).fill('2025-03-20T23:30');
+    await b.page.getByLabel('Time (UTC)', { exact: true }).fill('2025-03-20 23:30 UTC');
     await waitFresh(b.page);
     const csv = await downloadText(b.page, 'Sites CSV');
     expect(csv.name).toBe('fieldline-atlas-sites-2025-03-20T2330Z.csv');

@@ -16,15 +16,6 @@ export function isoUtc(ms: number): string {
   return new Date(ms).toISOString().replace(/\.\d{3}Z$/, 'Z');
 }
 
-/** "YYYY-MM-DDTHH:MM" (a datetime-local value, read as UTC) ↔ ISO. */
-export function localInputFromIso(iso: string): string {
-  return isoUtc(Date.parse(iso)).slice(0, 16);
-}
-export function isoFromLocalInput(v: string): string | null {
-  const ms = Date.parse(v.length === 16 ? `${v}:00Z` : `${v}Z`);
-  return Number.isFinite(ms) ? isoUtc(ms) : null;
-}
-
 /** Add hours to an ISO instant. */
 export function addHours(iso: string, h: number): string {
   return isoUtc(Date.parse(iso) + h * 3_600_000);

@@ -7,14 +7,16 @@ import { useMemo } from 'react';
 import type { SitesResult } from '../../../workers/protocol';
 import { useStore } from '../store';
 import { fmtMlt } from '../lib/units';
-import { groundDistanceKm, latLonText, lineSentence, lookSentence, ovalPlace, utcText } from './answer';
+import { MLT_LABEL_MAG } from '../../physics/mapping/cgm-model';
+import { cgmSentence, groundDistanceKm, latLonText, lineSentence, lookSentence, ovalPlace, utcText } from './answer';
 import { ui, useUi } from './selection';
 
 /** Conjugate of each site in the previous and the current answer (by site name). */
 const seen = new Map<string, { requestId: number; lat: number; lon: number; prev: { lat: number; lon: number } | null }>();
 
 function record(res: SitesResult | null): void {
-  if (!res) return;
+  // A table filled from the timeline is followed by the worker's own answer for the same inputs: count that one.
+  if (!res || res.fromTimeline) return;
   for (const r of res.sites) {
     const old = seen.get(r.name);
     if (old && old.requestId === res.requestId) continue;
@@ -69,7 +71,7 @@ export function AnswerCard() {
                     {moved ? ` — ${Math.round(groundDistanceKm(moved.lat, moved.lon, r.conjugate.geoLatDeg, r.conjugate.geoLonDeg))} km from the previous answer.` : '.'}</>
                 : 'No conjugate point (the line does not return to Earth).'}
             </li>
-            <li className="dim">Magnetic latitude {Number.isFinite(r.magLatDeg) ? `${r.magLatDeg.toFixed(1)}°` : '–'}, magnetic local time {fmtMlt(r.mltHours)} (centred-dipole coordinates at the footpoint altitude).</li>
+            <li className="dim" data-answer="magnetic">{cgmSentence(r.cgm)} Centred-dipole: magnetic latitude {Number.isFinite(r.magLatDeg) ? `${r.magLatDeg.toFixed(1)}°` : '–'}, {MLT_LABEL_MAG} {fmtMlt(r.mltHours)} (at the footpoint altitude).</li>
           </ul>
         </>
       )}

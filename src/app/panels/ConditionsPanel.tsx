@@ -7,6 +7,7 @@ import { APP_RANGES, pressureFromPlasma } from '../../io/app-inputs';
 import { NOMINAL_SPEED_KMS } from '../../physics/field/storm-index';
 import { NumberField } from './NumberField';
 import { TimeControl } from './TimeControl';
+import { HINTS } from './hints';
 
 /** The slider's span (log scale); the number field takes the whole allowed range. */
 const P_LO = 0.1;
@@ -39,10 +40,11 @@ function StormControls() {
           <option value="estimate">estimate from the solar wind</option>
           <option value="given">given (Dst or SYM-H)</option>
         </select>
+        <span className="hint field-hint">{HINTS.stormIndex}</span>
       </div>
-      {dst !== null && <NumberField label="Dst or SYM-H (nT)" value={dst} range={APP_RANGES.dstNt} step={5} onCommit={(v) => setConditions({ dstNt: v })} />}
+      {dst !== null && <NumberField label="Dst or SYM-H (nT)" value={dst} range={APP_RANGES.dstNt} step={5} onCommit={(v) => setConditions({ dstNt: v })} hint={HINTS.dst} />}
       {dst === null && used && <p className="hint">Estimated Dst {used.dstNt.toFixed(0)} nT (Dst* {used.dstStarNt.toFixed(0)} nT).</p>}
-      <NumberField label="Solar-wind speed (km/s)" value={speed ?? NOMINAL_SPEED_KMS} range={APP_RANGES.speedKms} step={10} onCommit={(v) => setConditions({ speedKms: v })} hint={speed === null ? `nominal ${NOMINAL_SPEED_KMS} km/s until set` : undefined} />
+      <NumberField label="Solar-wind speed (km/s)" value={speed ?? NOMINAL_SPEED_KMS} range={APP_RANGES.speedKms} step={10} onCommit={(v) => setConditions({ speedKms: v })} hint={speed === null ? `${HINTS.speed}; nominal ${NOMINAL_SPEED_KMS} km/s until set` : HINTS.speed} />
       {speed !== null && <button type="button" onClick={() => setConditions({ speedKms: null })}>Use the nominal speed ({NOMINAL_SPEED_KMS} km/s)</button>}
     </fieldset>
   );
@@ -62,7 +64,7 @@ export function ConditionsPanel() {
       <h2 id="cond-h">Conditions</h2>
       <LinkNotices />
       <TimeControl />
-      <NumberField label="Dynamic pressure (nPa)" value={c.pdynNpa} range={APP_RANGES.pdynNpa} step={0.1} onCommit={(v) => setConditions({ pdynNpa: v })} />
+      <NumberField label="Dynamic pressure (nPa)" value={c.pdynNpa} range={APP_RANGES.pdynNpa} step={0.1} onCommit={(v) => setConditions({ pdynNpa: v })} hint={HINTS.pdyn} />
       <input
         type="range"
         aria-label="Dynamic pressure slider (log scale 0.1–100 nPa)"
@@ -85,9 +87,9 @@ export function ConditionsPanel() {
         {pMsg && <p role="status" className="msg">{pMsg}</p>}
       </details>
       <StormControls />
-      <NumberField label="IMF Bz (nT)" value={c.bzNt} range={APP_RANGES.imfNt} step={0.5} onCommit={(v) => setConditions({ bzNt: v })} />
+      <NumberField label="IMF Bz (nT)" value={c.bzNt} range={APP_RANGES.imfNt} step={0.5} onCommit={(v) => setConditions({ bzNt: v })} hint={HINTS.bz} />
       <input type="range" aria-label="IMF Bz slider (GSM, nT)" min={-30} max={30} step={0.5} value={c.bzNt} onChange={(e) => setConditions({ bzNt: Number(e.target.value) })} />
-      <NumberField label="IMF By (nT)" value={c.byNt} range={APP_RANGES.imfNt} step={0.5} onCommit={(v) => setConditions({ byNt: v })} />
+      <NumberField label="IMF By (nT)" value={c.byNt} range={APP_RANGES.imfNt} step={0.5} onCommit={(v) => setConditions({ byNt: v })} hint={HINTS.by} />
       <input type="range" aria-label="IMF By slider (GSM, nT)" min={-30} max={30} step={0.5} value={c.byNt} onChange={(e) => setConditions({ byNt: Number(e.target.value) })} />
       <div className="field">
         <label htmlFor="alt-preset">Altitude preset</label>
@@ -104,30 +106,34 @@ export function ConditionsPanel() {
           <option value="red">red 630.0 nm (250 km)</option>
           <option value="custom">custom</option>
         </select>
+        <span className="hint field-hint">{HINTS.altPreset}</span>
       </div>
-      <NumberField label="Footpoint altitude (km)" value={p.altKm} range={APP_RANGES.altKm} step={10} onCommit={(v) => setProducts({ altPreset: 'custom', altKm: v })} />
+      <NumberField label="Footpoint altitude (km)" value={p.altKm} range={APP_RANGES.altKm} step={10} onCommit={(v) => setProducts({ altPreset: 'custom', altKm: v })} hint={HINTS.altKm} />
       <label>
         <input type="checkbox" checked={p.conjugateAltKm === null} onChange={(e) => setProducts({ conjugateAltKm: e.target.checked ? null : p.altKm })} /> conjugate point at the footpoint altitude
       </label>
-      <NumberField label="Conjugate altitude (km)" value={conjugateAltOf(p)} range={APP_RANGES.altKm} step={10} disabled={p.conjugateAltKm === null} onCommit={(v) => setProducts({ conjugateAltKm: v })} hint="altitude of the conjugate point; the footpoint altitude unless set apart" />
+      <NumberField label="Conjugate altitude (km)" value={conjugateAltOf(p)} range={APP_RANGES.altKm} step={10} disabled={p.conjugateAltKm === null} onCommit={(v) => setProducts({ conjugateAltKm: v })} hint={HINTS.conjugateAltKm} />
       <div className="field">
         <label htmlFor="internal">Internal field</label>
         <select id="internal" value={c.internal} onChange={(e) => setConditions({ internal: e.target.value === 'igrf' ? 'igrf' : 'dipole' })}>
-          <option value="dipole">centred dipole</option>
           <option value="igrf">IGRF-14</option>
+          <option value="dipole">centred dipole</option>
         </select>
+        <span className="hint field-hint">{c.internal === 'igrf' ? HINTS.igrf : HINTS.dipole}</span>
       </div>
-      <NumberField label="IMF efficiency ε" value={c.imfEfficiency} range={APP_RANGES.imfEfficiency} step={0.05} onCommit={(v) => setConditions({ imfEfficiency: v })} />
+      <NumberField label="IMF efficiency ε" value={c.imfEfficiency} range={APP_RANGES.imfEfficiency} step={0.05} onCommit={(v) => setConditions({ imfEfficiency: v })} hint={HINTS.epsilon} />
       <label>
         <input type="checkbox" checked={p.sourceRe === null} onChange={(e) => setProducts({ sourceRe: e.target.checked ? null : Number((used?.sourceRe ?? 7).toFixed(2)) })} /> source distance follows the conditions
       </label>
-      <NumberField label="Source distance (RE)" value={p.sourceRe ?? Number((used?.sourceRe ?? NaN).toFixed(2))} range={APP_RANGES.sourceRe} step={0.5} disabled={p.sourceRe === null} onCommit={(v) => setProducts({ sourceRe: v })} hint="equatorial distance whose footprint is the equatorward edge" />
-      <NumberField label="Minimum elevation (deg)" value={p.minElevationDeg} range={APP_RANGES.minElevationDeg} step={1} onCommit={(v) => setProducts({ minElevationDeg: v })} />
-      <NumberField label="Lowest boundary MLAT (deg)" value={p.minLatDeg} range={APP_RANGES.minLatDeg} step={1} onCommit={(v) => setProducts({ minLatDeg: v })} hint="magnetic latitude the boundary searches start from" />
+      <NumberField label="Source distance (RE)" value={p.sourceRe ?? Number((used?.sourceRe ?? NaN).toFixed(2))} range={APP_RANGES.sourceRe} step={0.5} disabled={p.sourceRe === null} onCommit={(v) => setProducts({ sourceRe: v })} hint={HINTS.sourceRe} />
+      <NumberField label="Minimum elevation (deg)" value={p.minElevationDeg} range={APP_RANGES.minElevationDeg} step={1} onCommit={(v) => setProducts({ minElevationDeg: v })} hint={HINTS.minElevation} />
+      <NumberField label="Lowest boundary MLAT (deg)" value={p.minLatDeg} range={APP_RANGES.minLatDeg} step={1} onCommit={(v) => setProducts({ minLatDeg: v })} hint={HINTS.minLat} />
       <fieldset>
         <legend>Show</legend>
-        <label><input type="checkbox" checked={c.magnetopause} onChange={(e) => setConditions({ magnetopause: e.target.checked })} /> magnetopause term</label>
-        <label><input type="checkbox" checked={c.tail !== false} onChange={(e) => setConditions({ tail: e.target.checked })} /> tail current sheet</label>
+        <label title={HINTS.magnetopause}><input type="checkbox" checked={c.magnetopause} aria-describedby="hint-mp" onChange={(e) => setConditions({ magnetopause: e.target.checked })} /> magnetopause term</label>
+        <span id="hint-mp" className="hint field-hint">{HINTS.magnetopause}</span>
+        <label title={HINTS.tail}><input type="checkbox" checked={c.tail !== false} aria-describedby="hint-tail" onChange={(e) => setConditions({ tail: e.target.checked })} /> tail current sheet</label>
+        <span id="hint-tail" className="hint field-hint">{HINTS.tail}</span>
         <label><input type="checkbox" checked={view.magnetopauseSurface} onChange={(e) => setView({ magnetopauseSurface: e.target.checked })} /> magnetopause surface</label>
         <label><input type="checkbox" checked={view.fan} onChange={(e) => setView({ fan: e.target.checked })} /> field-line fan</label>
         <label><input type="checkbox" checked={view.magGraticule} onChange={(e) => setView({ magGraticule: e.target.checked })} /> magnetic graticule</label>

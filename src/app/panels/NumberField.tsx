@@ -1,7 +1,8 @@
 /**
  * A labelled number input that keeps what the user is typing, commits only
  * valid values (the app's validation path: plain decimals in the allowed
- * range, src/io/app-inputs.ts) and says under the field why a value is refused.
+ * range, src/io/app-inputs.ts), shows its one-line hint under it and says
+ * there why a value is refused.
  */
 import { useEffect, useId, useState } from 'react';
 import { readNumber, type ValueRange } from '../../io/app-inputs';
@@ -40,8 +41,8 @@ export function NumberField({ label, value, min = -Infinity, max = Infinity, ran
         value={text}
         disabled={disabled}
         aria-invalid={!checked.ok && !disabled}
-        aria-describedby={checked.ok ? undefined : `${id}-err`}
-        title={hint ?? (r.above !== undefined ? `> ${r.above} to ${r.max}` : `${r.min} to ${r.max}`)}
+        aria-describedby={[hint ? `${id}-hint` : '', checked.ok ? '' : `${id}-err`].filter(Boolean).join(' ') || undefined}
+        title={r.above !== undefined ? `> ${r.above} to ${r.max}` : `${r.min} to ${r.max}`}
         onFocus={() => setFocused(true)}
         onBlur={() => setFocused(false)}
         onChange={(e) => {
@@ -50,6 +51,7 @@ export function NumberField({ label, value, min = -Infinity, max = Infinity, ran
           if (c.ok) onCommit(c.value);
         }}
       />
+      {hint && <span id={`${id}-hint`} className="hint field-hint">{hint}</span>}
       {!checked.ok && !disabled && <span id={`${id}-err`} className="field-error">{checked.message} — not applied.</span>}
     </div>
   );

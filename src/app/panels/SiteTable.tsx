@@ -7,7 +7,8 @@ import { conjugateAltOf, useStore } from '../store';
 import { removeSite } from '../sites';
 import { fmt, fmtMlt } from '../lib/units';
 import { LINE_COLOURS } from '../lib/palette';
-import { ovalPlace } from './answer';
+import { MLT_LABEL_CGM, MLT_LABEL_MAG } from '../../physics/mapping/cgm-model';
+import { cgmLatText, ovalPlace } from './answer';
 import { ui, useUi } from './selection';
 
 export function SiteTable() {
@@ -32,8 +33,10 @@ export function SiteTable() {
             <th scope="col" title={`latitude where the site's field line comes down in the other hemisphere (at the ${conjAt})`}>Conjugate lat (°, {conjAt})</th>
             <th scope="col" title={`longitude of that conjugate point (at the ${conjAt})`}>Conjugate lon (°, {conjAt})</th>
             <th scope="col" title="distance from Earth's centre where the site's field line crosses the magnetic equator (weakest field), in Earth radii; in a pure dipole this is the L-shell value">Equatorial distance (RE) = L in a dipole</th>
-            <th scope="col" title={`magnetic local time at the footpoint (${products.altKm} km): 00:00 magnetic midnight, 12:00 magnetic noon`}>MLT</th>
-            <th scope="col" title={`centred-dipole magnetic latitude of the footpoint (${products.altKm} km)`}>Mag lat (°)</th>
+            <th scope="col" title={`magnetic local time at the footpoint (${products.altKm} km) in centred-dipole (MAG) coordinates: 00:00 magnetic midnight, 12:00 magnetic noon`}>{MLT_LABEL_MAG}</th>
+            <th scope="col" title={`centred-dipole (MAG) magnetic latitude of the footpoint (${products.altKm} km)`}>Mag lat (°, MAG)</th>
+            <th scope="col" title="corrected geomagnetic latitude of the site: the main field's line followed to the dipole equator, then the dipole latitude with the same apex (the same all along the line); undefined near the dipole equator">CGM lat (°)</th>
+            <th scope="col" title="magnetic local time from the site's corrected geomagnetic longitude">{MLT_LABEL_CGM}</th>
             <th scope="col" title="open–closed boundary (OCB): poleward edge of the oval at the site's MLT, magnetic latitude">Open–closed boundary (°)</th>
             <th scope="col" title="equatorward edge of the oval at the site's MLT, magnetic latitude">Equatorward edge (°)</th>
             <th scope="col" title="where the site is against the oval at its MLT, in its own hemisphere (north of, inside, south of)">Where the oval is</th>
@@ -60,6 +63,8 @@ export function SiteTable() {
                 <td>{fmt(r?.equatorRe, 2)}</td>
                 <td>{fmtMlt(r?.mltHours)}</td>
                 <td>{fmt(r?.magLatDeg, 2)}</td>
+                <td data-col="cgm-lat" title={r?.cgm && !r.cgm.defined ? r.cgm.reason : undefined}>{cgmLatText(r?.cgm)}</td>
+                <td data-col="cgm-mlt">{r?.cgm?.defined ? fmtMlt(r.cgm.mltH) : '–'}</td>
                 <td>{fmt(r?.boundaries?.openClosedMagLatDeg, 2)}</td>
                 <td>{fmt(r?.boundaries?.equatorwardMagLatDeg, 2)}</td>
                 <td className="words">{r ? ovalPlace(r).short : '…'}</td>

@@ -4,7 +4,8 @@
  * hemisphere's terms, where to look, the conjugate point. Display only: every
  * number comes from the engine's SiteResult.
  */
-import type { SiteResult } from '../../../workers/protocol';
+import type { CgmResult, SiteResult } from '../../../workers/protocol';
+import { MLT_LABEL_CGM } from '../../physics/mapping/cgm-model';
 import { RAD_PER_DEG, RE_KM } from '../../physics/constants';
 import { centralAngleDeg } from '../lib/visibility';
 
@@ -105,4 +106,20 @@ export function latLonText(latDeg: number, lonDeg: number): string {
 export function utcText(iso: string): string {
   const ms = Date.parse(iso);
   return Number.isFinite(ms) ? `${new Date(ms).toISOString().slice(0, 16).replace('T', ' ')} UTC` : 'time not set';
+}
+
+/** A table cell for a CGM latitude: two decimals, "undefined" near the dipole equator, an en dash when not computed. */
+export function cgmLatText(c: CgmResult | undefined): string {
+  if (!c) return '–';
+  return c.defined ? c.latDeg.toFixed(2) : 'undefined';
+}
+
+/** "Corrected geomagnetic latitude 64.3°, MLT (CGM) 23:10." or why it is undefined. */
+export function cgmSentence(c: CgmResult | undefined): string {
+  if (!c) return '';
+  if (!c.defined) return `Corrected geomagnetic latitude: ${c.reason}.`;
+  const h = ((c.mltH % 24) + 24) % 24;
+  const m = Math.round(h * 60) % 1440;
+  const hhmm = `${String(Math.floor(m / 60)).padStart(2, '0')}:${String(m % 60).padStart(2, '0')}`;
+  return `Corrected geomagnetic latitude ${c.latDeg.toFixed(1)}°, ${MLT_LABEL_CGM} ${hhmm}.`;
 }

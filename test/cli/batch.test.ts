@@ -189,7 +189,7 @@ describe('batch: agreement with trace and the boundary search (same engine)', ()
     it(`a row equals \`trace\` for the same site and conditions, and the engine boundaries at the row's MLT (${extra.join(' ') || 'default model'})`, async () => {
       const one = file('one-site.csv', 'name,lat_deg,lon_deg,height_km\nAlder Knoll,66.2,18.4,0.2\n');
       const hour = file('one-hour.csv', 'time,pdyn_npa,bz_nt,by_nt\n2025-03-20T21:00:00Z,4.5,-8.0,-2.0\n');
-      const r = await batch(['--sites', one, '--conditions', hour, '--workers', '1', '--format', 'json', ...extra]);
+      const r = await batch(['--sites', one, '--conditions', hour, '--workers', '1', '--format', 'json', '--conjugate-alt-km', '0', ...extra]);
       expect(r.code, r.err).toBe(EXIT_OK);
       const row = jsonl(r.out)[1];
       const common = ['--time', '2025-03-20T21:00:00Z', '--pdyn', '4.5', '--bz', '-8', '--by', '-2', '--lat', '66.2', '--lon', '18.4', '--height-km', '0.2', ...extra];

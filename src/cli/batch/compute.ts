@@ -6,8 +6,10 @@
  */
 import { prepareModel, type PreparedModel } from '../../physics/field/model';
 import { makeTracer, siteGsm, boundaryFinder } from '../../physics/mapping';
-import { splitFootpoints } from '../../physics/mapping';
+import { splitFootpoints, type Footpoint } from '../../physics/mapping';
 import { siteReport, type SiteInput, type SiteResult, type BoundaryProvider, type SectorBoundaries, type Hemisphere } from '../../physics/mapping';
+import { cgmOf, type CgmResult } from '../../physics/mapping';
+import { sunElevationDegUnchecked, twilightClass, skyDarkness } from '../../physics/mapping/darkness';
 import { sectorReasons } from '../reasons';
 import { gridBoundaries } from './grid-boundaries';
 import { DEG_PER_RAD } from '../../physics/constants';
@@ -29,6 +31,12 @@ export interface BatchSettings {
   /** Equatorial source distance set by the user, RE; null: the model's, following the conditions. */
   sourceRe: number | null;
   minElevationDeg: number;
+  /** The sky counts as dark (sky_visible) with the Sun's centre below this geometric elevation, deg (−30..0). */
+  sunLimitDeg: number;
+  /** Add the Moon's columns (moon_elevation_deg, moon_illuminated_fraction). */
+  moon: boolean;
+  /** Add the corrected geomagnetic (CGM) columns (three extra main-field traces per row). */
+  cgm: boolean;
   /** null: the engine's boundary search at each site's exact MLT; else an MLT grid step (h), interpolated (approximation). */
   boundaryMltStep: number | null;
   format: BatchFormat;
@@ -68,7 +76,11 @@ export interface JobResult {
   problems: string[];
 }
 
-/** Output columns, units in the names. The JSON and GeoJSON records use the same keys. */
+/**
+ * Every output column, units in the names; the JSON and GeoJSON records use the
+ * same keys. The optional groups (CGM_COLUMNS with --cgm, MOON_COLUMNS with
+ * --moon) are left out of a run without them: `batchColumns(settings)`.
+ */
 export const BATCH_COLUMNS = [
   'conditions_line', 'sites_line', 'site', 'site_lat_deg', 'site_lon_deg', 'site_height_km',
   'time', 'pdyn_npa', 'bz_nt', 'by_nt', 'speed_kms', 'dst_nt', 'dst_source', 'dst_star_nt', 'tilt_deg', 'source_re',
@@ -76,10 +88,24 @@ export const BATCH_COLUMNS = [
   'conj_geo_lat_deg', 'conj_geo_lon_deg', 'conj_mag_lat_deg', 'conj_mag_lon_deg', 'conj_mlt_h',
   'foot_geo_lat_deg', 'foot_geo_lon_deg', 'far_foot_geo_lat_deg', 'far_foot_geo_lon_deg',
   'equator_r_re', 'l_shell', 'mlt_h', 'mag_lat_deg',
+  'cgm_lat_deg', 'cgm_lon_deg', 'cgm_mlt_h', 'foot_cgm_lat_deg', 'foot_cgm_lon_deg', 'foot_cgm_mlt_h', 'conj_cgm_lat_deg', 'conj_cgm_lon_deg', 'cgm_reason',
   'open_closed_mag_lat_deg', 'equatorward_mag_lat_deg', 'boundary_reason', 'oval_relation', 'inside_oval',
-  'sky_elevation_deg', 'sky_azimuth_deg', 'sky_distance_km', 'sky_visible',
+  'sky_elevation_deg', 'sky_azimuth_deg', 'sky_distance_km', 'oval_above_horizon', 'sun_elevation_deg', 'twilight', 'sky_visible',
+  'moon_elevation_deg', 'moon_illuminated_fraction',
   'warnings', 'error', 'skipped',
 ] as const;
+
+export type BatchColumn = (typeof BATCH_COLUMNS)[number];
+
+/** The CGM columns (--cgm): the site at its height, the site-side footpoint at --alt-km, the conjugate at --conjugate-alt-km. */
+export const CGM_COLUMNS: readonly BatchColumn[] = ['cgm_lat_deg', 'cgm_lon_deg', 'cgm_mlt_h', 'foot_cgm_lat_deg', 'foot_cgm_lon_deg', 'foot_cgm_mlt_h', 'conj_cgm_lat_deg', 'conj_cgm_lon_deg', 'cgm_reason'];
+/** The Moon's columns (--moon). */
+export const MOON_COLUMNS: readonly BatchColumn[] = ['moon_elevation_deg', 'moon_illuminated_fraction'];
+
+/** The columns of a run, in output order. */
+export function batchColumns(st: Pick<BatchSettings, 'cgm' | 'moon'>): BatchColumn[] {
+  return BATCH_COLUMNS.filter((c) => (st.cgm || !CGM_COLUMNS.includes(c)) && (st.moon || !MOON_COLUMNS.includes(c)));
+}
 
 type Row = CsvCell[];
 
@@ -89,7 +115,7 @@ function emptyRow(): Row {
   return new Array<CsvCell>(BATCH_COLUMNS.length).fill(null);
 }
 
-const C = Object.fromEntries(BATCH_COLUMNS.map((c, i) => [c, i])) as Record<(typeof BATCH_COLUMNS)[number], number>;
+const C = Object.fromEntries(BATCH_COLUMNS.map((c, i) => [c, i])) as Record<BatchColumn, number>;
 
 function fillSite(r: Row, site: RowOutcome<SiteInput>): void {
   r[C.sites_line] = site.line;
@@ -126,7 +152,52 @@ function fillCondition(r: Row, line: number | null, c: SeriesCondition | null, m
 
 const v3 = new Float64Array(3);
 
-function fillResult(r: Row, m: PreparedModel, site: SiteInput, s: SiteResult): void {
+/** CGM of a geodetic point, or its reason when undefined or not computable (never throws). */
+function cgmAt(model: PreparedModel, latDeg: number, lonDeg: number, heightKm: number): CgmResult {
+  try {
+    return cgmOf(model).fromGeodetic(latDeg, lonDeg, heightKm);
+  } catch (e) {
+    return { defined: false, reason: `not computed: ${errorText(e)}` };
+  }
+}
+
+/** CGM cells of the site (its height), its footpoint (--alt-km) and the conjugate (--conjugate-alt-km); cgm_reason names each point left empty. */
+function fillCgm(r: Row, model: PreparedModel, site: SiteInput, near: Footpoint | null, conj: Footpoint | null): void {
+  const reasons: string[] = [];
+  const siteC = cgmAt(model, site.latDeg, site.lonDeg, site.heightKm ?? 0);
+  if (siteC.defined) { r[C.cgm_lat_deg] = siteC.latDeg; r[C.cgm_lon_deg] = siteC.lonDeg; r[C.cgm_mlt_h] = siteC.mltH; } else reasons.push(`site: ${siteC.reason}`);
+  if (near) {
+    const f = cgmAt(model, near.geoLatDeg, near.geoLonDeg, near.altKm);
+    if (f.defined) { r[C.foot_cgm_lat_deg] = f.latDeg; r[C.foot_cgm_lon_deg] = f.lonDeg; r[C.foot_cgm_mlt_h] = f.mltH; } else reasons.push(`footpoint: ${f.reason}`);
+  } else reasons.push('footpoint: none on the site\'s side');
+  if (conj) {
+    const c = cgmAt(model, conj.geoLatDeg, conj.geoLonDeg, conj.altKm);
+    if (c.defined) { r[C.conj_cgm_lat_deg] = c.latDeg; r[C.conj_cgm_lon_deg] = c.lonDeg; } else reasons.push(`conjugate: ${c.reason}`);
+  }
+  r[C.cgm_reason] = reasons.length ? reasons.join('; ') : null;
+}
+
+/**
+ * Sky darkness at the site (Sun after Hapgood, references §6; twilight −6/−12/−18°, common practice): the Sun's elevation and twilight
+ * class, sky_visible = the oval point above the minimum elevation AND the Sun
+ * below the limit; with --moon the Moon's elevation and illuminated fraction.
+ */
+function fillDarkness(r: Row, ms: number, site: SiteInput, st: BatchSettings, ovalAboveHorizon: boolean | null): void {
+  let sunEl: number;
+  if (st.moon) {
+    const d = skyDarkness(site.latDeg, site.lonDeg, site.heightKm ?? 0, ms, { sunLimitDeg: st.sunLimitDeg });
+    sunEl = d.sunElevationDeg;
+    r[C.moon_elevation_deg] = d.moonElevationDeg;
+    r[C.moon_illuminated_fraction] = d.moonIlluminatedFraction;
+  } else {
+    sunEl = sunElevationDegUnchecked(site.latDeg, site.lonDeg, ms);
+  }
+  r[C.sun_elevation_deg] = sunEl;
+  r[C.twilight] = twilightClass(sunEl);
+  r[C.sky_visible] = ovalAboveHorizon === null ? null : ovalAboveHorizon && sunEl < st.sunLimitDeg;
+}
+
+function fillResult(r: Row, m: PreparedModel, site: SiteInput, s: SiteResult, st: BatchSettings): void {
   r[C.line_type] = s.type;
   if (s.conjugate) {
     r[C.conj_geo_lat_deg] = s.conjugate.geoLatDeg;
@@ -143,6 +214,7 @@ function fillResult(r: Row, m: PreparedModel, site: SiteInput, s: SiteResult): v
   r[C.l_shell] = s.lShell;
   r[C.mlt_h] = Number.isFinite(s.mltHours) ? s.mltHours : null;
   r[C.mag_lat_deg] = Number.isFinite(s.magLatDeg) ? s.magLatDeg : null;
+  if (st.cgm) fillCgm(r, m, site, near ?? null, s.conjugate);
   if (s.boundaries) {
     r[C.open_closed_mag_lat_deg] = s.boundaries.openClosedMagLatDeg;
     r[C.equatorward_mag_lat_deg] = s.boundaries.equatorwardMagLatDeg;
@@ -153,25 +225,32 @@ function fillResult(r: Row, m: PreparedModel, site: SiteInput, s: SiteResult): v
     r[C.sky_elevation_deg] = s.sky.elevationDeg;
     r[C.sky_azimuth_deg] = s.sky.azimuthDeg;
     r[C.sky_distance_km] = s.sky.distanceKm;
-    r[C.sky_visible] = s.sky.visible;
+    r[C.oval_above_horizon] = s.sky.visible;
   }
+  fillDarkness(r, m.ms, site, st, s.sky ? s.sky.visible : null);
 }
 
 /** Formats rows; for GeoJSON each row is a Point at the conjugate point (null geometry without one). */
 class RowFormatter {
   private readonly parts: string[] = [];
-  constructor(private readonly settings: BatchSettings) {}
+  private readonly names: BatchColumn[];
+  private readonly index: number[];
+  constructor(private readonly settings: BatchSettings) {
+    this.names = batchColumns(settings);
+    this.index = this.names.map((c) => C[c]);
+  }
 
   add(r: Row): void {
     const f = this.settings.format;
     if (f === 'csv') {
       let s = '';
-      for (let i = 0; i < r.length; i++) s += (i ? ',' : '') + csvField(r[i], this.settings.csvDecimals);
+      const ix = this.index;
+      for (let i = 0; i < ix.length; i++) s += (i ? ',' : '') + csvField(r[ix[i]], this.settings.csvDecimals);
       this.parts.push(s + '\r\n');
       return;
     }
     const o: Record<string, CsvCell> = {};
-    BATCH_COLUMNS.forEach((c, i) => { o[c] = r[i] === undefined ? null : r[i]; });
+    this.names.forEach((c, i) => { const v = r[this.index[i]]; o[c] = v === undefined ? null : v; });
     if (f === 'json') { this.parts.push(writeJson(o, 0)); return; }
     const lat = r[C.conj_geo_lat_deg], lon = r[C.conj_geo_lon_deg];
     const geometry = typeof lat === 'number' && typeof lon === 'number'
@@ -244,7 +323,7 @@ export function computeJob(job: ConditionJob, sites: readonly RowOutcome<SiteInp
         const err = `sites line ${site.line} (${site.value.name}), ${where}: ${s.error}`;
         r[C.error] = err; res.failed++; note(err);
       } else {
-        fillResult(r, model!, site.value, s);
+        fillResult(r, model!, site.value, s, st);
         if (s.boundaries) r[C.boundary_reason] = reasonOf();
         else if (asked === null) r[C.boundary_reason] = 'no boundaries: the site\'s footpoint at --alt-km has no MLT (no footpoint on its side)';
         res.ok++;

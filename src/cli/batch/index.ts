@@ -9,13 +9,14 @@
 import os from 'node:os';
 import { basename } from 'node:path';
 import { UsageError, errorText, parseFlags, flagHelp, type FlagSpec, type ParsedFlags } from '../args';
-import { commonFlags, conditionsFromFlags, programVersion, checkFlag, DEFAULT_ALT_KM, SOURCE_RE_FLAG, INPUT_RANGES } from '../common';
+import { commonFlags, conditionsFromFlags, programVersion, checkFlag, DEFAULT_ALT_KM, SOURCE_RE_FLAG, CONJUGATE_ALT_FLAG, conjugateAltKmOf } from '../common';
+import { DEFAULT_SUN_LIMIT_DEG } from '../../physics/mapping/darkness';
 import { CSV_DECIMALS } from '../command';
 import { mltGrid, type SiteInput } from '../../physics/mapping';
 import { PDYN_NOMINAL_COEFF } from '../../physics/field/magnetopause';
 import { decimalYear, parseUtc } from '../../physics/frames/time';
 import { sitesHeader, parseSite, checkTime, SITES_EXPECTED, type RowOutcome } from './inputs';
-import { BATCH_COLUMNS, SITES_PER_JOB, type BatchFormat, type BatchSettings, type ConditionJob, type JobResult } from './compute';
+import { batchColumns, BATCH_COLUMNS, SITES_PER_JOB, type BatchFormat, type BatchSettings, type ConditionJob, type JobResult } from './compute';
 import { inProcessRunner, threadRunner, type JobRunner } from './pool';
 import { runInOrder, Interrupted } from '../pool/ordered-pool';
 import { fileSink, stdoutSink, outputPrefix, outputSuffix, chunkSeparator, PARTIAL_SUFFIX, type Sink } from './output';
@@ -49,7 +50,10 @@ const BATCH_FLAGS: FlagSpec[] = [
   { name: 'keep-partial', kind: 'switch', help: `when a run is interrupted or fails, keep the rows written so far as <out>${PARTIAL_SUFFIX} (the --out file itself is never touched unless the run completes)` },
   { name: 'shard', kind: 'string', meta: '<k/n>', help: 'take conditions k, k+n, k+2n, … (1-based) for array jobs; shard outputs concatenate' },
   { name: 'progress', kind: 'switch', help: 'rows/s and ETA on stderr (on by default when stderr is a terminal)' },
-  { name: 'conjugate-alt-km', kind: 'number', meta: '<km>', unit: 'km', ...INPUT_RANGES.altKm, help: 'altitude of the conjugate point', defaultText: '0, the ground' },
+  CONJUGATE_ALT_FLAG,
+  { name: 'cgm', kind: 'switch', help: 'add corrected geomagnetic (CGM) columns for the site, its footpoint and the conjugate (three extra main-field traces per row)' },
+  { name: 'sun-limit-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -30, max: 0, help: 'sky_visible needs the Sun below this elevation (dark sky)', defaultText: String(DEFAULT_SUN_LIMIT_DEG) },
+  { name: 'moon', kind: 'switch', help: 'add the Moon\'s elevation and illuminated fraction (moon_elevation_deg, moon_illuminated_fraction)' },
   SOURCE_RE_FLAG,
   { name: 'boundary-mlt-step', kind: 'number', meta: '<h>', unit: 'h', min: 0.05, max: 12, help: 'approximation for speed: boundaries on this MLT grid per condition, interpolated to each site\'s MLT', defaultText: 'off: the exact search at each site\'s MLT' },
   { name: 'min-elevation-deg', kind: 'number', meta: '<deg>', unit: 'deg', min: -90, max: 90, help: 'lowest elevation at which the oval counts as visible', defaultText: '10' },
@@ -90,10 +94,14 @@ export function batchHelp(): string {
     'whole series up to its rows, so shards give the rows of one run.',
     '',
     `Columns: ${BATCH_COLUMNS.join(', ')}.`,
-    'conj_*: the far footpoint at --conjugate-alt-km; foot_* / far_foot_*: the footpoints at',
+    '(cgm_*, foot_cgm_*, conj_cgm_*, cgm_reason only with --cgm; moon_* only with --moon.)',
+    'conj_*: the far footpoint at --conjugate-alt-km (default: --alt-km, as trace); foot_* / far_foot_*: the footpoints at',
     "--alt-km on the site's side and the other; mlt_h, mag_lat_deg: of the site-side footpoint;",
     "boundaries (magnetic latitude) at that MLT in the site's hemisphere, for the source distance",
     'source_re (--source-re, else following the conditions); boundary_reason says why a boundary is empty.',
+    'oval_above_horizon: the nearest oval point is at least --min-elevation-deg up (daylight or not);',
+    'sky_visible: that AND the Sun below --sun-limit-deg (sun_elevation_deg, twilight: day, civil,',
+    'nautical, astronomical, night). CGM (references §6) is empty near the dipole equator; cgm_reason says why.',
     'dst_nt: the index used; dst_star_nt: its pressure-corrected value; speed_kms: the speed used.',
     '',
     'Bad rows do not stop the run: a malformed row (missing value, non-numeric, latitude',
@@ -160,7 +168,10 @@ function plan(argv: readonly string[], io: BatchIo): Plan {
   const settings: BatchSettings = {
     model: { ...modelSwitches, tiltDeg: c.tiltDeg ?? null },
     altKm: (flags['alt-km'] as number | undefined) ?? DEFAULT_ALT_KM,
-    conjugateAltKm: (flags['conjugate-alt-km'] as number | undefined) ?? 0,
+    conjugateAltKm: conjugateAltKmOf(flags, (flags['alt-km'] as number | undefined) ?? DEFAULT_ALT_KM),
+    sunLimitDeg: (flags['sun-limit-deg'] as number | undefined) ?? DEFAULT_SUN_LIMIT_DEG,
+    moon: flags.moon === true,
+    cgm: flags.cgm === true,
     sourceRe: (flags['source-re'] as number | undefined) ?? null,
     minElevationDeg: (flags['min-elevation-deg'] as number | undefined) ?? 10,
     boundaryMltStep: (flags['boundary-mlt-step'] as number | undefined) ?? null,
@@ -292,6 +303,11 @@ function metadata(p: Plan, sites: number): Record<string, unknown> {
     tiltDeg: s.model.tiltDeg ?? 'from each row\'s time',
     altKm: s.altKm,
     conjugateAltKm: s.conjugateAltKm,
+    conjugateAltRule: 'the footpoint altitude (altKm) unless --conjugate-alt-km sets it apart',
+    sunLimitDeg: s.sunLimitDeg,
+    skyVisible: 'oval_above_horizon and sun_elevation_deg < sunLimitDeg',
+    cgm: s.cgm ? 'site at its height, footpoint at altKm, conjugate at conjugateAltKm (traced IGRF main field)' : 'off (--cgm adds it)',
+    moon: s.moon,
     sourceRe: s.sourceRe ?? 'per row (source_re): follows the conditions',
     minElevationDeg: s.minElevationDeg,
     boundaries: s.boundaryMltStep === null ? 'exact search at each site\'s MLT (as oval)' : `interpolated from a ${s.boundaryMltStep} h MLT grid (approximation)`,
@@ -368,7 +384,7 @@ export async function runBatch(argv: readonly string[], io: BatchIo): Promise<nu
     const format = p.settings.format;
     suffix = outputSuffix(format);
     const sinkRef = sink;
-    await sinkRef.write(outputPrefix(format, metadata(p, sites.length), p.shard.k === 1));
+    await sinkRef.write(outputPrefix(format, metadata(p, sites.length), p.shard.k === 1, batchColumns(p.settings)));
     runner = workers <= 1 ? inProcessRunner(sites, p.settings) : threadRunner(workers, sites, p.settings);
     const progress = p.progress ? new Progress(io.stderr, expected * sites.length) : null;
     const t0 = performance.now();

@@ -14,7 +14,7 @@ import { once } from 'node:events';
 import { basename, dirname, join } from 'node:path';
 import { csvField } from '../../io/csv';
 import { writeJson } from '../../io/json';
-import { BATCH_COLUMNS, type BatchFormat } from './compute';
+import type { BatchColumn, BatchFormat } from './compute';
 
 export interface Sink {
   write(text: string): Promise<void>;
@@ -115,10 +115,10 @@ export function stdoutSink(write: (text: string) => void): Sink {
 }
 
 /** Text before the first row. */
-export function outputPrefix(format: BatchFormat, metadata: Record<string, unknown>, withHeader: boolean): string {
+export function outputPrefix(format: BatchFormat, metadata: Record<string, unknown>, withHeader: boolean, columns: readonly BatchColumn[]): string {
   if (format === 'csv') {
     const lines = Object.entries(metadata).map(([k, v]) => `# ${k}: ${typeof v === 'string' ? v : JSON.stringify(v)}`.replace(/[\r\n]+/g, ' '));
-    if (withHeader) lines.push(BATCH_COLUMNS.map((c) => csvField(c)).join(','));
+    if (withHeader) lines.push(columns.map((c) => csvField(c)).join(','));
     return lines.join('\r\n') + '\r\n';
   }
   if (format === 'json') return writeJson({ metadata }, 0);

@@ -152,10 +152,7 @@ export function sectorBoundaries(model: PreparedModel, tracer: Tracer, hemispher
   const missing = (reason: MissingBoundaryReason): SectorBoundaries =>
     ({ mltHours: mltH, openClosed: null, equatorward: null, openClosedReason: reason, equatorwardReason: reason });
 
-  let bracket: BracketResult | null = null;
-  const h = hint?.openClosedLatDeg ?? NaN;
-  if (Number.isFinite(h)) bracket = hintedBracket(probe, h, hintWidth(hint), o, samples);
-  if (!bracket) bracket = scannedBracket(probe, o, samples);
+  const bracket = openClosedCell(probe, o, hint?.openClosedLatDeg ?? NaN, samples);
   if (bracket === 'none') return missing('no closed lines at this MLT');
   if (bracket === 'unresolved') return missing('unresolved lines');
   let ocLat = NaN;
@@ -184,66 +181,114 @@ export function scanStartLatDeg(o: Pick<BoundaryOptions, 'minLatDeg' | 'sourceRe
   return Math.max(o.minLatDeg, Math.min(SCAN_START_MAX_LAT_DEG, dipoleLat));
 }
 
+/** Spacing of the latitude grid on which the open–closed searches probe lines, deg (references §12). */
+export const OC_GRID_STEP_DEG = 0.5;
+/**
+ * How far poleward of a closed grid line the searches look for more closed lines, deg: every
+ * grid line up to OC_CLIMB_DEG above it, and the whole-degree grid lines up to
+ * OC_FAR_CLIMB_DEG above it (references §12). The boundary is the poleward edge of the closed
+ * grid lines reached by such steps. Measured: in 2,400 random meridians (Pdyn 0.5–20 nPa,
+ * Bz −30..+10 nT, By ±10 nT) 54 had closed islands poleward of the first closed→open
+ * transition, the farthest starting 2.55° above it; at Pdyn 2 nPa, Bz +5 nT near noon (south)
+ * one starts 2.95° above it.
+ */
+export const OC_CLIMB_DEG = 2;
+/** See OC_CLIMB_DEG. */
+export const OC_FAR_CLIMB_DEG = 6;
+
+/**
+ * The open–closed grid of one search: node 0 is minLatDeg, the last node the highest latitude
+ * probed, the others the multiples of OC_GRID_STEP_DEG in between. The nodes do not depend on
+ * the hint, so every search probes the same lines and refines the same cell.
+ */
+class LatGrid {
+  readonly n: number;
+  private readonly j0: number;
+  constructor(readonly minLat: number, readonly step: number) {
+    this.j0 = Math.floor(minLat / step) + 1;
+    const jLast = Math.ceil(TOP_LAT_DEG / step) - 1;
+    this.n = Math.max(0, jLast - this.j0 + 1) + 2;
+  }
+  lat(i: number): number {
+    if (i <= 0) return this.minLat;
+    if (i >= this.n - 1) return TOP_LAT_DEG;
+    return (this.j0 + i - 1) * this.step;
+  }
+  /** Index of the highest node at or below lat (0 below the first inner node). */
+  below(lat: number): number {
+    if (!(lat >= this.lat(1))) return 0;
+    if (lat >= TOP_LAT_DEG) return this.n - 1;
+    return Math.min(this.n - 2, Math.max(1, Math.floor(lat / this.step + 1e-9) - this.j0 + 1));
+  }
+}
+
+/**
+ * The open–closed boundary's grid cell. From a closed grid node (found near the hint, or by
+ * the coarse scan from scanStartLatDeg), climb: look at every node up to OC_CLIMB_DEG poleward
+ * of the highest closed node known and at the whole-degree nodes up to OC_FAR_CLIMB_DEG
+ * (farthest first), and move up to the highest closed one there, until none is closed. The result, the cell [highest closed node, next node], depends
+ * on the model alone (the climb from any closed node of one region ends at the same node), so
+ * a hint changes the cost of the search, not its answer. Returns 'none' / 'unresolved' when
+ * nothing down to minLatDeg is closed, 'closed-to-pole' when the climb reaches the pole.
+ */
+function openClosedCell(probe: ClosedProbe, o: BoundaryOptions, hintLat: number, samples: Sample[]): BracketResult {
+  const grid = new LatGrid(o.minLatDeg, OC_GRID_STEP_DEG);
+  const known = new Map<number, Probe>();
+  const at = (i: number): Probe => {
+    let p = known.get(i);
+    if (!p) {
+      p = probe(grid.lat(i));
+      known.set(i, p);
+      if (p.closed) samples.push({ lat: grid.lat(i), eqR: p.eqR });
+    }
+    return p;
+  };
+  const last = grid.n - 1;
+  let top = -1;
+  if (Number.isFinite(hintLat)) {
+    const s = grid.below(hintLat);
+    if (at(s).closed) top = s;
+    else {
+      // Walk down in growing steps (0.5°, 1°, 1.5°, 2° below the previous probe).
+      for (let k = 1, i = s; k <= 4 && i > 0 && top < 0; k++) {
+        i = Math.max(0, i - k);
+        if (at(i).closed) top = i;
+      }
+    }
+  }
+  if (top < 0) {
+    const stepNodes = Math.max(1, Math.round(o.scanStepDeg / OC_GRID_STEP_DEG));
+    const s = grid.below(scanStartLatDeg(o));
+    if (at(s).closed) {
+      top = s;
+      for (let i = s + stepNodes; i < last && at(i).closed; i += stepNodes) top = i;
+    } else {
+      for (let i = s; i > 0 && top < 0;) {
+        i = Math.max(0, i - stepNodes);
+        if (at(i).closed) top = i;
+      }
+      if (top < 0) return notClosedAtFloor(at(0));
+    }
+  }
+  // Start from the highest closed node met so far.
+  for (const [i, p] of known) if (p.closed && i > top) top = i;
+  const climbNodes = Math.max(1, Math.round(OC_CLIMB_DEG / OC_GRID_STEP_DEG));
+  const farNodes = Math.max(climbNodes, Math.round(OC_FAR_CLIMB_DEG / OC_GRID_STEP_DEG));
+  const wholeDegree = (i: number): boolean => { const l = grid.lat(i); return Math.abs(l - Math.round(l)) < 1e-9; };
+  for (;;) {
+    if (top >= last) return 'closed-to-pole';
+    let next = -1;
+    for (let i = Math.min(last, top + farNodes); i > top; i--) {
+      if (i - top > climbNodes && !wholeDegree(i) && i !== last) continue;
+      if (at(i).closed) { next = i; break; }
+    }
+    if (next < 0) return [grid.lat(top), grid.lat(top + 1)];
+    top = next;
+  }
+}
+
 /** Why a search at the lowest latitude found nothing closed. */
 const notClosedAtFloor = (p: Probe): 'none' | 'unresolved' => (p.unresolved ? 'unresolved' : 'none');
-
-/**
- * Expand a bracket [closed, not closed] outward from the predicted latitude
- * (at most a few steps). Returns null when none was found (the caller scans),
- * 'none' / 'unresolved' when the lowest latitude is already not closed.
- */
-function hintedBracket(probe: ClosedProbe, predictedLat: number, w: number, o: BoundaryOptions, samples: Sample[]): BracketResult | null {
-  let lo = Math.max(o.minLatDeg, predictedLat - w), hi = Math.min(TOP_LAT_DEG, predictedLat + w);
-  let a = probe(lo);
-  if (a.closed) {
-    samples.push({ lat: lo, eqR: a.eqR });
-    for (let k = 0; k < 4; k++) {
-      const b = probe(hi);
-      if (!b.closed) return [lo, hi];
-      samples.push({ lat: hi, eqR: b.eqR });
-      if (hi >= TOP_LAT_DEG) break;
-      lo = hi; hi = Math.min(TOP_LAT_DEG, hi + 2 * w * (k + 1));
-    }
-    return null;
-  }
-  if (lo <= o.minLatDeg) return notClosedAtFloor(a);
-  for (let k = 0; k < 4; k++) {
-    hi = lo; lo = Math.max(o.minLatDeg, lo - 2 * w * (k + 1));
-    a = probe(lo);
-    if (a.closed) { samples.push({ lat: lo, eqR: a.eqR }); return [lo, hi]; }
-    if (lo <= o.minLatDeg) return notClosedAtFloor(a);
-  }
-  return null;
-}
-
-/**
- * Coarse scan from scanStartLatDeg for the first line that is not closed: poleward
- * while lines are closed, else downward to the first closed line (at most down to
- * minLatDeg). Returns the bracket [last closed, first not closed]; 'none' /
- * 'unresolved' when nothing down to minLatDeg is closed, 'closed-to-pole' when no
- * open line was met.
- */
-function scannedBracket(probe: ClosedProbe, o: BoundaryOptions, samples: Sample[]): BracketResult {
-  let lo = scanStartLatDeg(o);
-  const first = probe(lo);
-  if (!first.closed) {
-    let hi = lo, last = first;
-    while (lo > o.minLatDeg) {
-      hi = lo; lo = Math.max(o.minLatDeg, lo - o.scanStepDeg);
-      last = probe(lo);
-      if (last.closed) { samples.push({ lat: lo, eqR: last.eqR }); return [lo, hi]; }
-    }
-    return notClosedAtFloor(last);
-  }
-  samples.push({ lat: lo, eqR: first.eqR });
-  for (let lat = lo + o.scanStepDeg; lat < 90; lat += o.scanStepDeg) {
-    const r = probe(lat);
-    if (!r.closed) return [lo, lat];
-    lo = lat;
-    samples.push({ lat, eqR: r.eqR });
-  }
-  return probe(TOP_LAT_DEG).closed ? 'closed-to-pole' : [lo, TOP_LAT_DEG];
-}
 
 /** Half-width of the first bracket around a hint, deg. */
 function hintWidth(hint: BoundaryHint | null | undefined): number {

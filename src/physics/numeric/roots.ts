@@ -28,17 +28,25 @@ const ILLINOIS_MAX_ITERATIONS = 60;
  * defined (e.g. beyond the end of a region): such a point counts as the high side
  * and the step there falls back to bisection; `ghi` may be NaN on entry for the
  * same reason. A step closer than 5 % of the bracket to either end is replaced by
- * the midpoint (safeguard). Stops when the bracket is no wider than `tol` or the
- * secant step from the newest point is below tol/4, and returns the secant
- * estimate in that case, else the bracket midpoint.
+ * the midpoint (safeguard). When the secant step from the newest point is below a quarter
+ * of `tol`, the next probe is placed tol/2 beyond the estimated root (inside the bracket), so
+ * the bracket usually closes in one more value. Stops only when the bracket is no wider than
+ * `tol` (a small step alone is no proof: on a flat stretch the secant creeps) and returns the
+ * linear interpolation inside the final bracket (the midpoint when an end value is NaN): the
+ * answer lies within `tol` of a sign change.
  */
 export function illinoisRoot(g: (x: number) => number, lo: number, glo: number, hi: number, ghi: number, tol: number): number {
   let side = 0;
-  let root = NaN;
+  let nearX = NaN; // a probe placed just across the estimated root, or NaN
   for (let it = 0; it < ILLINOIS_MAX_ITERATIONS && hi - lo > tol; it++) {
-    let x = Number.isFinite(ghi) && ghi !== glo ? lo + (hi - lo) * (glo / (glo - ghi)) : 0.5 * (lo + hi);
-    const guard = 0.05 * (hi - lo);
-    if (!(x > lo + guard && x < hi - guard)) x = 0.5 * (lo + hi);
+    let x: number;
+    if (Number.isFinite(nearX) && nearX > lo && nearX < hi) x = nearX;
+    else {
+      x = Number.isFinite(ghi) && ghi !== glo ? lo + (hi - lo) * (glo / (glo - ghi)) : 0.5 * (lo + hi);
+      const guard = 0.05 * (hi - lo);
+      if (!(x > lo + guard && x < hi - guard)) x = 0.5 * (lo + hi);
+    }
+    nearX = NaN;
     const gx = g(x);
     if (gx <= 0) {
       lo = x; glo = gx;
@@ -49,11 +57,18 @@ export function illinoisRoot(g: (x: number) => number, lo: number, glo: number, 
       if (side === 1) glo *= 0.5;
       side = 1;
     }
-    // Converged: the secant step from the newest point is below a quarter of the tolerance.
+    // Near convergence: the secant step from the newest point is below a quarter of the tolerance.
     if (Number.isFinite(gx) && Number.isFinite(ghi) && Number.isFinite(glo) && ghi !== glo) {
       const slope = (ghi - glo) / (hi - lo);
-      if (slope > 0 && Math.abs(gx / slope) < 0.25 * tol) { root = x - gx / slope; break; }
+      if (slope > 0 && Math.abs(gx / slope) < 0.25 * tol) {
+        const est = x - gx / slope;
+        nearX = gx <= 0 ? Math.max(est, x) + 0.5 * tol : Math.min(est, x) - 0.5 * tol;
+      }
     }
   }
-  return Number.isFinite(root) ? root : 0.5 * (lo + hi);
+  if (Number.isFinite(glo) && Number.isFinite(ghi) && ghi > glo) {
+    const r = lo + (hi - lo) * (-glo / (ghi - glo));
+    if (r >= lo && r <= hi) return r;
+  }
+  return 0.5 * (lo + hi);
 }

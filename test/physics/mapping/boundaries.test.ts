@@ -197,3 +197,18 @@ describe('compression fit depth (references §4, §12)', () => {
     }
   }, 120_000);
 });
+
+describe('a hint changes the cost, never the answer (several open–closed transitions along one meridian)', () => {
+  it('2025-01-01T05:00Z, Pdyn 4.13, Bz 1.49, By −4.32, north, MLT 2.571: closed lines 74.22–74.90° above an open band at 74.15°; hinted and unhinted agree to 0.01°', () => {
+    const m = prepareModel({ time: '2025-01-01T05:00:00Z', internal: 'dipole', tail: true, pdynNpa: 4.13, bzNt: 1.49, byNt: -4.32 });
+    const t = makeTracer(m);
+    const full = sectorBoundaries(m, t, 'north', 2.571);
+    // Profile measured at 0.01° steps: closed up to 74.15°, open 74.15–74.22°, closed 74.22–74.90°, open above.
+    expectClose(lat(full.openClosed), 74.90, 0.02, 'poleward edge of closed lines (unhinted)');
+    for (const h of [73.0, 74.1, 74.18, 74.6, 76.5]) {
+      const b = sectorBoundaries(m, t, 'north', 2.571, {}, { openClosedLatDeg: h, equatorwardLatDeg: 68, halfWidthDeg: 0.75 });
+      expectClose(lat(b.openClosed), lat(full.openClosed), 0.01, `open–closed boundary from a hint at ${h}°`);
+      expectClose(lat(b.equatorward), lat(full.equatorward), 0.01, `equatorward edge from a hint at ${h}°`);
+    }
+  });
+});

@@ -29,7 +29,8 @@ function metaFor(s: AppState, a: AnsweredFor, used: ModelUsed | null, warnings: 
   });
 }
 
-function download(name: string, type: string, data: string | Blob): void {
+/** Hand text or a blob to the browser as a file download. */
+export function download(name: string, type: string, data: string | Blob): void {
   const blob = typeof data === 'string' ? new Blob([data], { type }) : data;
   const url = URL.createObjectURL(blob);
   const a = document.createElement('a');

@@ -3,19 +3,9 @@ import { version } from '../../../package.json';
 import { writeJson } from '../../io/json';
 import { conjugateAltOf, store } from '../store';
 import { timelineStore } from './state';
+import { download } from '../exports';
 import { timelineSteps } from './steps';
 import { timelineCsv, timelineFileName, timelineJson, type TimelineExportMeta } from './export';
-
-function download(name: string, type: string, text: string): void {
-  const url = URL.createObjectURL(new Blob([text], { type }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 5000);
-}
 
 /** Returns false when the site timelines are not computed yet. */
 export function exportTimeline(kind: 'csv' | 'json'): boolean {

@@ -1,6 +1,7 @@
 /** `trace`: the field line through a site, its footpoints and its conjugate. */
 import { makeTracer, traceSite, cgmPair, type Footpoint, type CgmPair } from '../../physics/mapping';
 import { describePoint } from '../../physics/trace/footpoint';
+import type { PreparedModel } from '../../physics/field/model';
 import { writeCsv, type CsvCell } from '../../io/csv';
 import { lineFeature, pointFeature, type Feature } from '../../io/geojson';
 import { triples } from '../../io/json';
@@ -55,27 +56,12 @@ export const traceCommand: CommandDef = {
     const wantPoints = ctx.flags.points === true;
     const format = ctx.flags.format ?? 'json';
     const model = ctx.model;
-    const tracer = makeTracer(model, { altKm: ctx.altKm, ellipsoid: true });
-    const line = traceSite(model, tracer, lat, lon, heightKm, coords, wantPoints || format === 'geojson');
     const conjugateAltKm = conjugateAltKmOf(ctx.flags, ctx.altKm);
-    if (conjugateAltKm !== ctx.altKm && line.conjugate) {
-      // The same line, ended at the conjugate altitude in the far hemisphere.
-      const far = traceSite(model, makeTracer(model, { altKm: conjugateAltKm, ellipsoid: true }), lat, lon, heightKm, coords, false);
-      const i = line.footpoints.indexOf(line.conjugate);
-      line.conjugate = far.conjugate;
-      if (far.conjugate && i >= 0) line.footpoints[i] = far.conjugate;
-    }
+    const line = traceWithConjugateAlt(model, { lat, lon, heightKm, coords }, ctx.altKm, conjugateAltKm, wantPoints || format === 'geojson');
     if (line.type === 'unresolved') ctx.warn('the line was not resolved within the step and length budget: footpoints may be missing');
     if (line.type === 'open') ctx.warn('the line is open: it has no conjugate point');
     const footpoints = [...line.footpoints].sort(byHemisphere);
     const pts = line.points ? triples(line.points) : null;
-    const fieldLine: Record<string, unknown> = {
-      type: line.type,
-      lengthRe: line.lengthRe,
-      equator: line.equator,
-      footpoints,
-    };
-    if (wantPoints && pts) fieldLine.points = pts;
     const s = line.siteGsm;
     const sd = describePoint(model.frames, s[0], s[1], s[2]);
     // CGM of the site at its height and at the mapping altitude above it; of each footpoint at its altitude and at the ground.
@@ -93,50 +79,80 @@ export const traceCommand: CommandDef = {
       latDeg: lat, lonDeg: lon, heightKm, coords, gsmRe: s, geoLatDeg: sd.geoLatDeg, geoLonDeg: sd.geoLonDeg, magLatDeg: sd.magLatDeg, mltHours: sd.mltHours,
       cgm: cgmJson(siteCgm.atAlt), cgmAtMappingAlt: { altKm: ctx.altKm, ...cgmJson(siteCgmAtAlt) },
     };
-    fieldLine.footpoints = footpoints.map(withCgm);
-    const cond = conditionCells(model);
+    const fieldLine: Record<string, unknown> = { type: line.type, lengthRe: line.lengthRe, equator: line.equator, footpoints: footpoints.map(withCgm) };
+    if (wantPoints && pts) fieldLine.points = pts;
+    const csvSite: CsvSiteRow = { sd, lat: siteLat, lon: siteLon, heightKm: siteHeight, cgm: siteCgm };
     return {
       settings: { conjugateAltKm, mltLabels: { mltHours: 'MLT (MAG)', mltCgmHours: 'MLT (CGM)' } },
       json: { site, fieldLine, siteFootpoint: withCgm(line.near), conjugate: withCgm(line.conjugate), evaluations: line.evals },
-      csv: () => {
-        if (wantPoints && pts) {
-          const b = new Float64Array(3);
-          const rows = pts.map(([x, y, z], i): CsvCell[] => {
-            model.evaluate(b, x, y, z);
-            const d = describePoint(model.frames, x, y, z);
-            return [i, x, y, z, Math.hypot(x, y, z), d.geoLatDeg, d.geoLonDeg, d.altKm, Math.hypot(b[0], b[1], b[2])];
-          });
-          return writeCsv(POINT_HEADER, rows, { maxDecimals: CSV_DECIMALS });
-        }
-        const lineCells: CsvCell[] = [line.type, line.lengthRe, line.equator?.rRe, line.equator?.bNt];
-        const rows: CsvCell[][] = [[
-          ...cond, 'site', sd.magLatDeg >= 0 ? 'north' : 'south', siteLat, siteLon, sd.magLatDeg, sd.magLonDeg, sd.mltHours, siteHeight,
-          ...cgmCells(siteCgm.atAlt), ...cgmCells(siteCgm.ground), cgmNote(siteCgm.atAlt, siteCgm.ground), ...lineCells,
-        ]];
-        for (const fp of footpoints) {
-          const c = fpCgm.get(fp)!;
-          rows.push([...cond, fp === line.conjugate ? 'conjugate' : 'near', fp.hemisphere, fp.geoLatDeg, fp.geoLonDeg, fp.magLatDeg, fp.magLonDeg, fp.mltHours, fp.altKm,
-            ...cgmCells(c.atAlt), ...cgmCells(c.ground), cgmNote(c.atAlt, c.ground), ...lineCells]);
-        }
-        return writeCsv(FOOT_HEADER, rows, { maxDecimals: CSV_DECIMALS });
-      },
-      geojson: () => {
-        const track = (pts ?? []).map(([x, y, z]) => {
-          const d = describePoint(model.frames, x, y, z);
-          return [d.geoLonDeg, d.geoLatDeg, d.altKm * 1000];
-        });
-        const feats: Feature[] = [
-          lineFeature(track, { kind: 'fieldLine', type: line.type, lengthRe: line.lengthRe, equatorRRe: line.equator?.rRe ?? null, equatorBNt: line.equator?.bNt ?? null }),
-          // A geodetic site is placed exactly as given; a magnetic one at its computed geodetic position.
-          coords === 'geo'
-            ? pointFeature(lon, lat, { kind: 'site', coords, latDeg: lat, lonDeg: lon, heightKm }, heightKm)
-            : pointFeature(sd.geoLonDeg, sd.geoLatDeg, { kind: 'site', coords, latDeg: lat, lonDeg: lon, heightKm }, sd.altKm),
-        ];
-        for (const fp of footpoints) {
-          feats.push(pointFeature(fp.geoLonDeg, fp.geoLatDeg, { kind: 'footpoint', role: fp === line.conjugate ? 'conjugate' : 'near', ...fp }, fp.altKm));
-        }
-        return feats;
-      },
+      csv: () => (wantPoints && pts ? pointsCsv(model, pts) : footpointsCsv(model, line, footpoints, fpCgm, csvSite)),
+      geojson: () => traceFeatures(model, line, footpoints, pts ?? [], { lat, lon, heightKm, coords, sd }),
     };
   },
 };
+
+interface SiteInput { lat: number; lon: number; heightKm: number; coords: 'geo' | 'mag' }
+type SiteLine = ReturnType<typeof traceSite>;
+type PointDescription = ReturnType<typeof describePoint>;
+interface CsvSiteRow { sd: PointDescription; lat: number; lon: number; heightKm: number; cgm: CgmPair }
+
+/** The site's line with footpoints at altKm; the conjugate, when one exists, at conjugateAltKm (the same line ended at that altitude in the far hemisphere). */
+function traceWithConjugateAlt(model: PreparedModel, site: SiteInput, altKm: number, conjugateAltKm: number, keepPoints: boolean): SiteLine {
+  const tracer = makeTracer(model, { altKm, ellipsoid: true });
+  const line = traceSite(model, tracer, site.lat, site.lon, site.heightKm, site.coords, keepPoints);
+  if (conjugateAltKm !== altKm && line.conjugate) {
+    const far = traceSite(model, makeTracer(model, { altKm: conjugateAltKm, ellipsoid: true }), site.lat, site.lon, site.heightKm, site.coords, false);
+    const i = line.footpoints.indexOf(line.conjugate);
+    line.conjugate = far.conjugate;
+    if (far.conjugate && i >= 0) line.footpoints[i] = far.conjugate;
+  }
+  return line;
+}
+
+/** CSV with one row per line point (GSM, geodetic position, |B|). */
+function pointsCsv(model: PreparedModel, pts: [number, number, number][]): string {
+  const b = new Float64Array(3);
+  const rows = pts.map(([x, y, z], i): CsvCell[] => {
+    model.evaluate(b, x, y, z);
+    const d = describePoint(model.frames, x, y, z);
+    return [i, x, y, z, Math.hypot(x, y, z), d.geoLatDeg, d.geoLonDeg, d.altKm, Math.hypot(b[0], b[1], b[2])];
+  });
+  return writeCsv(POINT_HEADER, rows, { maxDecimals: CSV_DECIMALS });
+}
+
+/** CSV with one row for the site and one per footpoint, each with the time and condition columns. */
+function footpointsCsv(model: PreparedModel, line: SiteLine, footpoints: Footpoint[], fpCgm: Map<Footpoint, CgmPair>, site: CsvSiteRow): string {
+  const cond = conditionCells(model);
+  const lineCells: CsvCell[] = [line.type, line.lengthRe, line.equator?.rRe, line.equator?.bNt];
+  const { sd, cgm } = site;
+  const rows: CsvCell[][] = [[
+    ...cond, 'site', sd.magLatDeg >= 0 ? 'north' : 'south', site.lat, site.lon, sd.magLatDeg, sd.magLonDeg, sd.mltHours, site.heightKm,
+    ...cgmCells(cgm.atAlt), ...cgmCells(cgm.ground), cgmNote(cgm.atAlt, cgm.ground), ...lineCells,
+  ]];
+  for (const fp of footpoints) {
+    const c = fpCgm.get(fp)!;
+    rows.push([...cond, fp === line.conjugate ? 'conjugate' : 'near', fp.hemisphere, fp.geoLatDeg, fp.geoLonDeg, fp.magLatDeg, fp.magLonDeg, fp.mltHours, fp.altKm,
+      ...cgmCells(c.atAlt), ...cgmCells(c.ground), cgmNote(c.atAlt, c.ground), ...lineCells]);
+  }
+  return writeCsv(FOOT_HEADER, rows, { maxDecimals: CSV_DECIMALS });
+}
+
+/** GeoJSON: the line's sub-point track, the site and the footpoints. */
+function traceFeatures(model: PreparedModel, line: SiteLine, footpoints: Footpoint[], pts: [number, number, number][], site: SiteInput & { sd: PointDescription }): Feature[] {
+  const track = pts.map(([x, y, z]) => {
+    const d = describePoint(model.frames, x, y, z);
+    return [d.geoLonDeg, d.geoLatDeg, d.altKm * 1000];
+  });
+  const { lat, lon, heightKm, coords, sd } = site;
+  const feats: Feature[] = [
+    lineFeature(track, { kind: 'fieldLine', type: line.type, lengthRe: line.lengthRe, equatorRRe: line.equator?.rRe ?? null, equatorBNt: line.equator?.bNt ?? null }),
+    // A geodetic site is placed exactly as given; a magnetic one at its computed geodetic position.
+    coords === 'geo'
+      ? pointFeature(lon, lat, { kind: 'site', coords, latDeg: lat, lonDeg: lon, heightKm }, heightKm)
+      : pointFeature(sd.geoLonDeg, sd.geoLatDeg, { kind: 'site', coords, latDeg: lat, lonDeg: lon, heightKm }, sd.altKm),
+  ];
+  for (const fp of footpoints) {
+    feats.push(pointFeature(fp.geoLonDeg, fp.geoLatDeg, { kind: 'footpoint', role: fp === line.conjugate ? 'conjugate' : 'near', ...fp }, fp.altKm));
+  }
+  return feats;
+}

@@ -83,28 +83,17 @@ export async function openSeries(path: string, flag: string): Promise<AsyncItera
   return stream as AsyncIterable<string>;
 }
 
-export async function runOvalSeries(ctx: CommandContext): Promise<CommandResult> {
-  const f = ctx.flags;
+/** Flags that a series replaces, or that belong to one instant. */
+function rejectInstantFlags(f: CommandContext['flags']): void {
   for (const flag of ['time', 'pdyn', 'bz', 'by', 'dst', 'speed']) {
     if (f[flag] !== undefined) throw new UsageError(`--${flag}`, 'comes from the --conditions file and cannot be given with it');
   }
   if (f['mlt-step'] !== undefined) throw new UsageError('--mlt-step', 'is for one instant; with --conditions choose sectors with --mlt');
-  const format = (f.format as string | undefined) ?? 'json';
-  if (format === 'geojson') throw new UsageError('--format', 'with --conditions expected csv or json (JSON Lines), got "geojson"');
-  const path = f.conditions as string;
-  const seriesFormat = ((f['series-format'] as string | undefined) ?? 'auto') as SeriesFormat | 'auto';
-  const mlts = [...new Set((f.mlt as number[] | undefined) ?? DEFAULT_MLTS)].map((m) => (m === 24 ? 0 : m));
-  const hems = hemispheresOf(f);
-  const given = f['source-re'] as number | undefined;
-  const settings: OvalRowSettings = { mlts, hemispheres: hems, altKm: ctx.altKm, sourceRe: given ?? null };
-  const cores = coreCount();
-  const asked = (f.workers as number | undefined) ?? cores;
-  if (asked > cores) ctx.warn(`--workers ${asked} is more than the ${cores} cores: using ${cores}`);
-  const n = Math.min(asked, cores);
+  if (f.format === 'geojson') throw new UsageError('--format', 'with --conditions expected csv or json (JSON Lines), got "geojson"');
+}
 
-  // Open the file first, so a missing file is a usage error before any output.
-  const stream = await openSeries(path, '--conditions');
-
+/** The `#` metadata (CSV) or first JSON line: what varies per row, and the fixed settings. */
+function seriesMetadata(ctx: CommandContext, path: string, seriesFormat: string, settings: OvalRowSettings): Record<string, unknown> {
   const base = ctx.conditions;
   const meta = {
     program: 'fieldline-atlas oval --conditions',
@@ -113,12 +102,38 @@ export async function runOvalSeries(ctx: CommandContext): Promise<CommandResult>
     standoffRe: 'from each row', dstNt: 'each row (dst_source: given by the file, or integrated through the series from 0 nT)',
     dstStarNt: undefined, dstSource: undefined, speedKms: undefined, speedSource: undefined, ringCurrentEnergyJ: undefined, warnings: undefined,
     igrfEpoch: 'the decimal year of each row\'s time',
-    sourceRe: given ?? 'from each row\'s conditions (storm-following)',
-    series: path, seriesFormat, mlts: mlts.join(' '), hemispheres: hems.join(' '),
+    sourceRe: settings.sourceRe ?? 'from each row\'s conditions (storm-following)',
+    series: path, seriesFormat, mlts: settings.mlts.join(' '), hemispheres: settings.hemispheres.join(' '),
     mltLabel: 'mlt_h is MLT (MAG), the centred dipole\'s',
     order: 'series steps in file order; hemispheres, then MLT sectors within each step',
   };
-  const cleanMeta = Object.fromEntries(Object.entries(meta).filter(([, v]) => v !== undefined));
+  return Object.fromEntries(Object.entries(meta).filter(([, v]) => v !== undefined));
+}
+
+/** One step's rows as CSV lines or JSON Lines. */
+function stepText(rows: CsvCell[][], format: string): string {
+  return format === 'csv'
+    ? rows.map((row) => row.map((c: CsvCell) => csvField(c, CSV_DECIMALS)).join(',')).join('\r\n') + '\r\n'
+    : rows.map((row) => JSON.stringify(Object.fromEntries(OVAL_COLUMNS.map((c, i) => [c, row[i] ?? null])))).join('\n') + '\n';
+}
+
+export async function runOvalSeries(ctx: CommandContext): Promise<CommandResult> {
+  const f = ctx.flags;
+  rejectInstantFlags(f);
+  const format = (f.format as string | undefined) ?? 'json';
+  const path = f.conditions as string;
+  const seriesFormat = ((f['series-format'] as string | undefined) ?? 'auto') as SeriesFormat | 'auto';
+  const mlts = [...new Set((f.mlt as number[] | undefined) ?? DEFAULT_MLTS)].map((m) => (m === 24 ? 0 : m));
+  const settings: OvalRowSettings = { mlts, hemispheres: hemispheresOf(f), altKm: ctx.altKm, sourceRe: (f['source-re'] as number | undefined) ?? null };
+  const cores = coreCount();
+  const asked = (f.workers as number | undefined) ?? cores;
+  if (asked > cores) ctx.warn(`--workers ${asked} is more than the ${cores} cores: using ${cores}`);
+  const n = Math.min(asked, cores);
+
+  // Open the file first, so a missing file is a usage error before any output.
+  const stream = await openSeries(path, '--conditions');
+  const base = ctx.conditions;
+  const cleanMeta = seriesMetadata(ctx, path, seriesFormat, settings);
   if (format === 'csv') ctx.io.stdout(csvMetadata(cleanMeta) + OVAL_COLUMNS.map((c) => csvField(c)).join(',') + '\r\n');
   else ctx.io.stdout(writeJson({ metadata: cleanMeta }, 0));
 
@@ -147,10 +162,7 @@ export async function runOvalSeries(ctx: CommandContext): Promise<CommandResult>
       found += r.found; missing += r.missing;
       if (r.error) { failedSteps++; if (problems.length < 20) problems.push(r.error); }
       for (const w of r.warnings) if (!w.startsWith('storm index:')) warned.add(w.replace(/-?\d+(\.\d+)?(e-?\d+)?/g, '…'));
-      const text = format === 'csv'
-        ? r.rows.map((row) => row.map((c: CsvCell) => csvField(c, CSV_DECIMALS)).join(',')).join('\r\n') + '\r\n'
-        : r.rows.map((row) => JSON.stringify(Object.fromEntries(OVAL_COLUMNS.map((c, i) => [c, row[i] ?? null])))).join('\n') + '\n';
-      ctx.io.stdout(text);
+      ctx.io.stdout(stepText(r.rows, format));
       const now = Date.now();
       if (now - lastProgress >= PROGRESS_SECONDS * 1000) {
         lastProgress = now;

@@ -16,7 +16,7 @@ import { writeCsv, type CsvCell } from '../../io/csv';
 import { UsageError, errorText } from '../args';
 import { csvRecords, requireFile } from '../batch/read';
 import { sitesHeader, parseSite } from '../batch/inputs';
-import { CSV_DECIMALS, type CommandDef } from '../command';
+import { CSV_DECIMALS, type CommandDef, type CommandContext } from '../command';
 import { CONDITION_COLUMNS, SOURCE_RE_FLAG, conditionCells, conjugateAltKmOf, CONJUGATE_ALT_FLAG } from '../common';
 import { openSeries, seriesSteps, type SeriesStep } from './oval-series';
 
@@ -117,11 +117,7 @@ export const timelineCommand: CommandDef = {
   async run(ctx) {
     const f = ctx.flags;
     const series = f.conditions as string | undefined;
-    const night = f.from !== undefined || f.to !== undefined;
-    if ((series === undefined) === !night) throw new UsageError(series ? '--from' : '--conditions', 'give either --conditions <series> or --from and --to (a night at fixed conditions)');
-    if (night && (f.from === undefined || f.to === undefined)) throw new UsageError(f.from === undefined ? '--from' : '--to', 'a night needs both --from and --to');
-    if (f.time !== undefined) throw new UsageError('--time', 'the times come from --conditions or --from/--to');
-    if (series) for (const flag of ['pdyn', 'bz', 'by', 'dst', 'speed', 'step-min']) if (f[flag] !== undefined) throw new UsageError(`--${flag}`, 'comes from the --conditions file and cannot be given with it');
+    checkTimeSource(f);
     const sunLimitDeg = (f['sun-limit-deg'] as number | undefined) ?? DEFAULT_SUN_LIMIT_DEG;
     const maxZenithDeg = (f['max-zenith-deg'] as number | undefined) ?? DEFAULT_MAX_ZENITH_DEG;
     const minElevationDeg = (f['min-elevation-deg'] as number | undefined) ?? 10;
@@ -133,22 +129,7 @@ export const timelineCommand: CommandDef = {
     if (sites.length === 0) throw new UsageError('--sites', 'no usable site in the file');
 
     const base = ctx.conditions;
-    const seriesProblems: string[] = [];
-    const note = (r: SeriesRecord) => { if (r.kind === 'skipped') seriesProblems.push(r.reason); else if (r.kind === 'error') seriesProblems.push(r.error); };
-    const steps: SeriesStep[] = [];
-    if (series) {
-      const stream = await openSeries(series, '--conditions');
-      for await (const s of seriesSteps(stream, ((f['series-format'] as string | undefined) ?? 'auto') as SeriesFormat | 'auto', base, note)) {
-        steps.push(s);
-        if (steps.length > TIMELINE_LIMITS.steps) throw new UsageError('--conditions', `more than ${TIMELINE_LIMITS.steps} steps; cut the series, or use oval --conditions for long series`);
-      }
-    } else {
-      steps.push(...nightSteps({ ...base }, f.from as string, f.to as string, (f['step-min'] as number | undefined) ?? 30));
-    }
-    if (steps.length * sites.length > TIMELINE_LIMITS.siteSteps) {
-      throw new UsageError(series ? '--conditions' : '--step-min', `${sites.length} sites × ${steps.length} steps = ${steps.length * sites.length} site-steps, more than the ${TIMELINE_LIMITS.siteSteps} one call may run`);
-    }
-    for (const p of seriesProblems.slice(0, 20)) ctx.warn(p);
+    const steps = await loadSteps(f, base, sites.length, (p) => ctx.warn(p));
 
     const rows: CsvCell[][] = [];
     const jsonRows: Record<string, unknown>[] = [];
@@ -204,3 +185,35 @@ export const timelineCommand: CommandDef = {
     };
   },
 };
+
+/** Either a series or a night (--from and --to), never both; the times come from them alone. */
+function checkTimeSource(f: CommandContext['flags']): void {
+  const series = f.conditions as string | undefined;
+  const night = f.from !== undefined || f.to !== undefined;
+  if ((series === undefined) === !night) throw new UsageError(series ? '--from' : '--conditions', 'give either --conditions <series> or --from and --to (a night at fixed conditions)');
+  if (night && (f.from === undefined || f.to === undefined)) throw new UsageError(f.from === undefined ? '--from' : '--to', 'a night needs both --from and --to');
+  if (f.time !== undefined) throw new UsageError('--time', 'the times come from --conditions or --from/--to');
+  if (series) for (const flag of ['pdyn', 'bz', 'by', 'dst', 'speed', 'step-min']) if (f[flag] !== undefined) throw new UsageError(`--${flag}`, 'comes from the --conditions file and cannot be given with it');
+}
+
+/** The steps of the series (its unreadable or skipped lines reported through warn, first 20) or of the night, within the limits of one call. */
+async function loadSteps(f: CommandContext['flags'], base: FieldConditions, siteCount: number, warn: (text: string) => void): Promise<SeriesStep[]> {
+  const series = f.conditions as string | undefined;
+  const seriesProblems: string[] = [];
+  const note = (r: SeriesRecord) => { if (r.kind === 'skipped') seriesProblems.push(r.reason); else if (r.kind === 'error') seriesProblems.push(r.error); };
+  const steps: SeriesStep[] = [];
+  if (series) {
+    const stream = await openSeries(series, '--conditions');
+    for await (const s of seriesSteps(stream, ((f['series-format'] as string | undefined) ?? 'auto') as SeriesFormat | 'auto', base, note)) {
+      steps.push(s);
+      if (steps.length > TIMELINE_LIMITS.steps) throw new UsageError('--conditions', `more than ${TIMELINE_LIMITS.steps} steps; cut the series, or use oval --conditions for long series`);
+    }
+  } else {
+    steps.push(...nightSteps({ ...base }, f.from as string, f.to as string, (f['step-min'] as number | undefined) ?? 30));
+  }
+  if (steps.length * siteCount > TIMELINE_LIMITS.siteSteps) {
+    throw new UsageError(series ? '--conditions' : '--step-min', `${siteCount} sites × ${steps.length} steps = ${steps.length * siteCount} site-steps, more than the ${TIMELINE_LIMITS.siteSteps} one call may run`);
+  }
+  for (const p of seriesProblems.slice(0, 20)) warn(p);
+  return steps;
+}

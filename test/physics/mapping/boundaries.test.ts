@@ -192,7 +192,7 @@ describe('compression fit depth (references §4, §12)', () => {
         });
       }
     }
-    // Measured worst: 0.07° (before the far-tail band: 0.46°, midnight open–closed at Pdyn 5 nPa, Bz 0).
+    // Measured worst: 0.063° (before the far-tail band: 0.46°, midnight open–closed at Pdyn 5 nPa, Bz 0).
     expectAtMost(worst, 0.1, 'worst move over all cases');
   }, 240_000);
 });

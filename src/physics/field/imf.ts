@@ -11,7 +11,7 @@ import { InputError } from '../errors';
 /**
  * Default penetration efficiency ε: a calibration constant of this model (references §12), not a
  * measured penetration fraction. The storm-time model added the saturation (DEFAULT_IMF_SATURATION_NT) and
- * raised ε from 0.7 to 0.913 so that the penetrated field at Bz −5 nT stays 3.5 nT; the figures
+ * raised ε from 0.7 to 0.9333 so that the penetrated field at Bz −5 nT stays 3.5 nT; the figures
  * below are the earlier calibration at ε = 0.7 without saturation, which that reproduces.
  * With the tail sheet on (src/physics/field/tail.ts), ε = 0.7 makes
  * the noon open–closed boundary move equatorward by ≈ 0.54 ° per nT of southward Bz at
@@ -25,7 +25,7 @@ import { InputError } from '../errors';
  * no magnetopause): Bz = −5 nT, ε·b = 3.5 nT gives r_n = 20.4 RE, a polar-cap boundary at
  * 74.3° and 0.56 GWb per hemisphere.
  */
-export const DEFAULT_IMF_EFFICIENCY = 0.913;
+export const DEFAULT_IMF_EFFICIENCY = 0.9333;
 
 const IMF_LIMIT_NT = 1000;
 
@@ -41,13 +41,14 @@ export interface ImfField {
  * Saturation of the penetrated field, nT: the penetrated transverse field
  * b = ε·B_T is replaced by b·B_s/(b + B_s), the Hill–Siscoe form Φ = Φ_sw Φ_s/(Φ_sw + Φ_s) of the
  * polar-cap potential saturation (Hill, 1984; Siscoe et al., 2002, J. Geophys. Res. 107, 1075;
- * references §10) applied to the model's driver, the penetrated field. B_s = 20 nT is our
- * calibration: with it and ε = 0.913 the penetrated field at Bz −5 nT is the earlier calibration's value
+ * references §10) applied to the model's driver, the penetrated field. B_s = 14 nT is our
+ * calibration: with it and ε = 0.9333 the penetrated field at Bz −5 nT is the earlier calibration's value
  * (3.5 nT, so the quiet calibration holds), and the open flux levels off (< 0.15 GWb more from
- * Bz −30 to −50 nT, ≤ 1.2 GWb; references §10). Infinity turns the saturation off; the model
+ * Bz −30 to −50 nT, ≤ 1.2 GWb; references §10). (15 nT with ε 0.913 until the far-tail band of the
+ * compression fit, which added ~0.006 GWb to that growth at 10 nPa: 0.151 GWb; references §12.) Infinity turns the saturation off; the model
  * (model.ts) applies it only with the magnetopause on (bare Dungey superposition without it).
  */
-export const DEFAULT_IMF_SATURATION_NT = 15;
+export const DEFAULT_IMF_SATURATION_NT = 14;
 
 /** Prepare the penetrating-IMF term from IMF By, Bz (GSM, nT), an efficiency in [0, 1] and a saturation field (nT). */
 export function prepareImf(byNt: number, bzNt: number, efficiency: number, saturationNt = DEFAULT_IMF_SATURATION_NT): ImfField {

@@ -112,13 +112,22 @@ export interface ModelOptions {
 
 /**
  * Distance of the model's distant neutral line down the tail, RE: a line reaching
- * x < −45 RE is open, so no boundary depends on the trace limit (≥ 60 RE). Observed reconnection
- * sites lie at ~20–30 RE (near-Earth, substorms) and ~100 RE (distant), from memory; 45 RE is our
- * calibration between them (references §12; it brings the quiet midnight boundary into its published range).
+ * x < −35 RE is open, so no boundary depends on the trace limit (≥ 60 RE). Observed reconnection
+ * sites lie at ~20–30 RE (near-Earth, substorms) and ~100 RE (distant), from memory; 35 RE is our
+ * calibration between them (references §12; with the far-tail band of the compression fit the quiet
+ * midnight boundary moves by < 0.1° for 34–36 RE).
  */
-export const DISTANT_NEUTRAL_LINE_RE = 45;
+export const DISTANT_NEUTRAL_LINE_RE = 35;
 /** Least tailward extent of the compression fit, RE (2 r0 at Pdyn 2 nPa, Bz 0). */
 const FIT_MIN_DEPTH_RE = 20.5;
+/**
+ * Far-tail band of the compression fit (references §12): the Shue surface from the fitted region's edge
+ * to x = −60 RE, sampled every 1 r0 and weighted by 0.05, so the compression field beyond the fitted region
+ * follows the shielding condition loosely instead of extrapolating the fit. 60 RE lies beyond the distant
+ * neutral line and the shortest trace limit; the weight was chosen by a scan (0.03–0.3): at 0.05 a step of
+ * the fit depth moves no boundary by more than 0.07° and the shielding rms grows by ≤ 0.05 points.
+ */
+export const FAR_TAIL_FIT: Readonly<{ depthRe: number; weight: number; spacing: number }> = Object.freeze({ depthRe: 60, weight: 0.05, spacing: 1 });
 /** Gap between the equatorward-edge source and the tail sheet's inner edge, RE. */
 const TAIL_INNER_GAP_RE = 1;
 
@@ -238,10 +247,12 @@ function prepareBoundary(c: FieldConditions, shielded: FieldWriter, hasExternalT
   // Fit at least to x = −20.5 RE (2 r0 at 2 nPa), so that at high pressure the compression
   // field stays small down the tail instead of tending to a large uniform part.
   const fitDepthR0 = options.compression?.fitDepthR0 ?? Math.max(2, FIT_MIN_DEPTH_RE / shape.r0Re);
-  const compression = prepareCompression(shape, shielded, { ...options.compression, fitDepthR0 });
+  // Beyond it, the far-tail band keeps the field small and smooth (FAR_TAIL_FIT); null turns it off (cross-checks).
+  const farTail = options.compression?.farTail === undefined ? FAR_TAIL_FIT : options.compression.farTail;
+  const compression = prepareCompression(shape, shielded, { ...options.compression, fitDepthR0, farTail });
   // Without external terms the fit is good to < 1 % inside the Shue fitted range; with the tail sheet,
-  // the ring current and the deeper fit the measured worst is 2.37 % (8.5 nPa, Bz −18 nT, tilt ±35°;
-  // test/physics/field/tail.test.ts), so the warning starts at 2.5 %.
+  // the ring current, the deeper fit and the far-tail band the measured worst over Pdyn 0.5–10 nPa,
+  // Bz −10..10 nT, tilt ±35° is 2.45 % (test/physics/field/tail.test.ts), so the warning starts at 2.5 %.
   const limit = hasExternalTerms ? 0.025 : 0.01;
   if (compression.rmsResidualRel > limit) {
     warnings.push(`the compression field leaves ${(100 * compression.rmsResidualRel).toFixed(1)} % rms normal field on the magnetopause (fit good to < ${100 * limit} % inside the Shue fitted range)`);

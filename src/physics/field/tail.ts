@@ -96,8 +96,10 @@ export interface TailCalibration {
  * boundaries of references §8 under the constraint that the compression fit still shields
  * internal + tail to ≈ 1 % rms at zero tilt; the realism table in the README
  * (scripts/realism.ts) shows the result. Per parameter:
- *  - lobeNt 28 nT: the near-Earth lobe field, ~15–30 nT at 10–30 RE (from memory, references §12), the upper
- *    part: it stretches the quiet-time (Bz 0) midnight field lines toward the 66–72° boundary;
+ *  - lobeNt 29.5 nT: the near-Earth lobe field, ~15–30 nT at 10–30 RE (from memory, references §12), the upper
+ *    part: it stretches the quiet-time (Bz 0) midnight field lines toward the 66–72° boundary (28 nT before
+ *    the far-tail band of the compression fit, which made the far-tail field less southward; 29.5 nT with the
+ *    35 RE neutral line keeps the quiet rows of the realism table within 0.2° of their earlier values);
  *  - lobePerSouthNt 0.065, lobeMaxFactor 1.6: the lobe grows with southward Bz (open flux loaded
  *    into the tail, common practice) to ~45 nT at saturation (the tilted fit residual sets this
  *    ceiling); sets the midnight boundary's Bz dependence and, through the polar-cap size, part
@@ -106,7 +108,7 @@ export interface TailCalibration {
  *    near 8–10 RE in quiet times, moving earthward in disturbed times (from memory, references §12); the shift
  *    keeps the noon boundary's Bz dependence above 0.5 °/nT with the smaller lobe growth;
  *  - bandLengthsRe [12, 40, 150]: the current density falls tailward in three steps, so the
- *    lobe field falls from 28 to ~9 nT by ~50 RE (from memory, references §12: ~10 nT beyond 60 RE) and the
+ *    lobe field falls from 29.5 to ~10 nT by ~50 RE (from memory, references §12: ~10 nT beyond 60 RE) and the
  *    sheet reaches the 100 RE trace limit (lines beyond it count as open, like the distant
  *    neutral line near ~100 RE, from memory, references §12);
  *  - thicknessRe 3.5: plasma-sheet half-thickness of a few RE in quiet times (from memory, references §12);
@@ -114,8 +116,8 @@ export interface TailCalibration {
  *  - hingeRe 8: hinging distance of order 8–10 RE (from memory, references §12);
  *  - lobeCapNt 80: the lobe field saturates instead of growing as √Pdyn without limit;
  *    near-Earth lobe fields in intense storms reach several tens of nT, of order 50–80 nT at
- *    10–20 RE (storm-time lobe studies, from memory). Soft cap L/(1 + (L/cap)⁴)^¼: −0.4 % at the
- *    quiet 28 nT, 80 nT at most (our choice of form);
+ *    10–20 RE (storm-time lobe studies, from memory). Soft cap L/(1 + (L/cap)⁴)^¼: −0.46 % at the
+ *    quiet 29.5 nT, 80 nT at most (our choice of form);
  *  - farEndMinRe 150: the outermost band ends at least 150 RE down the tail, well
  *    beyond the distant neutral line of the model (model.ts), so lobe lines never close round the
  *    sheet's far end inside it (the band lengths alone scale with r0 and ended at ~76 RE at 50 nPa);
@@ -124,7 +126,7 @@ export interface TailCalibration {
  *    (scan 20–22 RE: lowest worst-case rms near 21–22 RE).
  */
 export const DEFAULT_TAIL_CALIBRATION: Readonly<TailCalibration> = Object.freeze({
-  lobeNt: 28,
+  lobeNt: 29.5,
   lobeCapNt: 80,
   farEndMinRe: 150,
   lobePerSouthNt: 0.065,

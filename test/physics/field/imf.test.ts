@@ -122,8 +122,11 @@ describe('penetrating IMF term (Dungey 1961, Phys. Rev. Lett. 6, 47)', () => {
       expectClose(imf.byNt, e * by * f, 1e-12, `penetrated By for (${by}, ${bz})`);
       expectAtMost(Math.hypot(imf.byNt, imf.bzNt), bs, 'never above the saturation field');
     }
-    // Worked (derived): ε 0.913, Bz −30 → 9.689 nT; −50 → 11.290 nT; growth 1.6 nT where the unsaturated term grows 18.3 nT.
-    expectClose(-prepareImf(0, -30, 0.913).bzNt, (27.39 * 15) / 42.39, 1e-9, 'Bz −30 worked value');
-    expectClose(-prepareImf(0, -50, 0.913).bzNt, (45.65 * 15) / 60.65, 1e-9, 'Bz −50 worked value');
+    // Worked (derived): ε 0.9333, B_s 14 nT: Bz −30 → 9.333 nT; −50 → 10.769 nT; growth 1.4 nT where the unsaturated term grows 18.7 nT.
+    expect(bs).toBe(14);
+    expectClose(-prepareImf(0, -30, 0.9333).bzNt, (27.999 * 14) / 41.999, 1e-9, 'Bz −30 worked value');
+    expectClose(-prepareImf(0, -50, 0.9333).bzNt, (46.665 * 14) / 60.665, 1e-9, 'Bz −50 worked value');
+    // The quiet calibration: 3.5 nT penetrated at Bz −5 (references §12).
+    expectClose(-prepareImf(0, -5, DEFAULT_IMF_EFFICIENCY).bzNt, 3.5, 1e-4, 'penetrated field at Bz −5 nT');
   });
 });

@@ -118,7 +118,7 @@ describe('tail current sheet (2D vector potential, derived)', () => {
   it('parameters: lobe ∝ √Pdyn, stronger (to the saturation) and closer for southward Bz, lengths scale with the Shue standoff', () => {
     const c = DEFAULT_TAIL_CALIBRATION;
     const q = tailParameters(2, 0), q8 = tailParameters(8, 0);
-    // Soft cap L/(1 + (L/cap)⁴)^¼ (tail.ts): −0.4 % at the quiet 28 nT.
+    // Soft cap L/(1 + (L/cap)⁴)^¼ (tail.ts): −0.46 % at the quiet 29.5 nT.
     const capped = (l: number): number => l / Math.pow(1 + (l / c.lobeCapNt) ** 4, 0.25);
     expectClose(q.lobeNt, capped(c.lobeNt), 1e-12, 'lobe field at the reference conditions');
     expectClose(q.lobeNt, c.lobeNt, 0.005 * c.lobeNt, 'the cap leaves the quiet lobe within 0.5 %');
@@ -174,7 +174,7 @@ describe('tail in the model: the compression fit shields internal + tail', () =>
     return Math.sqrt(sr / sw);
   }
 
-  it('rms |B·n|/|B| over the fitted region (x ≥ −max(2 r0, 20.5 RE)), Pdyn 0.5–10 nPa, Bz −10..10 nT: ≤ 1.75 % at zero tilt, ≤ 2.45 % at tilt ±35° (target 1 %, not met)', () => {
+  it('rms |B·n|/|B| over the fitted region (x ≥ −max(2 r0, 20.5 RE)), Pdyn 0.5–10 nPa, Bz −10..10 nT: ≤ 1.76 % at zero tilt, ≤ 2.45 % at tilt ±35° (target 1 %, not met)', () => {
     let worst0 = 0, worstTilt = 0;
     for (const pd of [0.5, 2, 10]) {
       for (const bz of [-10, 0, 10]) {
@@ -189,8 +189,10 @@ describe('tail in the model: the compression fit shields internal + tail', () =>
     // Measured before the storm-time model: 0.97 % (tilt 0), 1.71 % (tilt ±35°). The storm-time model fits at least 20.5 RE down
     // the tail (2.9 r0 at 10 nPa, so the compression field stays small far down the tail) and shields
     // the ring current too (estimated Dst* −114 nT at Bz −10): measured 1.70 % (tilt 0, 10 nPa, Bz −10)
-    // and 2.38 % (tilt ±35°, 10 nPa).
-    expectAtMost(worst0, 0.0175, 'worst rms residual at zero tilt');
+    // and 2.38 % (tilt ±35°, 10 nPa). The far-tail band of the fit (weight 0.05 to x = −60 RE, references §12) and
+    // the lobe field of 29.5 nT: 1.754 % (tilt 0) and 2.447 % (tilt −35°), both at 10 nPa, Bz −10 (1.730 % and
+    // 2.394 % without the band), so the zero-tilt bound moved from 1.75 % to 1.76 %.
+    expectAtMost(worst0, 0.0176, 'worst rms residual at zero tilt');
     expectAtMost(worstTilt, 0.0245, 'worst rms residual at tilt ±35°');
   }, 60_000);
 

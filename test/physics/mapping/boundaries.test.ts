@@ -14,6 +14,8 @@ import {
 } from '../../../src/physics/mapping';
 import { scanStartLatDeg } from '../../../src/physics/mapping/boundaries';
 import type { Tracer } from '../../../src/physics/trace/tracer';
+import { gsmAtMagneticLatMlt } from '../../../src/physics/trace/footpoint';
+import { LINE_CLOSED, LINE_OPEN } from '../../../src/physics/trace/line-type';
 
 const TIME = '2025-03-20T12:00:00Z';
 const DEG = Math.PI / 180;
@@ -159,6 +161,7 @@ describe('compression fit depth (references §4, §12)', () => {
   // One step of the fit depth: 0.25 r0 either side of the model's depth max(2 r0, 20.5 RE).
   const STEP_R0 = 0.25;
   const CASES: [number, number, number | null][] = [[2, -2, null], [2, -5, null], [10, -20, null], [30, -40, null], [50, -50, null], [10, -30, -400], [0.5, 5, null]];
+  const BZ0_CASES: [number, number, number | null][] = [[0.5, 0, null], [2, 0, null], [5, 0, null], [10, 0, null]];
 
   function boundariesAt(c: Partial<FieldConditions>, depthR0: number): number[] {
     const m = model(c, { compression: { fitDepthR0: depthR0 } });
@@ -171,42 +174,47 @@ describe('compression fit depth (references §4, §12)', () => {
     return out;
   }
 
-  it('no boundary moves by more than 0.2° when the fit depth changes by one step (0.25 r0), quiet to Dst −400 nT', () => {
-    for (const [p, bz, dst] of CASES) {
+  it('no boundary at MLT 0, 6, 12, 18 moves by more than 0.2° when the fit depth changes by one step (0.25 r0): Bz 0 at Pdyn 0.5–10 nPa, quiet to Dst −400 nT', () => {
+    // Target 0.2° (issue check, references §12). Bz 0 is the hard case: the midnight lines reach the distant
+    // neutral line, beyond the fitted region, where only the far-tail band constrains the field.
+    let worst = 0;
+    for (const [p, bz, dst] of [...BZ0_CASES, ...CASES]) {
       const c = { pdynNpa: p, bzNt: bz, dstNt: dst };
       const depth = Math.max(2, 20.5 / shueMagnetopause(p, bz, 0).r0Re);
       const ref = boundariesAt(c, depth);
       for (const d of [depth - STEP_R0, depth + STEP_R0]) {
         const got = boundariesAt(c, d);
-        // Measured worst: 0.11° (Dst −400 nT, dusk open–closed boundary).
-        got.forEach((v, i) => expectAtMost(Math.abs(v - ref[i]), 0.2, `boundary ${i} at Pdyn ${p}, Bz ${bz}, Dst ${dst ?? 'estimated'}: depth ${d.toFixed(2)} vs ${depth.toFixed(2)} r0`));
+        got.forEach((v, i) => {
+          expect(Number.isFinite(v), `boundary ${i} at Pdyn ${p}, Bz ${bz}: found at depth ${d.toFixed(2)} r0`).toBe(true);
+          const diff = Math.abs(v - ref[i]);
+          worst = Math.max(worst, diff);
+          expectAtMost(diff, 0.2, `boundary ${i} at Pdyn ${p}, Bz ${bz}, Dst ${dst ?? 'estimated'}: depth ${d.toFixed(2)} vs ${depth.toFixed(2)} r0`);
+        });
       }
     }
-  }, 120_000);
-
-  it('known miss: with Bz 0 the midnight open–closed boundary moves up to 0.5° per step (far-tail compression field; README limits)', () => {
-    for (const p of [2, 5]) {
-      const c = { pdynNpa: p, bzNt: 0 };
-      const depth = Math.max(2, 20.5 / shueMagnetopause(p, 0, 0).r0Re);
-      const ref = boundariesAt(c, depth);
-      for (const d of [depth - STEP_R0, depth + STEP_R0]) {
-        const got = boundariesAt(c, d);
-        // Measured: 0.24° at Pdyn 2, 0.46° at Pdyn 5 (midnight); every other boundary ≤ 0.16°.
-        got.forEach((v, i) => expectAtMost(Math.abs(v - ref[i]), i === 0 ? 0.5 : 0.2, `boundary ${i} at Pdyn ${p}, Bz 0: depth ${d.toFixed(2)} vs ${depth.toFixed(2)} r0`));
-      }
-    }
-  }, 120_000);
+    // Measured worst: 0.063° (before the far-tail band: 0.46°, midnight open–closed at Pdyn 5 nPa, Bz 0).
+    expectAtMost(worst, 0.1, 'worst move over all cases');
+  }, 240_000);
 });
 
 describe('a hint changes the cost, never the answer (several open–closed transitions along one meridian)', () => {
-  it('2025-01-01T05:00Z, Pdyn 4.13, Bz 1.49, By −4.32, north, MLT 2.571: closed lines 74.22–74.90° above an open band at 74.15°; hinted and unhinted agree to 0.01°', () => {
-    const m = prepareModel({ time: '2025-01-01T05:00:00Z', internal: 'dipole', tail: true, pdynNpa: 4.13, bzNt: 1.49, byNt: -4.32 });
+  it('2025-01-01T08:00Z, Pdyn 4.16, Bz 0.98, By −0.08, north, MLT 13.618: closed lines 78.10–79.32° above an open band at 77.94–78.09°; hinted and unhinted agree to 0.01°', () => {
+    // The example moved with the far-tail band of the compression fit (references §12); the earlier one (05:00Z,
+    // Pdyn 4.13, MLT 2.571) has a single transition now. Found by a random search over conditions.
+    const m = prepareModel({ time: '2025-01-01T08:00:00Z', internal: 'dipole', tail: true, pdynNpa: 4.16, bzNt: 0.98, byNt: -0.08 });
     const t = makeTracer(m);
-    const full = sectorBoundaries(m, t, 'north', 2.571);
-    // Profile measured at 0.01° steps: closed up to 74.15°, open 74.15–74.22°, closed 74.22–74.90°, open above.
-    expectClose(lat(full.openClosed), 74.90, 0.02, 'poleward edge of closed lines (unhinted)');
-    for (const h of [73.0, 74.1, 74.18, 74.6, 76.5]) {
-      const b = sectorBoundaries(m, t, 'north', 2.571, {}, { openClosedLatDeg: h, equatorwardLatDeg: 68, halfWidthDeg: 0.75 });
+    const mlt = 13.618;
+    // Profile measured at 0.01° steps: closed up to 77.93°, open 77.94–78.09°, closed 78.10–79.32°, open above.
+    const p = new Float64Array(3);
+    const typeAt = (latDeg: number): number => {
+      gsmAtMagneticLatMlt(p, m.frames, latDeg, mlt, t.options.altKm, t.options.ellipsoid);
+      return t.trace(p[0], p[1], p[2]);
+    };
+    expect([77.8, 78.0, 78.5, 79.5].map(typeAt), 'closed, open, closed, open along the meridian').toEqual([LINE_CLOSED, LINE_OPEN, LINE_CLOSED, LINE_OPEN]);
+    const full = sectorBoundaries(m, t, 'north', mlt);
+    expectClose(lat(full.openClosed), 79.32, 0.02, 'poleward edge of closed lines (unhinted)');
+    for (const h of [76.5, 77.9, 78.0, 78.7, 80.5]) {
+      const b = sectorBoundaries(m, t, 'north', mlt, {}, { openClosedLatDeg: h, equatorwardLatDeg: 68, halfWidthDeg: 0.75 });
       expectClose(lat(b.openClosed), lat(full.openClosed), 0.01, `open–closed boundary from a hint at ${h}°`);
       expectClose(lat(b.equatorward), lat(full.equatorward), 0.01, `equatorward edge from a hint at ${h}°`);
     }

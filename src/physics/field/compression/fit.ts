@@ -19,14 +19,23 @@
  * stay finite; the field has no meaning there.
  *
  * Fitted region: the surface from the nose to x = −2 r0 (two standoff distances
- * tailward, ≈ −20 RE at 2 nPa), sampled on rings of equal meridian arc length with
- * spacing 0.3 r0, each sample weighted by its surface area and by 1/|B| (a second
- * pass re-weights by the fitted total), so the fit minimises the area-weighted rms
- * of |B·n|/|B|, the figure reported in `rmsResidualRel`.
+ * tailward, ≈ −20 RE at 2 nPa; `fitDepthR0`), sampled on rings 0.3 r0 apart in meridian
+ * arc length on a grid anchored at the nose, each sample weighted by its surface area and
+ * by 1/|B| (a second pass re-weights by the fitted total), so the fit minimises the
+ * area-weighted rms of |B·n|/|B|, the figure reported in `rmsResidualRel`.
+ *
+ * Far-tail band (optional, `farTail`; the model turns it on, references §12): beyond the
+ * fitted region the field is otherwise an extrapolation of the fit, and a fit that ends a
+ * little further down the tail gives a different far tail (at 2 nPa, Bz 0, ±0.4 nT of Bz at
+ * x = −45 RE per 0.25 r0, enough to move the midnight open–closed boundary by 0.24°). The band
+ * adds the shielding condition from the fitted region's edge to x = −depthRe with a low weight
+ * (samples every `spacing` scale units, weights scaled by `weight`), so the far field stays small
+ * and smooth and no longer depends on where the fitted region ends. Its samples do not enter
+ * `rmsResidualRel` / `maxResidualRel` / `nSamples`.
  */
-import { InputError, expectedGot } from '../../errors';
+import { InputError, expectedGot, requireInRange } from '../../errors';
 import type { MagnetopauseShape } from '../magnetopause';
-import { shueSurface, sampleSurface, type AxisymmetricSurface, type Samples } from './surface';
+import { shueSurface, shueThetaAtX, sampleSurface, type AxisymmetricSurface, type Samples } from './surface';
 import { leastSquaresQr } from '../../numeric/lsq';
 import { makeKernel, type Kernel } from './basis';
 import { compressionPairs } from './pairs';
@@ -43,6 +52,12 @@ export interface CompressionOptions {
   fitDepthR0?: number;
   /** Sample spacing along the surface, in units of scaleRe (default 0.3). */
   spacing?: number;
+  /**
+   * Far-tail band (see the header): the Shue surface from the fitted region's edge to x = −depthRe (RE,
+   * 1..1000), samples `spacing` scale units apart (0.05..5, default 1) with their weights scaled by
+   * `weight` (0..1). null or absent: none (the model passes its own, FAR_TAIL_FIT in model.ts).
+   */
+  farTail?: { depthRe: number; weight: number; spacing?: number } | null;
   /** Use the generated unrolled evaluator for the default order (default true; false is for cross-checks). */
   unrolled?: boolean;
 }
@@ -59,6 +74,8 @@ export interface CompressionField {
   conditionEstimate: number;
   yOdd: boolean;
   fitRegion: { xMinRe: number; thetaMaxRad: number };
+  /** The far-tail band (tailward edge, weight, sample count), or null when the fit has none. */
+  farBand: { xMinRe: number; weight: number; nSamples: number } | null;
 }
 
 /** Wavenumber step in units of 1/scale (see the header). */
@@ -70,17 +87,34 @@ const CLAMP_SCALES = 4;
 export function prepareCompression(mp: MagnetopauseShape, shielded: FieldWriter, options: CompressionOptions = {}): CompressionField {
   const depth = options.fitDepthR0 ?? 2;
   if (!(depth > 0 && depth <= 10)) throw new InputError('fitDepthR0', expectedGot('0 < fitDepthR0 ≤ 10 (in r0)', depth));
-  return prepareCompressionOnSurface(shueSurface(mp, depth), shielded, options);
+  const surface = shueSurface(mp, depth);
+  const ft = options.farTail ?? null;
+  let far: FarBand | null = null;
+  if (ft !== null) {
+    requireInRange('farTail.depthRe', ft.depthRe, 1, 1000, 'RE');
+    requireInRange('farTail.weight', ft.weight, 0, 1);
+    const farSpacing = requireInRange('farTail.spacing', ft.spacing ?? 1, 0.05, 5, 'r0');
+    // A band only where the surface reaches beyond the fitted region (none when the fit already ends tailward of −depthRe).
+    const t1 = shueThetaAtX(mp, -ft.depthRe);
+    if (ft.weight > 0 && t1 > surface.thetaMaxRad) far = { samples: sampleSurface(surface, farSpacing, surface.thetaMaxRad, t1), weight: ft.weight };
+  }
+  return prepareCompressionOnSurface(surface, shielded, options, far);
 }
 
-/** Fit the compression field on any x-axisymmetric surface (the sphere for the exact limit). */
-export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shielded: FieldWriter, options: CompressionOptions = {}): CompressionField {
+/** Samples beyond the fitted region that enter the fit with a reduced weight (not the reported residual). */
+export interface FarBand { samples: Samples; weight: number }
+
+/** Fit the compression field on any x-axisymmetric surface (the sphere for the exact limit), optionally with a low-weight band beyond it. */
+export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shielded: FieldWriter, options: CompressionOptions = {}, far: FarBand | null = null): CompressionField {
   const order = options.order ?? 4;
   if (!Number.isInteger(order) || order < 1 || order > 8) throw new InputError('order', expectedGot('an integer 1..8', order));
   const spacing = options.spacing ?? 0.3;
   if (!(spacing >= 0.05 && spacing <= 1)) throw new InputError('spacing', expectedGot('0.05..1 (in units of the scale)', spacing));
 
-  const smp = sampleSurface(surface, spacing);
+  const main = sampleSurface(surface, spacing);
+  const smp = far ? joinSamples(main, far.samples) : main;
+  const scale = new Float64Array(smp.n).fill(1);
+  if (far) scale.fill(far.weight, main.n);
   const { bs, bMax } = sampleShieldedField(smp, shielded);
   const yOdd = options.yOdd === 'auto' || options.yOdd === undefined ? yAsymmetric(smp, bs, bMax) : options.yOdd;
   const kappa = KAPPA / surface.scaleRe;
@@ -88,18 +122,19 @@ export function prepareCompressionOnSurface(surface: AxisymmetricSurface, shield
   const cols = basisColumns(pairs, yOdd);
   const kern = makeKernel(pairs, order, kappa, surface.radiusRe(0), CLAMP_SCALES * surface.scaleRe, options.unrolled ?? true);
   const an = normalComponents(smp, kern, cols);
-  const fit = solveWeighted(smp, bs, bMax, an, kern, cols);
-  const res = surfaceResidual(smp, fit.bTotal);
+  const fit = solveWeighted(smp, bs, bMax, an, kern, cols, scale);
+  const res = surfaceResidual(main, fit.bTotal);
   const tm = surface.thetaMaxRad;
   return {
     evaluate: fit.field,
     rmsResidualRel: res.rms,
     maxResidualRel: res.max,
     nTerms: cols.pair.length,
-    nSamples: smp.n,
+    nSamples: main.n,
     conditionEstimate: fit.conditionEstimate,
     yOdd,
     fitRegion: { xMinRe: surface.radiusRe(tm) * Math.cos(tm), thetaMaxRad: tm },
+    farBand: far ? { xMinRe: farEdgeXRe(far.samples), weight: far.weight, nSamples: far.samples.n } : null,
   };
 }
 
@@ -166,7 +201,7 @@ function normalComponents(smp: Samples, kern: Kernel, cols: Columns): Float64Arr
  * first, then with the fitted total. Returns the field of the second pass, the
  * total field at the samples and the matrix's condition estimate.
  */
-function solveWeighted(smp: Samples, bs: Float64Array, bMax: number, an: Float64Array, kern: Kernel, cols: Columns): { field: FieldWriter; bTotal: Float64Array; conditionEstimate: number } {
+function solveWeighted(smp: Samples, bs: Float64Array, bMax: number, an: Float64Array, kern: Kernel, cols: Columns, scale: Float64Array): { field: FieldWriter; bTotal: Float64Array; conditionEstimate: number } {
   const ns = smp.n, nc = cols.pair.length;
   const coef = new Float64Array(nc);
   const a = new Float64Array(ns * nc);
@@ -174,7 +209,7 @@ function solveWeighted(smp: Samples, bs: Float64Array, bMax: number, an: Float64
   const wt = new Float64Array(ns);
   const tmp = new Float64Array(3);
   const floor = bMax > 0 ? 1e-9 * bMax : 1;
-  for (let s = 0; s < ns; s++) wt[s] = Math.sqrt(smp.area[s]) / Math.max(floor, Math.hypot(bs[3 * s], bs[3 * s + 1], bs[3 * s + 2]));
+  for (let s = 0; s < ns; s++) wt[s] = scale[s] * Math.sqrt(smp.area[s]) / Math.max(floor, Math.hypot(bs[3 * s], bs[3 * s + 1], bs[3 * s + 2]));
   let field: FieldWriter | null = null;
   let cond = 0;
   const bt = new Float64Array(3 * ns);
@@ -190,7 +225,7 @@ function solveWeighted(smp: Samples, bs: Float64Array, bMax: number, an: Float64
       tmp[0] = bs[3 * s]; tmp[1] = bs[3 * s + 1]; tmp[2] = bs[3 * s + 2];
       field(tmp, smp.p[3 * s], smp.p[3 * s + 1], smp.p[3 * s + 2]);
       bt[3 * s] = tmp[0]; bt[3 * s + 1] = tmp[1]; bt[3 * s + 2] = tmp[2];
-      wt[s] = Math.sqrt(smp.area[s]) / Math.max(floor, Math.hypot(tmp[0], tmp[1], tmp[2]));
+      wt[s] = scale[s] * Math.sqrt(smp.area[s]) / Math.max(floor, Math.hypot(tmp[0], tmp[1], tmp[2]));
     }
   }
   return { field: field as FieldWriter, bTotal: bt, conditionEstimate: cond };
@@ -208,6 +243,27 @@ function surfaceResidual(smp: Samples, bt: Float64Array): { rms: number; max: nu
     if (r > rmax) rmax = r;
   }
   return { rms: Math.sqrt(sr / sw), max: rmax };
+}
+
+/** x of the band's last ring (its tailward edge lies half a ring spacing further). */
+function farEdgeXRe(b: Samples): number {
+  let x = Infinity;
+  for (let i = 0; i < b.n; i++) x = Math.min(x, b.p[3 * i]);
+  return x;
+}
+
+/** The samples of a followed by those of b (ring starts of b shifted). */
+function joinSamples(a: Samples, b: Samples): Samples {
+  const n = a.n + b.n;
+  const p = new Float64Array(3 * n), nrm = new Float64Array(3 * n), area = new Float64Array(n);
+  p.set(a.p); p.set(b.p, 3 * a.n);
+  nrm.set(a.nrm); nrm.set(b.nrm, 3 * a.n);
+  area.set(a.area); area.set(b.area, a.n);
+  const ra = a.ringStart.length - 1, rb = b.ringStart.length - 1;
+  const ringStart = new Int32Array(ra + rb + 1);
+  ringStart.set(a.ringStart.subarray(0, ra));
+  for (let r = 0; r <= rb; r++) ringStart[ra + r] = a.n + b.ringStart[r];
+  return { n, p, nrm, area, ringStart };
 }
 
 /** True when B(x, −y, z) ≠ (Bx, −By, Bz)(x, y, z) on the samples (rings are mirror-symmetric in y). */

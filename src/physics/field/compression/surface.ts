@@ -19,20 +19,7 @@ export interface AxisymmetricSurface {
 
 /** The Shue et al. (1998) surface as a fit boundary, from the nose to x = −depth·r0. */
 export function shueSurface(mp: MagnetopauseShape, fitDepthR0 = 2): AxisymmetricSurface {
-  const xMin = -fitDepthR0 * mp.r0Re;
-  const xAt = (t: number): number => shueRadius(mp, t) * Math.cos(t);
-  const cap = 0.95 * Math.PI;
-  let thetaMax = cap;
-  if (xAt(cap) < xMin) {
-    let lo = 0;
-    let hi = cap;
-    for (let it = 0; it < 60; it++) {
-      const mid = 0.5 * (lo + hi);
-      if (xAt(mid) > xMin) lo = mid;
-      else hi = mid;
-    }
-    thetaMax = 0.5 * (lo + hi);
-  }
+  const thetaMax = shueThetaAtX(mp, -fitDepthR0 * mp.r0Re);
   return {
     radiusRe: (t) => shueRadius(mp, t),
     // dr/dθ = r α tan(θ/2), derived from Shue et al. (1998) eq. 1.
@@ -40,6 +27,21 @@ export function shueSurface(mp: MagnetopauseShape, fitDepthR0 = 2): Axisymmetric
     thetaMaxRad: thetaMax,
     scaleRe: mp.r0Re,
   };
+}
+
+/** θ of the Shue surface at GSM x = xRe (bisection; capped at 0.95π, where the surface is far down the tail). */
+export function shueThetaAtX(mp: MagnetopauseShape, xRe: number): number {
+  const xAt = (t: number): number => shueRadius(mp, t) * Math.cos(t);
+  const cap = 0.95 * Math.PI;
+  if (xAt(cap) >= xRe) return cap;
+  let lo = 0;
+  let hi = cap;
+  for (let it = 0; it < 60; it++) {
+    const mid = 0.5 * (lo + hi);
+    if (xAt(mid) > xRe) lo = mid;
+    else hi = mid;
+  }
+  return 0.5 * (lo + hi);
 }
 
 /** A sphere of radius R centred on Earth (the exact conducting-sphere limit). */
@@ -56,10 +58,16 @@ export interface Samples {
   ringStart: Int32Array; // first sample index of each ring (+ sentinel)
 }
 
-/** Rings of equal meridian arc length; φ_j = (j + ½)·2π/n_φ with n_φ a multiple of 4 (mirror-symmetric in y and z). */
-export function sampleSurface(s: AxisymmetricSurface, spacing: number): Samples {
-  const NT = 256;
-  const th = s.thetaMaxRad;
+/**
+ * Rings on a grid of meridian arc length measured from the nose: band k covers arc lengths
+ * [k·ds, (k+1)·ds], ds = spacing·scaleRe, clipped to the part of the surface between θ = thetaFromRad
+ * and thetaToRad (default: the whole fitted region); each ring sits at the middle of its band and
+ * carries its area. φ_j = (j + ½)·2π/n_φ with n_φ a multiple of 4 (mirror-symmetric in y and z).
+ * The grid is anchored at the nose, so moving thetaToRad moves only the last band.
+ */
+export function sampleSurface(s: AxisymmetricSurface, spacing: number, thetaFromRad = 0, thetaToRad = s.thetaMaxRad): Samples {
+  const NT = 512;
+  const th = thetaToRad;
   const cum = new Float64Array(NT + 1);
   let prev = Math.hypot(s.radiusRe(0), s.radiusSlope(0));
   for (let i = 1; i <= NT; i++) {
@@ -68,24 +76,33 @@ export function sampleSurface(s: AxisymmetricSurface, spacing: number): Samples 
     cum[i] = cum[i - 1] + (0.5 * (prev + v) * th) / NT;
     prev = v;
   }
-  const total = cum[NT];
+  const thetaAtArc = (target: number): number => {
+    let lo = 0, hi = NT;
+    while (hi - lo > 1) { const mid = (lo + hi) >> 1; if (cum[mid] <= target) lo = mid; else hi = mid; }
+    const f = (target - cum[lo]) / (cum[hi] - cum[lo]);
+    return (th * (lo + f)) / NT;
+  };
+  const arcAtTheta = (t: number): number => {
+    const u = Math.min(NT, Math.max(0, (t / th) * NT));
+    const i = Math.min(NT - 1, Math.floor(u));
+    return cum[i] + (u - i) * (cum[i + 1] - cum[i]);
+  };
+  const arcTo = cum[NT];
+  const arcFrom = thetaFromRad > 0 ? arcAtTheta(thetaFromRad) : 0;
   const ds0 = spacing * s.scaleRe;
-  const nRings = Math.max(4, Math.ceil(total / ds0));
-  const ds = total / nRings;
-  const thetas = new Float64Array(nRings);
-  const counts = new Int32Array(nRings);
+  const k0 = Math.floor(arcFrom / ds0), k1 = Math.ceil(arcTo / ds0);
+  const thetas: number[] = [], widths: number[] = [], counts: number[] = [];
   let n = 0;
-  let seg = 0;
-  for (let r = 0; r < nRings; r++) {
-    const target = (r + 0.5) * ds;
-    while (seg < NT - 1 && cum[seg + 1] < target) seg++;
-    const f = (target - cum[seg]) / (cum[seg + 1] - cum[seg]);
-    const t = (th * (seg + f)) / NT;
-    thetas[r] = t;
+  for (let kb = k0; kb < k1; kb++) {
+    const a0 = Math.max(kb * ds0, arcFrom), a1 = Math.min((kb + 1) * ds0, arcTo);
+    if (!(a1 - a0 > 1e-9 * ds0)) continue;
+    const t = thetaAtArc(0.5 * (a0 + a1));
     const rho = s.radiusRe(t) * Math.sin(t);
-    counts[r] = 4 * Math.max(1, Math.ceil((2 * Math.PI * rho) / (4 * ds)));
-    n += counts[r];
+    const m = 4 * Math.max(1, Math.ceil((2 * Math.PI * rho) / (4 * ds0)));
+    thetas.push(t); widths.push(a1 - a0); counts.push(m);
+    n += m;
   }
+  const nRings = thetas.length;
   const p = new Float64Array(3 * n);
   const nrm = new Float64Array(3 * n);
   const area = new Float64Array(n);
@@ -104,7 +121,7 @@ export function sampleSurface(s: AxisymmetricSurface, spacing: number): Samples 
     const nrr = rr * st - rp * ct;
     const len = Math.hypot(nxr, nrr);
     const m = counts[r];
-    const dA = (rho * ds * 2 * Math.PI) / m;
+    const dA = (rho * widths[r] * 2 * Math.PI) / m;
     for (let j = 0; j < m; j++) {
       const phi = ((j + 0.5) * 2 * Math.PI) / m;
       const cp = Math.cos(phi);

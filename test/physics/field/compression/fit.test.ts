@@ -7,6 +7,7 @@ import { InputError } from '../../../../src/physics/errors';
 import { magnetopauseNormal, magnetopausePoint, shueMagnetopause, shueRadius, type MagnetopauseShape } from '../../../../src/physics/field/magnetopause';
 import { prepareCompression, prepareCompressionOnSurface, type CompressionField, type FieldWriter } from '../../../../src/physics/field/compression/fit';
 import { sphereSurface } from '../../../../src/physics/field/compression/surface';
+import { prepareModel, FAR_TAIL_FIT } from '../../../../src/physics/field/model';
 
 /** The 2025 dipole (references §1, §4). */
 const B0 = 29733;
@@ -263,6 +264,69 @@ describe('compression field on the Shue surface', () => {
     expect(() => prepareCompression(mp, sh, { order: 2.5 })).toThrow(/integer 1\.\.8/);
     expect(() => prepareCompression(mp, sh, { spacing: 0 })).toThrow(InputError);
     expect(() => prepareCompression(mp, sh, { fitDepthR0: -1 })).toThrow(/fitDepthR0/);
+    expect(() => prepareCompression(mp, sh, { farTail: { depthRe: 60, weight: 2 } })).toThrow(/farTail\.weight.*0\.\.1/);
+    expect(() => prepareCompression(mp, sh, { farTail: { depthRe: Number.NaN, weight: 0.05 } })).toThrow(/farTail\.depthRe/);
+    expect(() => prepareCompression(mp, sh, { farTail: { depthRe: 60, weight: 0.05, spacing: 0 } })).toThrow(/farTail\.spacing/);
     expect(() => sphereSurface(0)).toThrow(InputError);
+  });
+});
+
+describe('far-tail band of the fit (references §4, §12)', () => {
+  const TIME = '2025-03-20T12:00:00Z';
+  const CASES: [number, number][] = [[0.5, 0], [2, 0], [5, 0], [10, 0], [2, -5], [10, -20], [30, -40], [50, -50], [0.5, 5]];
+  /** The model's compression field (dipole + tail + ring current shielded) at depths d, d − 0.25 r0, d + 0.25 r0. */
+  function fits(p: number, bz: number, farTail?: null): CompressionField[] {
+    const d = Math.max(2, 20.5 / shueMagnetopause(p, bz).r0Re);
+    return [d, d - 0.25, d + 0.25].map((dd) => prepareModel({ time: TIME, internal: 'dipole', tiltDeg: 0, tail: true, pdynNpa: p, bzNt: bz }, { compression: { fitDepthR0: dd, ...(farTail === null ? { farTail } : {}) } }).compression!);
+  }
+  /** Largest change of B_c (nT) per fit-depth step over x = −20…−60 RE, z = 0, ±5 RE (y = 0), and largest |B_c| for x ≤ −30 RE. */
+  function farTailFigures(farTail?: null): { step: number; size: number } {
+    const a = new Float64Array(3), b = new Float64Array(3);
+    let step = 0, size = 0;
+    for (const [p, bz] of CASES) {
+      const f = fits(p, bz, farTail);
+      for (let x = -20; x >= -60; x -= 5) {
+        for (const z of [0, 5, -5]) {
+          a.fill(0);
+          f[0].evaluate(a, x, 0, z);
+          if (x <= -30) size = Math.max(size, Math.hypot(a[0], a[1], a[2]));
+          for (const k of [1, 2]) {
+            b.fill(0);
+            f[k].evaluate(b, x, 0, z);
+            step = Math.max(step, Math.hypot(a[0] - b[0], a[1] - b[1], a[2] - b[2]));
+          }
+        }
+      }
+    }
+    return { step, size };
+  }
+
+  it('far down the tail B_c no longer depends on where the fitted region ends: ≤ 0.08 nT per 0.25 r0 step (1.2 nT without the band), |B_c| ≤ 3.5 nT beyond 30 RE (6.6 nT without)', () => {
+    // A numerical parameter must not change the field (references §4). Measured with the band: 0.070 nT, 3.34 nT;
+    // without it: 1.19 nT, 6.61 nT (both at 10 nPa, Bz 0).
+    const on = farTailFigures();
+    expectAtMost(on.step, 0.08, 'largest change of B_c per fit-depth step with the band');
+    expectAtMost(on.size, 3.5, 'largest |B_c| for x ≤ −30 RE with the band');
+    const off = farTailFigures(null);
+    expectBetween(off.step, 1, 2, 'the same figure without the band (what the band fixes)');
+    expectBetween(off.size, 6, 8, 'largest |B_c| for x ≤ −30 RE without the band');
+  }, 60_000);
+
+  it('reports the band apart from the fitted region: residual and sample count of the fitted region only; band to −60 RE at weight 0.05', () => {
+    const on = prepareModel({ time: TIME, internal: 'dipole', tiltDeg: 0, tail: true, pdynNpa: 2, bzNt: 0 }).compression!;
+    const off = prepareModel({ time: TIME, internal: 'dipole', tiltDeg: 0, tail: true, pdynNpa: 2, bzNt: 0 }, { compression: { farTail: null } }).compression!;
+    expect(off.farBand).toBeNull();
+    expect(on.farBand).not.toBeNull();
+    expect(on.nSamples).toBe(off.nSamples);
+    expect(on.fitRegion).toEqual(off.fitRegion);
+    expectClose(on.fitRegion.xMinRe, -2 * shueMagnetopause(2, 0).r0Re, 1e-6, 'fitted region ends at −max(2 r0, 20.5 RE) = −2 r0 at 2 nPa, Bz 0 (r0 10.2519 RE, references §3)');
+    expect(on.farBand!.weight).toBe(FAR_TAIL_FIT.weight);
+    // Rings every 1 r0 from the edge: the last ring's centre lies within half a spacing of −60 RE (along the surface).
+    expectBetween(on.farBand!.xMinRe, -60, -60 + 0.5 * 10.25, 'x of the last far-tail ring');
+    // The band costs a little shielding in the fitted region: measured 0.95 % → 1.02 %.
+    expectBetween(on.rmsResidualRel - off.rmsResidualRel, 0, 0.001, 'rms residual added by the band');
+    // A fit that already reaches beyond −60 RE has no band.
+    const deep = prepareCompression(shueMagnetopause(2, 0), tiltedDipole(0), { fitDepthR0: 7, farTail: FAR_TAIL_FIT });
+    expect(deep.farBand).toBeNull();
   });
 });

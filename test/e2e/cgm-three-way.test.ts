@@ -103,12 +103,27 @@ describe.skipIf(!HAVE_BROWSER)('CGM grid on the polar maps', () => {
     }
   });
 
-  it('another control (pressure) does not recompute it: drawn at once, no "computing" status', async () => {
+  it('other controls do not recompute it (pressure, off and on again); a new time does', async () => {
+    const requests = () => b.page.locator('#polar-maps').getAttribute('data-cgm-requests').then(Number);
+    const before = await requests();
+    expect(before).toBeGreaterThanOrEqual(1);
     await setNumber(b.page, 'Dynamic pressure (nPa)', 4);
+    await waitFresh(b.page);
     expect(await b.page.getByText('computing the CGM grid', { exact: false }).count()).toBe(0);
     expect((await gridCounts(b.page)).north).toBeGreaterThan(0);
+    const box = b.page.getByLabel(CGM_LABEL, { exact: true });
+    await box.uncheck();
+    await box.check();
+    expect((await gridCounts(b.page)).north).toBeGreaterThan(0);
+    expect(await requests()).toBe(before);
     await setNumber(b.page, 'Dynamic pressure (nPa)', COND.pdyn);
+    await b.page.getByLabel('Time (UTC)', { exact: true }).fill('2025-03-20 23:00 UTC');
+    await expect.poll(requests, { timeout: 30_000 }).toBe(before + 1);
+    await b.page.getByLabel('Time (UTC)', { exact: true }).fill('2025-03-20 22:00 UTC');
     await waitFresh(b.page);
+    // Back to the first time: served from the cache.
+    expect(await requests()).toBe(before + 1);
+    await expect.poll(async () => (await gridCounts(b.page)).north, { timeout: 30_000 }).toBeGreaterThan(0);
   });
 
   it('the maps SVG export carries the grid and names it in the legend; it parses', async () => {

@@ -25,11 +25,13 @@ interface GraticuleState {
   computing: string | null;
   /** Refusal or failure of the last request, with its key. */
   error: { key: string; message: string } | null;
+  /** Requests sent to the worker so far (the maps show it as data-cgm-requests, for the tests). */
+  sent: number;
 }
 
 const CACHE_SIZE = 6;
 
-export const graticuleStore = createStore<GraticuleState>({ wanted: null, cache: new Map(), computing: null, error: null });
+export const graticuleStore = createStore<GraticuleState>({ wanted: null, cache: new Map(), computing: null, error: null, sent: 0 });
 
 let api: Comlink.Remote<GraticuleApi> | null = null;
 let nextRequest: GraticuleRequest | null = null;
@@ -45,7 +47,7 @@ function remember(key: string, g: CgmGraticule): ReadonlyMap<string, CgmGraticul
 function send(r: GraticuleRequest): void {
   const key = graticuleKey(r);
   api ??= Comlink.wrap<GraticuleApi>(new Worker(new URL('../../../workers/graticule.worker.ts', import.meta.url), { type: 'module' }));
-  graticuleStore.set({ computing: key });
+  graticuleStore.set((s) => ({ computing: key, sent: s.sent + 1 }));
   api.graticule(r)
     .then(
       (a: GraticuleAnswer) => graticuleStore.set(a.ok ? { cache: remember(a.key, a.graticule), error: null } : { error: { key: a.key, message: a.error } }),
@@ -105,6 +107,11 @@ export function graticuleView(): GraticuleView {
     lastState = s;
   }
   return lastView;
+}
+
+/** Requests sent to the worker so far. */
+export function useGraticuleRequests(): number {
+  return useSyncExternalStore(graticuleStore.subscribe, () => graticuleStore.get().sent, () => graticuleStore.get().sent);
 }
 
 export function useGraticule(): GraticuleView {

@@ -2,7 +2,7 @@
 import { useEffect } from 'react';
 import { MAP_STYLES } from '../lib/palette';
 import { visibilityAngleDeg } from '../lib/visibility';
-import { useGraticule, wantGraticule } from '../lib/cgmGraticule';
+import { useGraticule, useGraticuleRequests, wantGraticule } from '../lib/cgmGraticule';
 import { setView, useStore } from '../store';
 import { PolarMap } from './PolarMap';
 import { hatchDef, mapLegend } from './mapLegend';
@@ -38,6 +38,7 @@ export function PolarMaps() {
     wantGraticule(cgmOn ? { time, internal, tiltDeg, heightKm: altKm } : null);
   }, [cgmOn, time, internal, tiltDeg, altKm]);
   const grat = useGraticule();
+  const gratRequests = useGraticuleRequests();
   const legend = mapLegend(st, minEl, visibilityAngleDeg(h, minEl), h, 'legend-hatch', cgmOn ? { heightKm: altKm, maxLatDeg: grat.graticule?.maxLatDeg ?? null } : undefined);
   return (
     <section className="panel maps" aria-labelledby="maps-h">
@@ -58,7 +59,7 @@ export function PolarMaps() {
           {cgmOn && (grat.error ? `CGM grid not drawn: ${grat.error}` : grat.busy ? 'computing the CGM grid…' : '')}
         </span>
       </div>
-      <div className="map-pair" id="polar-maps">
+      <div className="map-pair" id="polar-maps" data-cgm-requests={gratRequests}>
         {(['north', 'south'] as const).map((hemi) => (
           <div key={hemi} className="map-slot">
             <PolarMap hemisphere={hemi} />

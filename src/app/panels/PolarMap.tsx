@@ -165,6 +165,13 @@ export function PolarMap({ hemisphere, big = false }: { hemisphere: 'north' | 's
         return { x1: c + ux * (radius - 6), y1: c + uy * (radius - 6), x2: c + ux * (radius + 8), y2: c + uy * (radius + 8), tx: c + ux * (radius - 9), ty: c + uy * (radius - 9), ux, uy, text };
       })
     : [];
+  // CGM grid labels that would sit on a local-time label at the rim are left out (the line keeps its place).
+  const cgmLabels = (cgm?.labels ?? []).filter((l) => ltMarks.every((m) => {
+    if (!m) return true;
+    const w = m.text.length * FONT * 0.6;
+    const cx = m.ux > 0.5 ? m.tx - w / 2 : m.ux < -0.5 ? m.tx + w / 2 : m.tx;
+    return Math.abs(cx - l.p![0]) > (w + l.text.length * (FONT - 2) * 0.6) / 2 + 4 || Math.abs(m.ty - l.p![1]) > FONT + 6;
+  }));
   const latLabelLon = sunLatLon ? sunLatLon[1] + 135 : 45;
   const latLabels = [50, 60, 70, 80].map((a) => {
     const lat = north ? a : -a;
@@ -223,7 +230,7 @@ export function PolarMap({ hemisphere, big = false }: { hemisphere: 'north' | 's
             <title>{`CGM grid at ${cgm.heightKm} km: corrected geomagnetic latitude every 10° and MLT (CGM) every 3 h`}</title>
             <path d={cgm.circles} strokeDasharray="5 3" data-cgm="latitude" />
             <path d={cgm.meridians} strokeDasharray="1.5 2.5" strokeLinecap="round" data-cgm="mlt" />
-            {cgm.labels.map((l) => (
+            {cgmLabels.map((l) => (
               <text key={l.text} x={l.p![0]} y={l.p![1] + 3} textAnchor="middle" fill={st.cgm} stroke={st.ocean} strokeWidth={2.5} paintOrder="stroke" fontSize={FONT - 2} data-cgm-label={l.kind}>{l.text}</text>
             ))}
           </g>

@@ -64,8 +64,8 @@ export interface CgmGraticule {
   traces: number;
 }
 
-/** Agreement of each sample's CGM latitude with its target (deg): far below the converter's own 4e-5°. */
-const LAT_TOL_DEG = 2e-6;
+/** Agreement of each sample's CGM latitude with its target (deg): below the converter's own tracing error (4e-5°). */
+const LAT_TOL_DEG = 2e-5;
 const MAX_REFINE = 6;
 /** Lowest CGM latitude of the meridians (deg): below every map that shows them (they are clipped there). */
 const MERIDIAN_FROM_DEG = 30;
@@ -222,11 +222,17 @@ export function buildCgmGraticule(mainField: MainFieldModel, frames: FrameSet, o
     for (const mlt of mlts) {
       const lonRad = (sunLonDeg + (mlt - 12) * 15) * RAD_PER_DEG;
       const b = lineBuilder(mlt);
+      let r1 = NaN, r2 = NaN;
       for (const lat of merLats) {
-        if (sample(lat, lonRad, north, ellipsoidRadiusRe(Math.sin(lat * RAD_PER_DEG), heightKm))) b.push(landLat, landLon, sgn * lat);
-        else {
+        // Equal latitude steps: the radius extrapolated from the last two samples.
+        const guess = Number.isFinite(r2) ? 2 * r1 - r2 : Number.isFinite(r1) ? r1 : ellipsoidRadiusRe(Math.sin(lat * RAD_PER_DEG), heightKm);
+        if (sample(lat, lonRad, north, guess)) {
+          b.push(landLat, landLon, sgn * lat);
+          r2 = r1; r1 = landR;
+        } else {
           b.push(NaN, NaN, sgn * lat);
           undefinedSamples++;
+          r1 = NaN; r2 = NaN;
         }
       }
       lines.push({ kind: 'mlt', hemisphere: north ? 'north' : 'south', value: mlt, ...b.done() });

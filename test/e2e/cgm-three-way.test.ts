@@ -159,7 +159,7 @@ describe.skipIf(!HAVE_BROWSER)('one site through the app, trace and batch (110 k
   const tsx = join(ROOT, 'node_modules', '.bin', 'tsx');
   const cli = join(ROOT, 'src', 'cli', 'main.ts');
 
-  it('conjugate footpoint and CGM latitude agree to 0.01° across the three', async () => {
+  it('conjugate footpoint and CGM latitude agree across the three (asked: 0.01°; held to 1e-5°)', async () => {
     await waitFresh(b.page);
     // App: the full JSON export (all digits) and the sites table (2 decimals).
     const all = JSON.parse((await downloadText(b.page, 'Everything (JSON)')).text) as {
@@ -192,11 +192,14 @@ describe.skipIf(!HAVE_BROWSER)('one site through the app, trace and batch (110 k
     expect(row.line_type).toBe('closed');
     const batch: Answer = { conjLat: Number(row.conj_geo_lat_deg), conjLon: Number(row.conj_geo_lon_deg), cgmLat: Number(row.cgm_lat_deg) };
 
-    // Measured: the three agree to < 1e-5° (the same engine functions); the bound asked is 0.01°.
+    // The issue asks for 0.01°; measured 3.3e-7° (batch's CSV carries 6 decimals; the three call the same engine
+    // functions), so the check holds them to 1e-5°. The largest difference is printed.
+    const diffs = [app, trace, batch].flatMap((x) => [app, trace, batch].flatMap((y) => [Math.abs(x.conjLat - y.conjLat), Math.abs(((x.conjLon - y.conjLon + 540) % 360) - 180), Math.abs(x.cgmLat - y.cgmLat)]));
+    console.log(`three-way: largest difference ${Math.max(...diffs).toExponential(2)}° (conjugate ${app.conjLat.toFixed(4)}°, ${app.conjLon.toFixed(4)}°; CGM ${app.cgmLat.toFixed(4)}°)`);
     for (const [a, bName, x, y] of [['app', 'trace', app, trace], ['app', 'batch', app, batch], ['trace', 'batch', trace, batch]] as const) {
-      expectClose(x.conjLat, y.conjLat, 0.01, `conjugate latitude, ${a} vs ${bName}`);
-      expectClose(((x.conjLon - y.conjLon + 540) % 360) - 180, 0, 0.01, `conjugate longitude, ${a} vs ${bName}`);
-      expectClose(x.cgmLat, y.cgmLat, 0.01, `site CGM latitude, ${a} vs ${bName}`);
+      expectClose(x.conjLat, y.conjLat, 1e-5, `conjugate latitude, ${a} vs ${bName}`);
+      expectClose(((x.conjLon - y.conjLon + 540) % 360) - 180, 0, 1e-5, `conjugate longitude, ${a} vs ${bName}`);
+      expectClose(x.cgmLat, y.cgmLat, 1e-5, `site CGM latitude, ${a} vs ${bName}`);
     }
     // A southern conjugate of a northern site, as a check that the comparison is not vacuous.
     expect(app.conjLat).toBeLessThan(-50);

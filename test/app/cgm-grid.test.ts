@@ -13,6 +13,9 @@ import { computeGraticule, graticuleKey, type GraticuleRequest } from '../../wor
 import { mapLegend } from '../../src/app/panels/mapLegend';
 import { mapsSvgDocument } from '../../src/app/panels/mapSvg';
 import { MAP_STYLES } from '../../src/app/lib/palette';
+import { prepareModel } from '../../src/physics/field/model';
+import { cgmOf } from '../../src/physics/mapping';
+import { expectClose } from '../helpers';
 
 const defaults: UrlState = { conditions: DEMO_SCENARIO.conditions, products: DEMO_SCENARIO.products, sites: DEMO_SCENARIO.sites };
 
@@ -51,6 +54,28 @@ describe('CGM grid worker channel (in-process)', () => {
     expect(h.meridians.coordinates.length).toBe(8);
     expect(h.labels.filter((l) => l.kind === 'latitude').map((l) => l.text)).toEqual(['40°', '50°', '60°', '70°', '80°']);
     expect(h.labels.filter((l) => l.kind === 'mlt').map((l) => l.text)).toEqual(['00 MLT', '06 MLT', '12 MLT', '18 MLT']);
+  });
+  it('a second time of the same date traces only the meridians; its circles convert back by cgmOf at that time within 3e-4°', () => {
+    const first = computeGraticule({ ...req, internal: 'igrf', time: '2025-03-21T01:00:00Z' });
+    const second = computeGraticule({ ...req, internal: 'igrf', time: '2025-03-21T23:30:00Z' });
+    expect(first.ok && second.ok).toBe(true);
+    if (!first.ok || !second.ok) return;
+    expect(second.graticule.traces).toBeLessThan(first.graticule.traces / 2);
+    // The circles were traced for 12:00 UTC: the main field's secular change in 11.5 h moves them (measured ≤ 2.4e-4°,
+    // 1e-4° of it the converter's own tracing error).
+    const conv = cgmOf(prepareModel({ time: '2025-03-21T23:30:00Z', internal: 'igrf', magnetopause: false, tail: false }));
+    for (const l of second.graticule.lines.filter((x) => x.kind === 'latitude')) {
+      for (let i = 0; i < l.latDeg.length; i += 6) {
+        const r = conv.fromGeodetic(l.latDeg[i], l.lonDeg[i], 110);
+        expect(r.defined).toBe(true);
+        if (r.defined) expectClose(r.latDeg, l.value, 3e-4, `CGM latitude of a ${l.value}° circle sample at 23:30`);
+      }
+    }
+    // Answers are copies: changing one leaves the cached circles alone.
+    const circle = second.graticule.lines[0];
+    circle.latDeg[0] = NaN;
+    const third = computeGraticule({ ...req, internal: 'igrf', time: '2025-03-21T12:00:00Z' });
+    expect(third.ok && Number.isFinite(third.graticule.lines[0].latDeg[0])).toBe(true);
   });
   it('refuses a time outside IGRF-14 with the engine\'s message', () => {
     const a = computeGraticule({ ...req, time: '2035-01-01T00:00:00Z' });

@@ -8,7 +8,8 @@
  * 2. one invented site through the app, the command line's `trace` and its
  *    `batch` at the same footpoint altitude (110 km; the conjugate altitude left
  *    to follow it, the one rule of all three) and the same conditions: the
- *    conjugate footpoint and the site's CGM latitude agree to 0.01° (app values
+ *    conjugate footpoint and the site's CGM latitude agree (the issue asks 0.01°;
+ *    they agree to 1e-5°) (app values
  *    from its JSON export and its sites table; CLI values from trace's JSON and
  *    batch's CSV).
  */

@@ -115,7 +115,7 @@ export function runExport(kind: ExportKind): string {
       if (maps.length === 0) return 'the maps are not drawn yet';
       // The CGM grid goes into the export only when it is drawn for the current inputs.
       const grat = s.view.cgmGraticule ? graticuleView() : null;
-      if (grat && !grat.graticule) return grat.error ? `the CGM grid could not be computed: ${grat.error}` : 'the CGM grid is still being computed: try again in a moment';
+      if (grat && (!grat.graticule || grat.busy)) return grat.error ? `the CGM grid could not be computed: ${grat.error}` : 'the CGM grid is still being computed: try again in a moment';
       // XMLSerializer escapes text content, so site names stay text; the document adds title, time, conditions and legend.
       const ser = new XMLSerializer();
       const doc = mapsSvgDocument({ maps: [...maps].map((m) => ({ markup: ser.serializeToString(m), width: m.width.baseVal.value, height: m.height.baseVal.value })), conditions: s.conditions, products: s.products, basemap: ui.get().basemap, cgm: grat?.graticule ? { heightKm: grat.graticule.heightKm, maxLatDeg: grat.graticule.maxLatDeg } : undefined });

@@ -16,6 +16,8 @@ import { MAP_STYLES } from '../../src/app/lib/palette';
 import { prepareModel } from '../../src/physics/field/model';
 import { cgmOf } from '../../src/physics/mapping';
 import { expectClose } from '../helpers';
+import { graticuleStore, graticuleView } from '../../src/app/lib/cgmGraticule';
+import type { CgmGraticule, GraticuleLine } from '../../src/physics/mapping';
 
 const defaults: UrlState = { conditions: DEMO_SCENARIO.conditions, products: DEMO_SCENARIO.products, sites: DEMO_SCENARIO.sites };
 
@@ -108,5 +110,26 @@ describe('CGM grid in the legend and the SVG export', () => {
     expect(doc).toContain('· CGM grid at 110 km ·');
     expect(doc).toMatch(/<g id="legend"[^]*CGM grid at 110 km: corrected geomagnetic latitude every 10°/);
     expect(mapsSvgDocument({ maps: [], conditions: DEMO_SCENARIO.conditions, products: DEMO_SCENARIO.products, basemap: 'dark' })).not.toContain('CGM');
+  });
+});
+
+describe('CGM grid view while a new time is computed (app cache)', () => {
+  const line = (kind: 'latitude' | 'mlt', value: number): GraticuleLine => ({ kind, hemisphere: 'north', value, latDeg: Float64Array.of(60, 61), lonDeg: Float64Array.of(0, 5), cgmLatDeg: Float64Array.of(60, 60) });
+  const g: CgmGraticule = { heightKm: 110, lines: [line('latitude', 60), line('mlt', 0)], maxLatDeg: 82.5, undefinedSamples: 0, traces: 1 };
+  const at = (time: string) => graticuleKey({ time, internal: 'igrf', tiltDeg: null, heightKm: 110 });
+  it('the exact answer when cached; the circles of the same date while a new time is computed; nothing for another date', () => {
+    graticuleStore.set({ cache: new Map([[at('2025-03-20T22:00:00Z'), g]]), wanted: at('2025-03-20T22:00:00Z'), computing: null, error: null });
+    expect(graticuleView()).toMatchObject({ graticule: g, busy: false, partial: false });
+    graticuleStore.set({ wanted: at('2025-03-20T23:00:00Z'), computing: at('2025-03-20T23:00:00Z') });
+    const v = graticuleView();
+    expect(v.busy && v.partial).toBe(true);
+    expect(v.graticule?.lines.map((l) => l.kind)).toEqual(['latitude']);
+    expect(graticuleView()).toBe(v);
+    graticuleStore.set({ wanted: at('2025-03-21T00:00:00Z') });
+    expect(graticuleView()).toMatchObject({ graticule: null, busy: true, partial: false });
+    graticuleStore.set({ wanted: graticuleKey({ time: '2025-03-20T23:00:00Z', internal: 'dipole', tiltDeg: null, heightKm: 110 }) });
+    expect(graticuleView().graticule).toBeNull();
+    graticuleStore.set({ wanted: null, cache: new Map(), computing: null });
+    expect(graticuleView()).toMatchObject({ graticule: null, busy: false });
   });
 });

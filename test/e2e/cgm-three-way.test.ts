@@ -122,6 +122,10 @@ describe.skipIf(!HAVE_BROWSER)('CGM grid on the polar maps', () => {
     await setNumber(b.page, 'Dynamic pressure (nPa)', COND.pdyn);
     await b.page.getByLabel('Time (UTC)', { exact: true }).fill('2025-03-20 23:00 UTC');
     await expect.poll(requests, { timeout: 30_000 }).toBe(before + 1);
+    // The latitude circles stay drawn while the new time's meridians are traced (same date).
+    const circles = () => b.page.locator('#polar-maps svg[data-map="north"] [data-cgm="latitude"]').getAttribute('d');
+    expect((await circles())?.length ?? 0).toBeGreaterThan(100);
+    await expect.poll(() => b.page.getByText('computing the CGM grid', { exact: false }).count(), { timeout: 30_000 }).toBe(0);
     await b.page.getByLabel('Time (UTC)', { exact: true }).fill('2025-03-20 22:00 UTC');
     await waitFresh(b.page);
     // Back to the first time: served from the cache.

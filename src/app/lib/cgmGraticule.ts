@@ -81,20 +81,42 @@ export function wantGraticule(r: GraticuleRequest | null): void {
 }
 
 export interface GraticuleView {
-  /** The graticule for the wanted key, when computed. */
+  /** The graticule for the wanted key when computed; while it is computed, the circles of an earlier answer of the same date (see `partial`). */
   graticule: CgmGraticule | null;
   /** True while the wanted graticule is being computed or waits for the worker. */
   busy: boolean;
+  /** True when `graticule` holds only the latitude circles of an earlier time of the same date (they do not turn with the Sun). */
+  partial: boolean;
   error: string | null;
+}
+
+/** The parts of a key the latitude circles depend on: main field, UTC date, height (not the time of day, not the tilt). */
+function circlesKeyOf(key: string): string {
+  const [internal, time, , height] = key.split('|');
+  return `${internal}|${time.slice(0, 10)}|${height}`;
+}
+
+const circlesOnly = new WeakMap<CgmGraticule, CgmGraticule>();
+function circlesOf(g: CgmGraticule): CgmGraticule {
+  let c = circlesOnly.get(g);
+  if (!c) {
+    c = { ...g, lines: g.lines.filter((l) => l.kind === 'latitude') };
+    circlesOnly.set(g, c);
+  }
+  return c;
 }
 
 function viewOf(s: GraticuleState): GraticuleView {
   if (s.wanted === null) return NONE;
   const g = s.cache.get(s.wanted) ?? null;
   const error = s.error?.key === s.wanted ? s.error.message : null;
-  return { graticule: g, busy: g === null && error === null, error };
+  if (g || error) return { graticule: g, busy: false, partial: false, error };
+  // While the meridians of a new time are traced, the circles of the latest answer of the same date stay drawn.
+  const ck = circlesKeyOf(s.wanted);
+  const earlier = [...s.cache.entries()].reverse().find(([k]) => circlesKeyOf(k) === ck);
+  return { graticule: earlier ? circlesOf(earlier[1]) : null, busy: true, partial: !!earlier, error: null };
 }
-const NONE: GraticuleView = { graticule: null, busy: false, error: null };
+const NONE: GraticuleView = { graticule: null, busy: false, partial: false, error: null };
 
 let lastState: GraticuleState | null = null;
 let lastView: GraticuleView = NONE;
@@ -103,7 +125,7 @@ export function graticuleView(): GraticuleView {
   const s = graticuleStore.get();
   if (s !== lastState) {
     const v = viewOf(s);
-    if (v.graticule !== lastView.graticule || v.busy !== lastView.busy || v.error !== lastView.error) lastView = v;
+    if (v.graticule !== lastView.graticule || v.busy !== lastView.busy || v.partial !== lastView.partial || v.error !== lastView.error) lastView = v;
     lastState = s;
   }
   return lastView;

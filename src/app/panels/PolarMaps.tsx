@@ -56,7 +56,7 @@ export function PolarMaps() {
           CGM grid (corrected geomagnetic latitude and MLT)
         </label>
         <span id="cgm-status" className="hint" role="status">
-          {cgmOn && (grat.error ? `CGM grid not drawn: ${grat.error}` : grat.busy ? 'computing the CGM grid…' : '')}
+          {cgmOn && (grat.error ? `CGM grid not drawn: ${grat.error}` : grat.busy ? (grat.partial ? 'computing the CGM grid\'s MLT meridians for this time…' : 'computing the CGM grid…') : '')}
         </span>
       </div>
       <div className="map-pair" id="polar-maps" data-cgm-requests={gratRequests}>

@@ -14,6 +14,7 @@ import { staleReason, type ResultKind } from './store/freshness';
 import { writeJson } from '../io/json';
 import { snapshotPng } from './scene/snapshot';
 import { mapsSvgDocument } from './panels/mapSvg';
+import { graticuleView } from './lib/cgmGraticule';
 import { ui } from './panels/selection';
 
 function metaFor(s: AppState, a: AnsweredFor, used: ModelUsed | null, warnings: readonly string[]): ExportMeta {
@@ -112,9 +113,12 @@ export function runExport(kind: ExportKind): string {
     case 'svg': {
       const maps = document.querySelectorAll<SVGSVGElement>('#polar-maps svg[data-map]');
       if (maps.length === 0) return 'the maps are not drawn yet';
+      // The CGM grid goes into the export only when it is drawn for the current inputs.
+      const grat = s.view.cgmGraticule ? graticuleView() : null;
+      if (grat && (!grat.graticule || grat.busy)) return grat.error ? `the CGM grid could not be computed: ${grat.error}` : 'the CGM grid is still being computed: try again in a moment';
       // XMLSerializer escapes text content, so site names stay text; the document adds title, time, conditions and legend.
       const ser = new XMLSerializer();
-      const doc = mapsSvgDocument({ maps: [...maps].map((m) => ({ markup: ser.serializeToString(m), width: m.width.baseVal.value, height: m.height.baseVal.value })), conditions: s.conditions, products: s.products, basemap: ui.get().basemap });
+      const doc = mapsSvgDocument({ maps: [...maps].map((m) => ({ markup: ser.serializeToString(m), width: m.width.baseVal.value, height: m.height.baseVal.value })), conditions: s.conditions, products: s.products, basemap: ui.get().basemap, cgm: grat?.graticule ? { heightKm: grat.graticule.heightKm, maxLatDeg: grat.graticule.maxLatDeg } : undefined });
       download(exportFileName('maps', time, 'svg'), 'image/svg+xml', doc);
       return '';
     }

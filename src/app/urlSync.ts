@@ -10,14 +10,14 @@ import { store } from './store';
 export function restoreFromUrl(): void {
   if (!location.search) return;
   const s = store.get();
-  const d = decodeUrlState(location.search, { conditions: s.conditions, products: s.products, sites: s.sites });
-  store.set({ conditions: d.conditions, products: d.products, sites: d.sites, notices: d.notices, scenarioName: 'Shared link' });
+  const d = decodeUrlState(location.search, { conditions: s.conditions, products: s.products, sites: s.sites, maps: { cgmGraticule: s.view.cgmGraticule } });
+  store.set({ conditions: d.conditions, products: d.products, sites: d.sites, view: { ...s.view, cgmGraticule: d.maps.cgmGraticule }, notices: d.notices, scenarioName: 'Shared link' });
 }
 
 const base = () => `${location.origin}${location.pathname}`;
 const stateOf = (): UrlState => {
   const s = store.get();
-  return { conditions: s.conditions, products: s.products, sites: s.sites };
+  return { conditions: s.conditions, products: s.products, sites: s.sites, maps: { cgmGraticule: s.view.cgmGraticule } };
 };
 
 /** The link to share and what to tell the user about it ('' or a sentence ending in a space). */
@@ -35,7 +35,7 @@ export function makeShareLink(): { url: string; note: string } {
 export function startUrlSync(): () => void {
   let t: ReturnType<typeof setTimeout> | undefined;
   const unsub = store.subscribe((s, prev) => {
-    if (s.conditions === prev.conditions && s.products === prev.products && s.sites === prev.sites) return;
+    if (s.conditions === prev.conditions && s.products === prev.products && s.sites === prev.sites && s.view.cgmGraticule === prev.view.cgmGraticule) return;
     clearTimeout(t);
     t = setTimeout(() => {
       const l = shareLink(base(), stateOf());

@@ -18,7 +18,7 @@ describe('URL state', () => {
       ],
     };
     const back = decodeUrlState(encodeUrlState(s), defaults);
-    expect(back).toEqual({ ...s, notices: [] });
+    expect(back).toEqual({ ...s, maps: { cgmGraticule: false }, notices: [] });
   });
 
   it('round trips the presets by name, and unset optional values stay unset', () => {

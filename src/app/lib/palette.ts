@@ -34,6 +34,8 @@ export interface MapStyle {
   openClosed: string;
   equatorward: string;
   visibility: string;
+  /** Corrected geomagnetic (CGM) graticule: latitude circles and MLT meridians. */
+  cgm: string;
   site: string;
   conjugate: string;
   pole: string;
@@ -44,12 +46,12 @@ export const MAP_STYLES: Record<'light' | 'dark', MapStyle> = {
   light: {
     ocean: '#f3f1ea', land: '#d9d2c0', coast: '#8f8672', graticule: '#8c97a6', rim: '#5d6673', night: '#33405e', nightOpacity: 0.16,
     ink: '#1d2430', halo: '#f3f1ea', band: '#6b46c8', openClosed: '#b85a10', equatorward: '#137a70', visibility: '#2c3fb0',
-    site: '#1d2430', conjugate: '#c8246e', pole: '#b83a2a',
+    cgm: '#5c7a1e', site: '#1d2430', conjugate: '#c8246e', pole: '#b83a2a',
   },
   dark: {
     ocean: '#1c2129', land: '#3d4350', coast: '#8d96a8', graticule: '#6d7890', rim: '#9aa6bb', night: '#000000', nightOpacity: 0.35,
     ink: '#eef2f8', halo: '#1c2129', band: '#b49cff', openClosed: '#f0a030', equatorward: '#4fd1c2', visibility: '#9fb0ff',
-    site: '#ffffff', conjugate: '#ff6fb0', pole: '#ff7b5c',
+    cgm: '#b9d98a', site: '#ffffff', conjugate: '#ff6fb0', pole: '#ff7b5c',
   },
 };
 

@@ -23,9 +23,18 @@ export interface UrlState {
   conditions: FieldConditions;
   products: ProductSettings;
   sites: SiteInput[];
+  /** Map options shared through the link (absent: the defaults). */
+  maps?: MapOptions;
+}
+
+/** Polar-map options carried by a link. */
+export interface MapOptions {
+  /** The corrected geomagnetic (CGM) graticule on the polar maps (cgm=1). */
+  cgmGraticule: boolean;
 }
 
 export interface DecodedUrlState extends UrlState {
+  maps: MapOptions;
   /** What the link asked for that was refused or read in a particular way, one plain sentence each. */
   notices: string[];
 }
@@ -52,6 +61,7 @@ export function encodeUrlState(s: UrlState): string {
   if (s.products.sourceRe != null) q.set('src', num(s.products.sourceRe));
   q.set('minel', num(s.products.minElevationDeg));
   q.set('minlat', num(s.products.minLatDeg));
+  if (s.maps?.cgmGraticule) q.set('cgm', '1');
   for (const site of s.sites) q.append('site', `${site.name}|${num(site.latDeg)}|${num(site.lonDeg)}`);
   return q.toString();
 }
@@ -132,7 +142,7 @@ export function decodeUrlState(query: string, defaults: UrlState): DecodedUrlSta
   try {
     q = expandCompressed(new URLSearchParams(query.startsWith('?') ? query.slice(1) : query), notices);
   } catch {
-    return { ...defaults, notices: ['The link could not be read; the defaults are shown.'] };
+    return { ...defaults, maps: { cgmGraticule: defaults.maps?.cgmGraticule ?? false }, notices: ['The link could not be read; the defaults are shown.'] };
   }
   const d = defaults.conditions;
   const refused = (message: string) => notices.push(`${message} — the default is kept.`);
@@ -217,5 +227,6 @@ export function decodeUrlState(query: string, defaults: UrlState): DecodedUrlSta
       notices.push(`The link names ${all.length} sites; the app holds at most ${APP_LIMITS.maxSites}, so ${all.length - k} were not loaded — use the command line's batch for more.`);
     }
   }
-  return { conditions, products, sites, notices };
+  const maps: MapOptions = { cgmGraticule: flag('cgm', defaults.maps?.cgmGraticule ?? false) };
+  return { conditions, products, sites, maps, notices };
 }

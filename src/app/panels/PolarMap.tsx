@@ -20,6 +20,8 @@ import { RAD_PER_DEG } from '../../physics/constants';
 import { bandRuns, gapRuns, placeLabels, runIndices } from './mapGeometry';
 import { utcText } from './answer';
 import { useUi } from './selection';
+import { useGraticule } from '../lib/cgmGraticule';
+import { hemisphereGraticule } from '../lib/graticulePaths';
 
 const RIM_DEG = 50; // colatitude shown: poleward of 40°
 const FONT = 11;
@@ -67,6 +69,14 @@ export function PolarMap({ hemisphere, big = false }: { hemisphere: 'north' | 's
   );
   const path = useMemo(() => geoPath(proj), [proj]);
   const base = useMemo(() => ({ land: path(landFeature()) ?? '', grat: path(geoGraticule().step([30, 10]).extentMinor([[-180, -80], [180, 80.01]])()) ?? '', rim: path({ type: 'Sphere' }) ?? '' }), [path]);
+  const cgmOn = useStore((s) => s.view.cgmGraticule);
+  const { graticule } = useGraticule();
+  const cgm = useMemo(() => {
+    if (!cgmOn || !graticule) return null;
+    const h = hemisphereGraticule(graticule, hemisphere);
+    const labels = h.labels.map((l) => ({ ...l, p: proj([l.lonDeg, l.latDeg]) })).filter((l) => l.p && Math.hypot(l.p[0] - size / 2, l.p[1] - size / 2) < size / 2 - MARGIN - 4);
+    return { circles: path(h.circles) ?? '', meridians: path(h.meridians) ?? '', labels, heightKm: graticule.heightKm };
+  }, [cgmOn, graticule, hemisphere, path, proj, size]);
   const curve: BoundaryCurve | undefined = oval?.curves.find((c) => c.hemisphere === hemisphere);
   const sunLatLon = frames ? directionLatLon(frames.sunGeo) : null;
 
@@ -155,6 +165,13 @@ export function PolarMap({ hemisphere, big = false }: { hemisphere: 'north' | 's
         return { x1: c + ux * (radius - 6), y1: c + uy * (radius - 6), x2: c + ux * (radius + 8), y2: c + uy * (radius + 8), tx: c + ux * (radius - 9), ty: c + uy * (radius - 9), ux, uy, text };
       })
     : [];
+  // CGM grid labels that would sit on a local-time label at the rim are left out (the line keeps its place).
+  const cgmLabels = (cgm?.labels ?? []).filter((l) => ltMarks.every((m) => {
+    if (!m) return true;
+    const w = m.text.length * FONT * 0.6;
+    const cx = m.ux > 0.5 ? m.tx - w / 2 : m.ux < -0.5 ? m.tx + w / 2 : m.tx;
+    return Math.abs(cx - l.p![0]) > (w + l.text.length * (FONT - 2) * 0.6) / 2 + 4 || Math.abs(m.ty - l.p![1]) > FONT + 6;
+  }));
   const latLabelLon = sunLatLon ? sunLatLon[1] + 135 : 45;
   const latLabels = [50, 60, 70, 80].map((a) => {
     const lat = north ? a : -a;
@@ -188,7 +205,7 @@ export function PolarMap({ hemisphere, big = false }: { hemisphere: 'north' | 's
         width={size}
         height={size}
         role="img"
-        aria-label={`${title}, geographic, poleward of 40°, ${utcText(time)}`}
+        aria-label={`${title}, geographic, poleward of 40°${cgm ? `, with the CGM grid at ${cgm.heightKm} km` : ''}, ${utcText(time)}`}
         onClick={onClick}
         data-map={hemisphere}
         xmlns="http://www.w3.org/2000/svg"
@@ -208,6 +225,16 @@ export function PolarMap({ hemisphere, big = false }: { hemisphere: 'north' | 's
         <path d={night.fill} fill={st.night} fillOpacity={st.nightOpacity} data-layer="night" />
         <path d={night.edge} fill="none" stroke={st.night} strokeOpacity={0.6} strokeWidth={0.8} strokeDasharray="1 2" />
         <path d={base.grat} fill="none" stroke={st.graticule} strokeOpacity={0.55} strokeWidth={0.5} />
+        {cgm && (
+          <g data-layer="cgm-graticule" fill="none" stroke={st.cgm} strokeWidth={0.9}>
+            <title>{`CGM grid at ${cgm.heightKm} km: corrected geomagnetic latitude every 10° and MLT (CGM) every 3 h`}</title>
+            <path d={cgm.circles} strokeDasharray="5 3" data-cgm="latitude" />
+            <path d={cgm.meridians} strokeDasharray="1.5 2.5" strokeLinecap="round" data-cgm="mlt" />
+            {cgmLabels.map((l) => (
+              <text key={l.text} x={l.p![0]} y={l.p![1] + 3} textAnchor="middle" fill={st.cgm} stroke={st.ocean} strokeWidth={2.5} paintOrder="stroke" fontSize={FONT - 2} data-cgm-label={l.kind}>{l.text}</text>
+            ))}
+          </g>
+        )}
         {shapes?.band && <path d={shapes.band} fill={`url(#${hatch})`} fillRule="evenodd" stroke="none" data-layer="oval" />}
         {shapes && <path d={shapes.oc} fill="none" stroke={st.openClosed} strokeWidth={1.8} data-layer="open-closed" />}
         {shapes && <path d={shapes.eq} fill="none" stroke={st.equatorward} strokeWidth={1.8} data-layer="equatorward" />}

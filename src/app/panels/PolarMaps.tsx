@@ -1,7 +1,9 @@
 /** North and south polar maps side by side, the basemap choice, the legend, and a map enlarged on request. */
+import { useEffect } from 'react';
 import { MAP_STYLES } from '../lib/palette';
 import { visibilityAngleDeg } from '../lib/visibility';
-import { useStore } from '../store';
+import { useGraticule, useGraticuleRequests, wantGraticule } from '../lib/cgmGraticule';
+import { setView, useStore } from '../store';
 import { PolarMap } from './PolarMap';
 import { hatchDef, mapLegend } from './mapLegend';
 import { ui, useUi, type Basemap } from './selection';
@@ -27,7 +29,17 @@ export function PolarMaps() {
   const enlarged = useUi((s) => s.enlargedMap);
   const st = MAP_STYLES[basemap];
   const h = altKm >= 80 ? altKm : 110;
-  const legend = mapLegend(st, minEl, visibilityAngleDeg(h, minEl), h, 'legend-hatch');
+  const cgmOn = useStore((s) => s.view.cgmGraticule);
+  const time = useStore((s) => s.conditions.time);
+  const internal = useStore((s) => s.conditions.internal);
+  const tiltDeg = useStore((s) => s.conditions.tiltDeg ?? null);
+  // The graticule depends on the main field, the time, the tilt and the height only (cached by them).
+  useEffect(() => {
+    wantGraticule(cgmOn ? { time, internal, tiltDeg, heightKm: altKm } : null);
+  }, [cgmOn, time, internal, tiltDeg, altKm]);
+  const grat = useGraticule();
+  const gratRequests = useGraticuleRequests();
+  const legend = mapLegend(st, minEl, visibilityAngleDeg(h, minEl), h, 'legend-hatch', cgmOn ? { heightKm: altKm, maxLatDeg: grat.graticule?.maxLatDeg ?? null } : undefined);
   return (
     <section className="panel maps" aria-labelledby="maps-h">
       <div className="maps-head">
@@ -39,8 +51,15 @@ export function PolarMaps() {
             <option value="dark">dark (slate)</option>
           </select>
         </label>
+        <label className="cgm-toggle">
+          <input type="checkbox" checked={cgmOn} onChange={(e) => setView({ cgmGraticule: e.target.checked })} aria-describedby="cgm-status" />{' '}
+          CGM grid (corrected geomagnetic latitude and MLT)
+        </label>
+        <span id="cgm-status" className="hint" role="status">
+          {cgmOn && (grat.error ? `CGM grid not drawn: ${grat.error}` : grat.busy ? (grat.partial ? 'computing the CGM grid\'s MLT meridians for this time…' : 'computing the CGM grid…') : '')}
+        </span>
       </div>
-      <div className="map-pair" id="polar-maps">
+      <div className="map-pair" id="polar-maps" data-cgm-requests={gratRequests}>
         {(['north', 'south'] as const).map((hemi) => (
           <div key={hemi} className="map-slot">
             <PolarMap hemisphere={hemi} />
@@ -57,7 +76,7 @@ export function PolarMaps() {
           </li>
         ))}
       </ul>
-      <p className="hint">Geographic latitude and longitude, poleward of 40°; marks at the rim give local solar time (12 noon under the Sun). Use the button on a map to open it larger.</p>
+      <p className="hint">Geographic latitude and longitude, poleward of 40°; marks at the rim give local solar time (12 noon under the Sun). The CGM grid adds corrected geomagnetic latitude and magnetic local time at the footpoint altitude. Use the button on a map to open it larger.</p>
       {enlarged && <EnlargedMap hemisphere={enlarged} />}
     </section>
   );

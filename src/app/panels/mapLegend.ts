@@ -8,7 +8,18 @@ export interface MapLegendEntry {
   swatch: string;
 }
 
-export function mapLegend(st: MapStyle, minElevationDeg: number, visAngleDeg: number, heightKm: number, hatchId: string): MapLegendEntry[] {
+/** The CGM graticule's legend entry (its name, its height, and where its lines stop). */
+export function cgmLegendEntry(st: MapStyle, heightKm: number, maxLatDeg: number | null): MapLegendEntry {
+  const top = maxLatDeg === null ? '' : ` (about ${maxLatDeg.toFixed(1)}°: the field line reaches beyond 60 RE)`;
+  return {
+    key: 'cgm',
+    label: `CGM grid at ${heightKm} km: corrected geomagnetic latitude every 10° (dashed) and MLT (CGM) every 3 h (dotted); the lines stop where CGM is undefined — poleward of its highest latitude${top} and near the dipole equator`,
+    swatch: `<line x1="1" y1="4" x2="21" y2="4" stroke="${st.cgm}" stroke-width="1.2" stroke-dasharray="5 3"/><line x1="1" y1="9" x2="21" y2="9" stroke="${st.cgm}" stroke-width="1.2" stroke-dasharray="1.5 2.5"/>`,
+  };
+}
+
+/** The legend entries; `cgm` adds the CGM graticule's entry (when the maps show it). */
+export function mapLegend(st: MapStyle, minElevationDeg: number, visAngleDeg: number, heightKm: number, hatchId: string, cgm?: { heightKm: number; maxLatDeg: number | null }): MapLegendEntry[] {
   return [
     { key: 'band', label: 'oval (between its two edges; hatched)', swatch: `<rect x="1" y="1" width="20" height="10" fill="url(#${hatchId})" stroke="none"/>` },
     { key: 'oc', label: 'open–closed boundary (poleward edge)', swatch: `<line x1="1" y1="6" x2="21" y2="6" stroke="${st.openClosed}" stroke-width="2"/>` },
@@ -23,6 +34,7 @@ export function mapLegend(st: MapStyle, minElevationDeg: number, visAngleDeg: nu
     { key: 'site', label: 'site', swatch: `<circle cx="11" cy="6" r="3.2" fill="${st.site}"/>` },
     { key: 'conj', label: 'conjugate point', swatch: `<rect x="8" y="3" width="6" height="6" transform="rotate(45 11 6)" fill="none" stroke="${st.conjugate}" stroke-width="1.6"/>` },
     { key: 'pole', label: 'dipole pole', swatch: `<path d="M7,2l8,8M15,2l-8,8" stroke="${st.pole}" stroke-width="1.5"/>` },
+    ...(cgm ? [cgmLegendEntry(st, cgm.heightKm, cgm.maxLatDeg)] : []),
   ];
 }
 

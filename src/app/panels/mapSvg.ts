@@ -39,6 +39,8 @@ export interface MapSvgInput {
   products: ProductSettings;
   basemap: Basemap;
   title?: string;
+  /** The CGM graticule, when the maps show it: its height and highest latitude (for the legend). */
+  cgm?: { heightKm: number; maxLatDeg: number | null };
 }
 
 export function mapsSvgDocument(m: MapSvgInput): string {
@@ -50,7 +52,7 @@ export function mapsSvgDocument(m: MapSvgInput): string {
   const mapsH = Math.max(0, ...m.maps.map((x) => x.height));
   const head = 76;
   const h = m.products.altKm >= 80 ? m.products.altKm : 110;
-  const legend = mapLegend(st, m.products.minElevationDeg, visibilityAngleDeg(h, m.products.minElevationDeg), h, 'export-hatch');
+  const legend = mapLegend(st, m.products.minElevationDeg, visibilityAngleDeg(h, m.products.minElevationDeg), h, 'export-hatch', m.cgm);
   const lineH = 18;
   const legendTop = head + mapsH + 14;
   const height = legendTop + 18 + legend.length * lineH + pad;
@@ -71,7 +73,7 @@ export function mapsSvgDocument(m: MapSvgInput): string {
     `<defs>${hatchDef(st, 'export-hatch')}</defs>`,
     `<rect width="${width}" height="${height}" fill="${st.halo}"/>`,
     `<text x="${pad}" y="20" font-size="16" font-weight="bold" fill="${st.ink}">${xmlText(m.title ?? 'Fieldline Atlas polar maps')}</text>`,
-    `<text x="${pad}" y="38" fill="${st.ink}" data-field="time">${xmlText(utcText(m.conditions.time))} · geographic, poleward of 40° · simplified model, not a forecast</text>`,
+    `<text x="${pad}" y="38" fill="${st.ink}" data-field="time">${xmlText(utcText(m.conditions.time))} · geographic, poleward of 40°${m.cgm ? ` · CGM grid at ${m.cgm.heightKm} km` : ''} · simplified model, not a forecast</text>`,
     `<text x="${pad}" y="54" fill="${st.ink}" font-size="11" data-field="conditions">${xmlText(cond1)}</text>`,
     `<text x="${pad}" y="68" fill="${st.ink}" font-size="11" data-field="settings">${xmlText(cond2)}</text>`,
     ...maps,

@@ -15,6 +15,8 @@ import type { ProductSettings } from './products';
 
 interface ViewSettings {
   magGraticule: boolean;
+  /** Polar maps: draw the corrected geomagnetic (CGM) latitude circles and MLT meridians (shared through the URL, cgm=1). */
+  cgmGraticule: boolean;
   fan: boolean;
   magnetopauseSurface: boolean;
   playing: boolean;
@@ -64,7 +66,7 @@ function initialState(): AppState {
     conditions: { ...DEMO_SCENARIO.conditions },
     products: { ...DEMO_SCENARIO.products },
     sites: DEMO_SCENARIO.sites.map((s) => ({ ...s })),
-    view: { magGraticule: false, fan: true, magnetopauseSurface: true, playing: false, sweepVary: 'pdyn', sweepMlt: 0 },
+    view: { magGraticule: false, cgmGraticule: false, fan: true, magnetopauseSurface: true, playing: false, sweepVary: 'pdyn', sweepMlt: 0 },
     scene: null,
     oval: null,
     siteResults: null,

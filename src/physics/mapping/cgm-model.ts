@@ -8,7 +8,7 @@
  * CGM does not depend on the magnetosphere, only on the main field and the time.
  */
 import { igrfCoefficients } from '../field/mainfield/coefficients';
-import { prepareMainField } from '../field/mainfield/synthesis';
+import { prepareMainField, type MainFieldModel } from '../field/mainfield/synthesis';
 import type { PreparedModel } from '../field/model';
 import { prepareCgm, type CgmConverter, type CgmResult } from './cgm';
 
@@ -20,13 +20,21 @@ export const MLT_LABEL_MAG = 'MLT (MAG)';
 
 const converters = new WeakMap<PreparedModel, CgmConverter>();
 
+/**
+ * The main field CGM is defined on for a model, in GEO: the full IGRF-14 synthesis of the date (no
+ * truncation: CGM is a ground-level product and its traces go only to the dipole equator), or the
+ * centred dipole alone. Shared by the converter and the CGM graticule (cgm-graticule.ts).
+ */
+export function cgmMainField(model: PreparedModel): MainFieldModel {
+  const nmax = model.conditions.internal === 'igrf' ? 13 : 1;
+  return prepareMainField(igrfCoefficients(model.decimalYear, nmax));
+}
+
 /** The CGM converter of a model's main field, prepared on first use and kept with the model. Not re-entrant. */
 export function cgmOf(model: PreparedModel): CgmConverter {
   let c = converters.get(model);
   if (!c) {
-    const nmax = model.conditions.internal === 'igrf' ? 13 : 1;
-    // Full synthesis (no truncation): CGM is a ground-level product and the converter traces only to the dipole equator.
-    c = prepareCgm(prepareMainField(igrfCoefficients(model.decimalYear, nmax)), model.frames);
+    c = prepareCgm(cgmMainField(model), model.frames);
     converters.set(model, c);
   }
   return c;

@@ -43,9 +43,9 @@ export interface CgmConverter {
  * agrees with an independent high-accuracy integration to ≤ 4e-5° (measured by
  * test/physics/mapping/cgm.test.ts); ~0.55 ms a point with the full IGRF.
  */
-const CGM_STEP_FACTOR = 0.05;
+export const CGM_STEP_FACTOR = 0.05;
 /** Lines reaching farther than this (RE) are no longer dipole-like near Earth; CGM is reported undefined. */
-const CGM_MAX_APEX_RE = 60;
+export const CGM_MAX_APEX_RE = 60;
 
 const UNDEFINED_NEAR_EQUATOR = 'undefined near the dipole equator: the main-field line through this point does not cross the dipole equator above it';
 

@@ -11,6 +11,7 @@
  *   sky.ts         where a point at altitude stands in a site's sky
  *   site-report.ts everything about one site
  *   cgm-model.ts   corrected geomagnetic coordinates for a prepared model
+ *   cgm-graticule.ts  CGM latitude circles and MLT meridians for maps
  */
 export type { Footpoint, EquatorCrossing, Hemisphere } from '../trace/footpoint';
 export { makeTracer, traceGsm, type LineResult } from './lines';
@@ -26,3 +27,4 @@ export { sweepBoundaries, type SweepOptions, type SweepRows } from './sweep';
 export { skyPosition, horizonCentralAngleDeg, elevationAtCentralAngleDeg, type SkyPosition } from './sky';
 export { siteReport, type SiteInput, type SiteResult, type SiteReportOptions, type BoundaryProvider } from './site-report';
 export { cgmOf, cgmPair, MLT_LABEL_CGM, MLT_LABEL_MAG, type CgmPair, type CgmResult, type CgmConverter } from './cgm-model';
+export { cgmGraticuleOf, buildCgmGraticule, type CgmGraticule, type CgmGraticuleOptions, type GraticuleLine } from './cgm-graticule';

@@ -11,6 +11,7 @@ import { Channel } from '../channel';
 import { conjugateAltOf, store, type AppState } from '../store';
 import { timelineStore, type TimelineState } from './state';
 import { nightStartMs, timelineSteps } from './steps';
+import { sitesFromTimeline } from './fill';
 import { MAX_TIMELINE_STEPS } from '../../../workers/channels/timeline-limits';
 
 /** Wait this long after the last change before asking (typing a night length, editing sites). */
@@ -32,8 +33,14 @@ export function startTimelineClient(): void {
   if (started) return;
   started = true;
   let api: Comlink.Remote<EngineApi> | null = null;
+  // The inputs each request was asked for, and those of the result shown (for filling the sites table from it).
+  const keyOf = new Map<number, string>();
+  let resultKey = '';
   const channel = new Channel<TimelineResult>(
-    (a) => timelineStore.set({ result: a, error: null }),
+    (a) => {
+      resultKey = keyOf.get(a.requestId) ?? '';
+      timelineStore.set({ result: a, error: null });
+    },
     (msg) => timelineStore.set({ error: msg }),
     (busy) => timelineStore.set({ pending: busy }),
   );
@@ -53,15 +60,31 @@ export function startTimelineClient(): void {
     api ??= Comlink.wrap<EngineApi>(new Worker(new URL('../../../workers/engine.worker.ts', import.meta.url), { type: 'module' }));
     const remote = api;
     timelineStore.set({ progress: { done: 0, total: steps.length } });
-    channel.request((id) => remote.timeline(id, s.conditions, steps, {
+    channel.request((id) => {
+      keyOf.set(id, key);
+      if (keyOf.size > 16) keyOf.delete(keyOf.keys().next().value as number);
+      return remote.timeline(id, s.conditions, steps, {
       altKm: s.products.altKm, ...(s.products.sourceRe === null ? {} : { sourceRe: s.products.sourceRe }), minLatDeg: s.products.minLatDeg, conjugateAltKm: conjugateAltOf(s.products), minElevationDeg: s.products.minElevationDeg, sunLimitDeg: t.sunLimitDeg,
-    }, s.sites, Comlink.proxy((done: number, total: number) => { if (channel.latestId === id) timelineStore.set({ progress: { done, total } }); })));
+    }, s.sites, Comlink.proxy((done: number, total: number) => { if (channel.latestId === id) timelineStore.set({ progress: { done, total } }); }));
+    });
+  };
+  // A cursor move onto a step the result answers: the sites table from the result at once.
+  const fill = (s: AppState) => {
+    const t = timelineStore.get();
+    const f = sitesFromTimeline(t, s, t.result !== null && resultKey === requestKey(t, s));
+    if (!f) return;
+    const fresh = s.answeredFor.sites?.conditions === s.conditions && !s.siteResults?.fromTimeline;
+    if (fresh) return;
+    store.set({ siteResults: f, answeredFor: { ...s.answeredFor, sites: { conditions: s.conditions, products: s.products, sites: s.sites, view: s.view } } });
   };
   const schedule = () => {
     clearTimeout(settle);
     settle = setTimeout(ask, SETTLE_MS);
   };
-  store.subscribe(schedule);
+  store.subscribe((s, prev) => {
+    if (s.conditions !== prev.conditions) fill(s);
+    schedule();
+  });
   timelineStore.subscribe(schedule);
   schedule();
 }

@@ -49,6 +49,8 @@ export interface TimelineClient {
   dispose(): void;
   /** Ovals kept (for tests and the benchmark). */
   readonly ovals: OvalCache;
+  /** How many of the timeline's steps (the cursor's included) have no kept oval for the current inputs. */
+  ovalsMissing(): number;
 }
 
 /** A fingerprint of a series' steps, once per loaded series (the same file loaded again gives the same one). */
@@ -196,8 +198,7 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
   // ---- scrubbing: fill the table and the maps for the cursor's step ----
   let fillDue = false;
   const fill = () => {
-    fillDue = false;
-    if (disposed) return;
+    if (disposed) { fillDue = false; return; }
     const s = store.get();
     const t = timelineStore.get();
     const patch: Partial<AppState> = {};
@@ -219,13 +220,22 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
         answeredFor = { ...answeredFor, oval: answered(s) };
       }
     }
-    if (answeredFor !== s.answeredFor) store.set({ ...patch, answeredFor });
+    try {
+      if (answeredFor !== s.answeredFor) store.set({ ...patch, answeredFor });
+    } finally {
+      fillDue = false;
+    }
   };
-  /** After the change that called it has reached every subscriber (no store write inside a notification). */
+  /**
+   * At once, inside the notification of the change that called it, so the app renders the new
+   * step once with its table and oval (a later task would cost a second render of the whole app).
+   * The store hands every later subscriber the state after this write (store/core.ts reads the
+   * current state for each), and the write below notifies again only when it changes something.
+   */
   const scheduleFill = () => {
     if (fillDue) return;
     fillDue = true;
-    queueMicrotask(fill);
+    fill();
   };
 
   // ---- ovals ahead of the cursor ----
@@ -299,6 +309,17 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
 
   return {
     ovals,
+    ovalsMissing() {
+      const t = timelineStore.get();
+      const s = store.get();
+      const n = t.series ? t.series.steps.length : timelineSteps(t, s.conditions).length;
+      let missing = 0;
+      for (let k = 0; k < n; k++) {
+        const p = cursorPatch(t, s.conditions, k);
+        if (p && !ovals.has(ovalKey({ ...s.conditions, ...p }, s.products))) missing++;
+      }
+      return missing;
+    },
     dispose() {
       disposed = true;
       clearTimeout(settle);
@@ -316,11 +337,13 @@ export function startTimelineClient(): void {
   started = true;
   let api: Comlink.Remote<EngineApi> | null = null;
   const remote = () => (api ??= Comlink.wrap<EngineApi>(new Worker(new URL('../../../workers/engine.worker.ts', import.meta.url), { type: 'module' })));
-  createTimelineClient(() => {
+  const client = createTimelineClient(() => {
     const r = remote();
     return {
       timeline: (id, base, steps, o, sites, progress) => r.timeline(id, base, steps, o, sites, progress ? Comlink.proxy(progress) : undefined),
       oval: (id, c, o) => r.oval(id, c, o),
     };
   });
+  // Read-only hook for the browser benchmark (bench/timeline-browser.ts): steps without a kept oval.
+  (globalThis as unknown as { __atlasTimelineClient?: { ovalsMissing(): number } }).__atlasTimelineClient = { ovalsMissing: () => client.ovalsMissing() };
 }

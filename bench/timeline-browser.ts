@@ -79,6 +79,8 @@ const b = await launch();
 try {
   const page = b.page;
   await page.goto(served.url);
+  // tsx keeps function names with a __name helper that the page does not have (the timed function below has inner ones).
+  await page.evaluate('window.__name = (f) => f');
   await waitForEngine(page);
   await waitFresh(page, ['scene', 'oval', 'sites']);
   await page.getByText('Timeline: replay a series, plan a night', { exact: true }).click();

@@ -170,6 +170,13 @@ describe('timeline client: scrubbing fills the table and the maps at once', () =
     // The kept oval equals a fresh oval channel's answer to the search tolerance (0.01°; hints change the cost, not the answer; measured: 0.0075°).
     const fresh = await createEngineApi().oval(1, st.conditions, ovalRequestOptions(st.products));
     expectClose(largestDifference(st.oval!, fresh), 0, 0.01, 'kept oval vs a fresh oval, largest difference (deg)');
+    // Over a channel's refusal nothing is filled: its message stays until the channel answers.
+    store.set({ errors: { oval: 'oval: refused for the test' } });
+    moveCursor(3);
+    expect(staleReason(store.get(), 'oval')).toBe('no boundaries for the current inputs: oval: refused for the test');
+    expect(store.get().answeredFor.oval?.conditions).not.toBe(store.get().conditions);
+    expect(store.get().siteResults!.fromTimeline && store.get().answeredFor.sites?.conditions === store.get().conditions).toBe(true);
+    store.set({ errors: {} });
   }, 180_000);
 
   it('the oval request of the kept ovals is the engine client\'s: its first oval equals one asked with ovalRequestOptions', async () => {

@@ -203,16 +203,17 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
     const t = timelineStore.get();
     const patch: Partial<AppState> = {};
     let answeredFor = s.answeredFor;
-    const sitesFresh = answeredFor.sites?.conditions === s.conditions && answeredFor.sites.products === s.products && answeredFor.sites.sites === s.sites && !s.errors.sites;
-    if (!sitesFresh && t.result && shownKey === currentKey()) {
+    // Nothing is filled over a channel's refusal of the current inputs (its message stays until it answers them).
+    const sitesFresh = answeredFor.sites?.conditions === s.conditions && answeredFor.sites.products === s.products && answeredFor.sites.sites === s.sites;
+    if (!sitesFresh && !s.errors.sites && !s.errors.engine && t.result && shownKey === currentKey()) {
       const f = sitesFromTimeline(t.result, shownSteps, t.cursor, s.conditions, s.sites);
       if (f) {
         patch.siteResults = f;
         answeredFor = { ...answeredFor, sites: answered(s) };
       }
     }
-    const ovalFresh = answeredFor.oval?.conditions === s.conditions && answeredFor.oval.products === s.products && !s.errors.oval;
-    if (!ovalFresh) {
+    const ovalFresh = answeredFor.oval?.conditions === s.conditions && answeredFor.oval.products === s.products;
+    if (!ovalFresh && !s.errors.oval && !s.errors.engine) {
       const kept = ovals.get(ovalKey(s.conditions, s.products));
       if (kept) {
         patch.oval = kept;

@@ -142,6 +142,26 @@ describe('timeline client: requests and answers', () => {
   });
 });
 
+describe('timeline client: ovals ahead', () => {
+  it('a refused or failed oval is asked once, not again in a loop', async () => {
+    const ovalCalls: string[] = [];
+    const engine: TimelineEngine = {
+      timeline: async (id, _b, steps) => ({ requestId: id, warnings: [], stepsMs: steps.map((x) => Date.parse(x.time)), dstNt: [], dstSource: [], sites: [] }),
+      oval: async (id, c) => {
+        ovalCalls.push(c.time);
+        if (ovalCalls.length % 2) return { requestId: id, error: 'oval: refused for the test', warnings: [], curves: [] };
+        throw new Error('worker gone');
+      },
+    };
+    client = createTimelineClient(() => engine, { settleMs: 5 });
+    load(series('storm-a.csv', 5));
+    await until(() => ovalCalls.length >= 4, 'the ovals ahead asked');
+    await new Promise((r) => setTimeout(r, 80));
+    // Steps 1–4 ahead of the cursor at 0, each once.
+    expect([...ovalCalls].sort()).toEqual(series('x', 5).steps.slice(1).map((x) => x.time).sort());
+  });
+});
+
 describe('timeline client: scrubbing fills the table and the maps at once', () => {
   it('after the site timelines and the ovals ahead are in, a cursor move shows the step\'s table (filled) and oval (kept) in the same task', async () => {
     const api = createEngineApi();

@@ -241,6 +241,8 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
 
   // ---- ovals ahead of the cursor ----
   let ovalId = 0;
+  /** Ovals the worker refused or failed (asked once; the engine client's own request reports the reason). */
+  const unavailable = new Set<string>();
   /** The oval in progress and the inputs it is for. */
   let ovalInFlight: { key: string; gen: string } | null = null;
   /** Which inputs the ovals ahead are for (steps, model switches, products); a change abandons the one in progress. */
@@ -259,7 +261,7 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
       if (!p) continue;
       const c = { ...s.conditions, ...p };
       const key = ovalKey(c, s.products);
-      if (!ovals.has(key)) return { key, c };
+      if (!ovals.has(key) && !unavailable.has(key)) return { key, c };
     }
     return null;
   };
@@ -275,12 +277,17 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
     const api = engine();
     const mine = { key: next.key, gen };
     ovalInFlight = mine;
+    const refused = () => {
+      if (unavailable.size >= ovals.capacity) unavailable.clear();
+      unavailable.add(next.key);
+    };
     api.oval(++ovalId, next.c, ovalRequestOptions(s.products)).then((a) => {
-      if (!a.stale && !a.error) {
+      if (a.error) refused();
+      else if (!a.stale) {
         ovals.set(next.key, a);
         scheduleFill();
       }
-    }, () => { /* the channel's own request reports engine failures */ }).finally(() => {
+    }, refused).finally(() => {
       if (ovalInFlight === mine) ovalInFlight = null;
       pumpOvals();
     });

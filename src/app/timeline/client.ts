@@ -196,9 +196,9 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
   }
 
   // ---- scrubbing: fill the table and the maps for the cursor's step ----
-  let fillDue = false;
+  let filling = false;
   const fill = () => {
-    if (disposed) { fillDue = false; return; }
+    if (disposed) return;
     const s = store.get();
     const t = timelineStore.get();
     const patch: Partial<AppState> = {};
@@ -221,11 +221,7 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
         answeredFor = { ...answeredFor, oval: answered(s) };
       }
     }
-    try {
-      if (answeredFor !== s.answeredFor) store.set({ ...patch, answeredFor });
-    } finally {
-      fillDue = false;
-    }
+    if (answeredFor !== s.answeredFor) store.set({ ...patch, answeredFor });
   };
   /**
    * At once, inside the notification of the change that called it, so the app renders the new
@@ -234,9 +230,13 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
    * current state for each), and the write below notifies again only when it changes something.
    */
   const scheduleFill = () => {
-    if (fillDue) return;
-    fillDue = true;
-    fill();
+    if (filling) return; // the notification of the fill's own write
+    filling = true;
+    try {
+      fill();
+    } finally {
+      filling = false;
+    }
   };
 
   // ---- ovals ahead of the cursor ----

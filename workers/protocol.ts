@@ -99,6 +99,7 @@ export interface OvalResult {
 export type { SiteInput, SiteResult } from '../src/physics/mapping';
 export type { Footpoint } from '../src/physics/trace/footpoint';
 import type { CgmResult, SiteInput, SiteResult } from '../src/physics/mapping';
+import type { Footpoint } from '../src/physics/trace/footpoint';
 export type { CgmResult } from '../src/physics/mapping';
 
 /**
@@ -115,6 +116,8 @@ export interface SitesResult {
   error?: string;
   warnings: string[];
   sites: AppSiteResult[];
+  /** Filled from the site timelines at the cursor's step (no field lines or CGM yet); the sites channel's own answer follows. */
+  fromTimeline?: boolean;
   /** Absent on a stale or failed answer. */
   used?: ModelUsed;
 }
@@ -177,6 +180,12 @@ export interface TimelineCell {
   dark: boolean;
   moonElevationDeg: number;
   moonIlluminatedFraction: number;
+  /** The rest of the step's siteReport, so the sites table can be filled from the timeline at once (src/app/timeline/fill.ts). */
+  equatorRe: number | null;
+  conjugate: Footpoint | null;
+  ovalDistanceKm: number | null;
+  ovalRelationReason?: string | null;
+  boundaries: SiteResult['boundaries'];
   error?: string;
 }
 

@@ -66,6 +66,7 @@ export function exportRefusal(s: AppState, kind: ExportKind): string | null {
     if (why) return why;
   }
   if ((kind === 'sites-csv' || kind === 'sites-geojson') && (s.siteResults?.sites.length ?? 0) === 0) return 'there are no sites: add one first';
+  if ((kind === 'sites-csv' || kind === 'sites-geojson' || kind === 'all-json') && s.siteResults?.fromTimeline) return 'the sites table is still being completed (field lines and CGM): try again in a moment';
   return null;
 }
 

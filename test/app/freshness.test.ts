@@ -13,6 +13,15 @@ function answerSites(s: AppState): SitesResult {
 }
 
 describe('stale results', () => {
+  it('a sites table filled from the timeline is shown as current but not exported until the sites channel\'s own answer (field lines, CGM) replaces it', () => {
+    const r = answerSites(store.get());
+    store.set({ siteResults: { ...r, fromTimeline: true } });
+    expect(staleReason(store.get(), 'sites')).toBeNull();
+    expect(exportRefusal(store.get(), 'sites-csv')).toBe('the sites table is still being completed (field lines and CGM): try again in a moment');
+    answerSites(store.get());
+    expect(exportRefusal(store.get(), 'sites-csv')).toBeNull();
+  });
+
   it('a result is current for its own inputs and stale after any change of them', () => {
     answerSites(store.get());
     expect(staleReason(store.get(), 'sites')).toBeNull();

@@ -1,11 +1,15 @@
 /**
  * The timeline in the browser (headless Debian Chromium, production build):
  * load the invented demo storm, scrub to three steps and compare the sites
- * table with the per-site report computed in Node for the same conditions
- * (the same engine the CLI uses) to 0.01°; replay through the end without
- * console errors and without skipping a step; the timeline export parses with
- * one row per site per step. Also prints the cursor → table-and-maps time
- * (benchmark figure, not asserted).
+ * table (the sites channel's own answer) and the site timelines at those steps
+ * with the CLI's `timeline` command run on the same steps and sites (a child
+ * process: line type, relation to the oval with its margin, the oval's sky
+ * elevation and azimuth, Sun, twilight, dark sky, Moon; 0.01°, categories
+ * exact) and with the per-site report computed in Node; replay through the end
+ * without console errors and without skipping a step; the timeline export
+ * parses with one row per site per step. Also prints the cursor → table and
+ * cursor → maps times (benchmark figures, not asserted; bench/timeline-browser.ts
+ * gives them over more scrubs and runs).
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
@@ -18,6 +22,7 @@ import { makeTracer, sectorBoundaries, siteReport, type SiteInput, type SiteResu
 import { CHROMIUM, launch, ROOT, serveApp, waitForEngine, type Browser, type Served } from './harness';
 import { downloadText, waitFresh } from './pageHelpers';
 import { expectClose } from '../helpers';
+import { scratchDir, spawnCli } from '../cli/helpers';
 
 const HAVE_BROWSER = existsSync(CHROMIUM);
 if (!HAVE_BROWSER && process.env.CI) throw new Error(`e2e: ${CHROMIUM} is missing under CI`);
@@ -30,7 +35,20 @@ interface PageState {
   conditions: FieldConditions;
   products: { altKm: number; sourceRe: number | null; minElevationDeg: number; minLatDeg: number; conjugateAltKm?: number | null };
   sites: SiteInput[];
-  siteResults: { sites: SiteResult[] } | null;
+  siteResults: { sites: SiteResult[]; fromTimeline?: boolean } | null;
+}
+
+/** A timeline cell as the page holds it (workers/protocol.ts TimelineCell, the fields compared here). */
+interface PageCell {
+  type: string; ovalRelation: string; ovalMarginDeg: number | null; ovalElevationDeg: number | null; ovalAzimuthDeg: number | null;
+  sunElevationDeg: number; twilight: string; dark: boolean; moonElevationDeg: number; moonIlluminatedFraction: number;
+}
+
+/** A row of the CLI's `timeline --format json` (src/cli/commands/timeline.ts COLUMNS). */
+interface CliRow {
+  time_utc: string; site: string; line_type: string; oval_relation: string; oval_margin_deg: number | null;
+  oval_elevation_deg: number | null; oval_azimuth_deg: number | null; sun_elevation_deg: number; twilight: string; dark: boolean;
+  moon_elevation_deg: number; moon_illuminated_fraction: number;
 }
 
 const DEMO = readSeriesText(readFileSync(resolve(ROOT, 'examples/demo-storm.csv'), 'utf8')).flatMap((r) => (r.kind === 'ok' ? [r.value] : []));
@@ -89,9 +107,39 @@ describe.skipIf(!HAVE_BROWSER)('timeline (browser)', () => {
     await expect.poll(() => b.page.getByLabel('Series summary').textContent(), { timeout: 30_000 }).toMatch(/72 steps/);
   });
 
-  it('at three scrubbed steps the sites table equals the per-site report computed in Node for that step (0.01°)', async () => {
-    for (const step of [5, 22, 47]) {
+  it('at three scrubbed steps the sites table and the site timelines equal the CLI timeline command on the same steps and sites (0.01°, categories exact) and the per-site report in Node', async () => {
+    const STEPS = [5, 22, 47];
+    // The site timelines of the demo storm must be in (the cursor's step is read from them below).
+    await b.page.waitForFunction(() => {
+      const t = (window as unknown as { __atlasTimeline: { timelineStore: { get(): { result: { stepsMs: number[] } | null; pending: boolean } } } }).__atlasTimeline.timelineStore.get();
+      return !t.pending && t.result !== null && t.result.stepsMs.length === 72;
+    }, undefined, { timeout: 170_000, polling: 200 });
+    const first = await pageState();
+    const sunLimitDeg = await b.page.evaluate(() => (window as unknown as { __atlasTimeline: { timelineStore: { get(): { sunLimitDeg: number } } } }).__atlasTimeline.timelineStore.get().sunLimitDeg);
+    // The CLI on the same inputs: the demo file's rows of those steps, the app's sites, model switches and products.
+    const dir = scratchDir('atlas-e2e-timeline-');
+    let cliRows: CliRow[];
+    try {
+      const lines = readFileSync(resolve(ROOT, 'examples/demo-storm.csv'), 'utf8').split(/\r?\n/);
+      const seriesPath = dir.file('steps.csv', [lines[0], ...STEPS.map((k) => lines[1 + k])].join('\n') + '\n');
+      const sitesPath = dir.file('sites.csv', ['name,lat_deg,lon_deg', ...first.sites.map((x) => `${x.name},${x.latDeg},${x.lonDeg}`)].join('\n') + '\n');
+      const c = first.conditions, p = first.products;
+      const r = spawnCli('timeline', '--sites', sitesPath, '--conditions', seriesPath, '--format', 'json',
+        '--internal', c.internal, '--magnetopause', c.magnetopause ? 'on' : 'off', '--tail', c.tail === false ? 'off' : 'on', '--imf-efficiency', String(c.imfEfficiency),
+        '--alt-km', String(p.altKm), '--conjugate-alt-km', String(p.conjugateAltKm ?? p.altKm), '--min-elevation-deg', String(p.minElevationDeg),
+        '--sun-limit-deg', String(sunLimitDeg), ...(p.sourceRe === null ? [] : ['--source-re', String(p.sourceRe)]));
+      expect(r.code, r.err).toBe(0);
+      cliRows = (JSON.parse(r.out) as { rows: CliRow[] }).rows;
+    } finally {
+      dir.remove();
+    }
+    expect(first.products.minLatDeg, 'the CLI searches from 30° (the engine default); so must the app here').toBe(30);
+    expect(cliRows.length).toBe(STEPS.length * first.sites.length);
+    for (const step of STEPS) {
       await b.page.getByLabel('Timeline step', { exact: true }).fill(String(step));
+      await waitFresh(b.page, ['sites', 'oval']);
+      // The sites channel's own answer (a table filled from the timeline is replaced by it).
+      await b.page.waitForFunction(() => (window as unknown as { __atlas: { store: { get(): { siteResults: { fromTimeline?: boolean } | null } } } }).__atlas.store.get().siteResults?.fromTimeline !== true, undefined, { timeout: 120_000, polling: 50 });
       await waitFresh(b.page, ['sites', 'oval']);
       const s = await pageState();
       const row = DEMO[step];
@@ -99,6 +147,12 @@ describe.skipIf(!HAVE_BROWSER)('timeline (browser)', () => {
       expectClose(s.conditions.pdynNpa, row.pdynNpa, 0, `step ${step} Pdyn from the series`);
       expectClose(s.conditions.bzNt, row.bzNt, 0, `step ${step} Bz from the series`);
       expectClose(s.conditions.dstNt!, row.dstNt!, 0, `step ${step} storm index from the series`);
+      const cells = await b.page.evaluate((k) => {
+        const r = (window as unknown as { __atlasTimeline: { timelineStore: { get(): { result: { sites: { cells: unknown[] }[] } } } } }).__atlasTimeline.timelineStore.get().result;
+        return JSON.parse(JSON.stringify(r.sites.map((x) => x.cells[k]))) as unknown;
+      }, step) as PageCell[];
+      const shown = s.siteResults!.sites;
+      expect(shown.length).toBe(s.sites.length);
       const m = prepareModel(s.conditions);
       // The app's rules: the conjugate at the footpoint altitude unless set apart; the storm-following
       // source distance unless set; searches from the lowest latitude setting.
@@ -108,26 +162,50 @@ describe.skipIf(!HAVE_BROWSER)('timeline (browser)', () => {
       const tAlt = makeTracer(m, { altKm: s.products.altKm, ellipsoid: true });
       const opts = { conjugateAltKm: conjAltKm, altKm: s.products.altKm, sourceRe, minElevationDeg: s.products.minElevationDeg };
       const boundaryAt = (h: 'north' | 'south', mlt: number) => sectorBoundaries(m, tAlt, h, mlt, { sourceRe, minLatDeg: s.products.minLatDeg });
-      const shown = s.siteResults!.sites;
-      expect(shown.length).toBe(s.sites.length);
       s.sites.forEach((site, k) => {
-        const want = siteReport(m, tConj, tAlt, site, opts, boundaryAt, false);
         const got = shown[k];
-        expect(got.type, `${site.name} line type at step ${step}`).toBe(want.type);
-        expect(got.ovalRelation, `${site.name} oval relation at step ${step}`).toBe(want.ovalRelation);
-        expectClose(got.magLatDeg, want.magLatDeg, 0.01, `${site.name} magnetic latitude at step ${step}`);
-        if (want.conjugate) {
-          expectClose(got.conjugate!.geoLatDeg, want.conjugate.geoLatDeg, 0.01, `${site.name} conjugate latitude at step ${step}`);
-          expectClose(got.conjugate!.geoLonDeg, want.conjugate.geoLonDeg, 0.01, `${site.name} conjugate longitude at step ${step}`);
+        const cell = cells[k];
+        const cli = cliRows.find((x) => x.site === site.name && Date.parse(x.time_utc) === Date.parse(row.time));
+        expect(cli, `CLI row for ${site.name} at ${row.time}`).toBeDefined();
+        const what = (x: string) => `${site.name} ${x} at step ${step}`;
+        // Sites table (the sites channel) against the CLI.
+        expect(got.type, what('line type, table vs CLI')).toBe(cli!.line_type);
+        expect(got.ovalRelation, what('oval relation, table vs CLI')).toBe(cli!.oval_relation);
+        expect(got.sky === null, what('oval point in the sky, table vs CLI')).toBe(cli!.oval_elevation_deg === null);
+        if (got.sky) {
+          expectClose(got.sky.elevationDeg, cli!.oval_elevation_deg!, 0.01, what('oval elevation, table vs CLI'));
+          expectClose(got.sky.azimuthDeg, cli!.oval_azimuth_deg!, 0.01, what('oval azimuth, table vs CLI'));
         }
-        if (want.boundaries?.openClosedMagLatDeg != null) expectClose(got.boundaries!.openClosedMagLatDeg!, want.boundaries.openClosedMagLatDeg, 0.01, `${site.name} open–closed boundary at step ${step}`);
-        if (want.sky) expectClose(got.sky!.elevationDeg, want.sky.elevationDeg, 0.01, `${site.name} oval elevation at step ${step}`);
+        // Site timeline cell against the CLI: every column of the CLI's row.
+        expect(cell.type, what('line type, timeline vs CLI')).toBe(cli!.line_type);
+        expect(cell.ovalRelation, what('oval relation, timeline vs CLI')).toBe(cli!.oval_relation);
+        expect(cell.ovalMarginDeg === null, what('margin present, timeline vs CLI')).toBe(cli!.oval_margin_deg === null);
+        if (cell.ovalMarginDeg !== null) expectClose(cell.ovalMarginDeg, Math.abs(cli!.oval_margin_deg!), 0.01, what('oval margin, timeline vs CLI'));
+        expect(cell.ovalElevationDeg === null, what('oval point in the sky, timeline vs CLI')).toBe(cli!.oval_elevation_deg === null);
+        if (cell.ovalElevationDeg !== null) {
+          expectClose(cell.ovalElevationDeg, cli!.oval_elevation_deg!, 0.01, what('oval elevation, timeline vs CLI'));
+          expectClose(cell.ovalAzimuthDeg!, cli!.oval_azimuth_deg!, 0.01, what('oval azimuth, timeline vs CLI'));
+        }
+        expectClose(cell.sunElevationDeg, cli!.sun_elevation_deg, 0.01, what('Sun elevation, timeline vs CLI'));
+        expect(cell.twilight, what('twilight, timeline vs CLI')).toBe(cli!.twilight);
+        expect(cell.dark, what('dark sky, timeline vs CLI')).toBe(cli!.dark);
+        expectClose(cell.moonElevationDeg, cli!.moon_elevation_deg, 0.01, what('Moon elevation, timeline vs CLI'));
+        expectClose(cell.moonIlluminatedFraction, cli!.moon_illuminated_fraction, 0.001, what('Moon illuminated fraction, timeline vs CLI'));
+        // And the per-site report computed here in Node (conjugate point, boundary, magnetic latitude).
+        const want = siteReport(m, tConj, tAlt, site, opts, boundaryAt, false);
+        expect(got.type, what('line type vs Node')).toBe(want.type);
+        expectClose(got.magLatDeg, want.magLatDeg, 0.01, what('magnetic latitude vs Node'));
+        if (want.conjugate) {
+          expectClose(got.conjugate!.geoLatDeg, want.conjugate.geoLatDeg, 0.01, what('conjugate latitude vs Node'));
+          expectClose(got.conjugate!.geoLonDeg, want.conjugate.geoLonDeg, 0.01, what('conjugate longitude vs Node'));
+        }
+        if (want.boundaries?.openClosedMagLatDeg != null) expectClose(got.boundaries!.openClosedMagLatDeg!, want.boundaries.openClosedMagLatDeg, 0.01, what('open–closed boundary vs Node'));
       });
       // The table in the page shows the same conjugate latitude (3 decimals).
-      const first = shown.findIndex((r) => r.conjugate);
-      if (first >= 0) {
-        const cell = await b.page.locator(`tr[data-site-index="${first}"] td[data-col="conj-lat"]`).textContent();
-        expectClose(Number(cell), shown[first].conjugate!.geoLatDeg, 0.0006, 'table cell shows the conjugate latitude');
+      const withConj = shown.findIndex((r) => r.conjugate);
+      if (withConj >= 0) {
+        const cell = await b.page.locator(`tr[data-site-index="${withConj}"] td[data-col="conj-lat"]`).textContent();
+        expectClose(Number(cell), shown[withConj].conjugate!.geoLatDeg, 0.0006, 'table cell shows the conjugate latitude');
       }
     }
   });
@@ -184,6 +262,8 @@ describe.skipIf(!HAVE_BROWSER)('timeline (browser)', () => {
       const t = (window as unknown as { __atlasTimeline: { timelineStore: { get(): { result: { sites: unknown[] } | null; pending: boolean } } } }).__atlasTimeline.timelineStore.get();
       return !t.pending && t.result?.sites.length === 8;
     }, undefined, { timeout: 170_000, polling: 200 });
+    // And every step's oval kept (computed ahead in the timeline worker since the series was loaded).
+    await b.page.waitForFunction(() => (window as unknown as { __atlasTimelineClient?: { ovalsMissing(): number } }).__atlasTimelineClient?.ovalsMissing() === 0, undefined, { timeout: 170_000, polling: 250 });
     const times: { sites: number; both: number }[] = [];
     for (const step of [10, 11, 20, 21, 30, 31, 40, 41, 50]) {
       // Page-side: from the cursor move to the store holding the table and the oval for the new step, plus one frame.

@@ -92,6 +92,11 @@ export function timelineChannel(ctx: EngineContext): EngineApi['timeline'] {
           dark: d.dark,
           moonElevationDeg: d.moonElevationDeg,
           moonIlluminatedFraction: d.moonIlluminatedFraction,
+          equatorRe: r.equatorRe,
+          conjugate: r.conjugate,
+          ovalDistanceKm: r.sky ? r.sky.distanceKm : null,
+          ovalRelationReason: r.ovalRelationReason ?? null,
+          boundaries: r.boundaries,
         };
         if (r.error) cell.error = r.error;
         out[k].cells.push(cell);

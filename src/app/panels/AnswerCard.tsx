@@ -15,7 +15,8 @@ import { ui, useUi } from './selection';
 const seen = new Map<string, { requestId: number; lat: number; lon: number; prev: { lat: number; lon: number } | null }>();
 
 function record(res: SitesResult | null): void {
-  if (!res) return;
+  // A table filled from the timeline is followed by the worker's own answer for the same inputs: count that one.
+  if (!res || res.fromTimeline) return;
   for (const r of res.sites) {
     const old = seen.get(r.name);
     if (old && old.requestId === res.requestId) continue;

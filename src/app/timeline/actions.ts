@@ -7,7 +7,7 @@
 import { setConditions, store } from '../store';
 import { timelineStore, type LoadedSeries, type NightPlan } from './state';
 import { loadSeriesBlob, loadSeriesText } from './load';
-import { nightTimesMs, isoUtc } from './steps';
+import { cursorPatch, nightTimesMs, isoUtc } from './steps';
 
 function errorText(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
@@ -53,23 +53,17 @@ export function setNight(patch: Partial<NightPlan>): void {
   timelineStore.set((t) => ({ night: { ...t.night, ...patch }, cursor: 0, result: null }));
 }
 
-/** Move the cursor to step i (clamped) and set the app's conditions from it. */
+/** Move the cursor to step i (clamped) and set the app's conditions from it (cursorPatch). */
 export function moveCursor(i: number): void {
   const t = timelineStore.get();
   const c = store.get().conditions;
-  if (t.series) {
-    const n = t.series.steps.length;
-    const k = Math.max(0, Math.min(n - 1, Math.round(i)));
-    const s = t.series.steps[k];
-    timelineStore.set({ cursor: k });
-    setConditions({ time: s.time, pdynNpa: s.pdynNpa, bzNt: s.bzNt, byNt: s.byNt, dstNt: s.dstNt, speedKms: s.speedKms });
-    return;
-  }
-  const times = nightTimesMs(t.night, c);
-  const k = Math.max(0, Math.min(times.length - 1, Math.round(i)));
-  // Pin the night's start before the cursor moves the time it was taken from.
-  timelineStore.set(t.night.startIso ? { cursor: k } : { cursor: k, night: { ...t.night, startIso: isoUtc(times[0]) } });
-  setConditions({ time: isoUtc(times[k]) });
+  const n = t.series ? t.series.steps.length : nightTimesMs(t.night, c).length;
+  const k = Math.max(0, Math.min(n - 1, Math.round(i)));
+  const patch = cursorPatch(t, c, k);
+  if (!patch) return;
+  // A night: pin its start before the cursor moves the time it was taken from.
+  timelineStore.set(t.series || t.night.startIso ? { cursor: k } : { cursor: k, night: { ...t.night, startIso: isoUtc(nightTimesMs(t.night, c)[0]) } });
+  setConditions(patch);
 }
 
 /** True once the sites table and the maps show the current conditions (or their channel failed). */

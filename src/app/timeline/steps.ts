@@ -32,3 +32,16 @@ export function timelineSteps(t: TimelineState, c: FieldConditions): TimelineSte
   if (t.series) return t.series.steps.map((s) => ({ time: s.time, pdynNpa: s.pdynNpa, bzNt: s.bzNt, byNt: s.byNt, dstNt: s.dstNt, speedKms: s.speedKms }));
   return nightTimesMs(t.night, c).map((ms) => ({ time: isoUtc(ms), pdynNpa: c.pdynNpa, bzNt: c.bzNt, byNt: c.byNt, dstNt: c.dstNt ?? null, speedKms: c.speedKms ?? null }));
 }
+
+/**
+ * What the cursor at step k writes into the app's conditions: the series row's time and solar
+ * wind, or the night's time (the night keeps the current solar wind). Null when there is no step k.
+ */
+export function cursorPatch(t: Pick<TimelineState, 'series' | 'night'>, c: FieldConditions, k: number): Partial<FieldConditions> | null {
+  if (t.series) {
+    const s = t.series.steps[k];
+    return s ? { time: s.time, pdynNpa: s.pdynNpa, bzNt: s.bzNt, byNt: s.byNt, dstNt: s.dstNt, speedKms: s.speedKms } : null;
+  }
+  const times = nightTimesMs(t.night, c);
+  return k >= 0 && k < times.length ? { time: isoUtc(times[k]) } : null;
+}

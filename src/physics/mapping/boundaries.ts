@@ -259,10 +259,9 @@ function openClosedCell(probe: ClosedProbe, o: BoundaryOptions, hintLat: number,
   if (top < 0) {
     const stepNodes = Math.max(1, Math.round(o.scanStepDeg / OC_GRID_STEP_DEG));
     const s = grid.below(scanStartLatDeg(o));
-    if (at(s).closed) {
-      top = s;
-      for (let i = s + stepNodes; i < last && at(i).closed; i += stepNodes) top = i;
-    } else {
+    // A closed start goes straight to the climb (its farthest-first probes cover up to 6° a probe).
+    if (at(s).closed) top = s;
+    else {
       for (let i = s; i > 0 && top < 0;) {
         i = Math.max(0, i - stepNodes);
         if (at(i).closed) top = i;

@@ -130,12 +130,12 @@ type BracketResult = [number, number] | 'none' | 'unresolved' | 'closed-to-pole'
 /**
  * Boundaries at one MLT in one hemisphere. The open–closed boundary is the
  * poleward edge of the lowest closed region above minLatDeg: the scan starts at
- * scanStartLatDeg (near the expected edge, never above 50°), walks poleward to the
- * first line that is not closed (or down to minLatDeg when its first line is not
+ * scanStartLatDeg (near the expected edge, never above 50°), climbs poleward over a fixed
+ * latitude grid (openClosedCell; or walks down to minLatDeg when its first line is not
  * closed) and refines by bisection to latTolDeg. The equatorward edge is the
  * footprint of the closed line whose minimum-|B| point lies at sourceRe
  * (the equatorial distance grows with latitude: a safeguarded regula falsi,
- * Illinois variant, on r_eq − sourceRe). A missing boundary comes with its reason
+ * Illinois variant, on ln(r_eq / sourceRe)). A missing boundary comes with its reason
  * (openClosedReason, equatorwardReason).
  *
  * `hint` (the neighbouring sector's answer) lets the search start from a
@@ -308,7 +308,8 @@ function sourceBeyondReason(model: PreparedModel, mltH: number, sourceRe: number
 
 /**
  * A bracket of the equatorward edge's root near a predicted latitude: a probe there, a Newton
- * step with the dipole slope of ln r_eq (d ln r_eq/dλ = 2 tan λ, from r_eq = L cos²λ·r, references §1),
+ * step with the dipole slope of ln r_eq (d ln r_eq/dλ = 2 tan λ, from r_eq = r / cos²λ for the line
+ * through a footpoint at radius r and latitude λ, references §1),
  * then secant steps through the two newest closed probes (10 % past the predicted root, so the
  * next probe tends to cross it), at most 4 probes and never more than 4 half-widths from the
  * prediction. g is ln(r_eq/source) (NaN: not closed, the high side). Null when no bracket was found.

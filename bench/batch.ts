@@ -8,6 +8,8 @@
  *  - peakRssMb: the process's peak resident set (all threads), and
  *    rssGrowthMb: resident set at the end minus at a quarter of the run
  *    (flat memory: about 0 however many rows);
+ *  - batchTracesPerRow / batchEvalsPerRow / batchCpuMsPerRow: the main run's first conditions again
+ *    in one thread, counting traces and field evaluations (machine-independent) and CPU time;
  *  - the same with --boundary-mlt-step 1 (interpolated boundaries, an opt-in approximation);
  *  - pipeline*: a million rows that are all skipped (fill values), so the
  *    reader, pool and ordered writer run alone: their speed and RSS growth.
@@ -16,6 +18,7 @@ import { mkdtempSync, writeFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runBatch } from '../src/cli/batch/index';
+import { traceTotals } from '../src/physics/trace/tracer';
 import { seededRandom, type BenchSection, type Figure, type RunOptions } from './lib';
 
 export interface BatchBenchResult {
@@ -93,6 +96,25 @@ export async function runBatchBench(opts: { sites?: number; conditions?: number;
 }
 
 /**
+ * Machine-independent cost of a row: the same inputs as the main run (its first `conditions`
+ * conditions) in this thread (--workers 1), counting the traces and field evaluations of every
+ * tracer (traceTotals), and this thread's CPU time per row.
+ */
+export async function batchCostPerRow(opts: { sites?: number; conditions?: number; extraArgs?: string[] } = {}): Promise<{ rows: number; tracesPerRow: number; evalsPerRow: number; cpuMsPerRow: number }> {
+  const t0 = traceTotals.traces, e0 = traceTotals.evals;
+  const cpu0 = process.cpuUsage();
+  const r = await runBatchBench({ sites: opts.sites ?? 100, conditions: opts.conditions ?? 20, workers: 1, extraArgs: opts.extraArgs });
+  if (r.exitCode !== 0) throw new Error(`batch cost run exited ${r.exitCode}`);
+  const cpu = process.cpuUsage(cpu0);
+  return {
+    rows: r.rows,
+    tracesPerRow: (traceTotals.traces - t0) / r.rows,
+    evalsPerRow: (traceTotals.evals - e0) / r.rows,
+    cpuMsPerRow: (cpu.user + cpu.system) / 1000 / r.rows,
+  };
+}
+
+/**
  * Parts (each in its own process, so each peak RSS is its own): the speed-target table's
  * shapes — 100 sites × 1,000 conditions, 10 × 10,000, 1,000 × 100 (exact boundaries,
  * 2 workers, today's code path), the same 100-site run with IGRF on (fewer conditions),
@@ -123,6 +145,13 @@ export const batchSection: BenchSection = {
         { key: 'rssGrowthMb', value: exact.rssGrowthMb, unit: 'MB', note: 'RSS at the end − at 25 % of the rows' },
       );
       detail.exact = exact;
+      const cost = await batchCostPerRow({ conditions: o.quick ? 5 : 20 });
+      figures.push(
+        { key: 'batchTracesPerRow', value: cost.tracesPerRow, unit: 'traces/row', note: `${cost.rows} rows of the same inputs in one thread: the site's line and the boundary searches' probes` },
+        { key: 'batchEvalsPerRow', value: cost.evalsPerRow, unit: 'evals/row', note: 'field evaluations per row (same rows)' },
+        { key: 'batchCpuMsPerRow', value: cost.cpuMsPerRow, unit: 'ms/row', note: 'CPU time per row in one thread (same rows, includes the per-condition model preparation)' },
+      );
+      detail.cost = cost;
     }
     if (!o.part || o.part === 'shapes') {
       // 10 × 10,000 is timed over its first 3,000 conditions (the rate is per row; 100,000 rows would take the bench ~10 min today).

@@ -130,12 +130,12 @@ type BracketResult = [number, number] | 'none' | 'unresolved' | 'closed-to-pole'
 /**
  * Boundaries at one MLT in one hemisphere. The open–closed boundary is the
  * poleward edge of the lowest closed region above minLatDeg: the scan starts at
- * scanStartLatDeg (near the expected edge, never above 50°), walks poleward to the
- * first line that is not closed (or down to minLatDeg when its first line is not
+ * scanStartLatDeg (near the expected edge, never above 50°), climbs poleward over a fixed
+ * latitude grid (openClosedCell; or walks down to minLatDeg when its first line is not
  * closed) and refines by bisection to latTolDeg. The equatorward edge is the
  * footprint of the closed line whose minimum-|B| point lies at sourceRe
  * (the equatorial distance grows with latitude: a safeguarded regula falsi,
- * Illinois variant, on r_eq − sourceRe). A missing boundary comes with its reason
+ * Illinois variant, on ln(r_eq / sourceRe)). A missing boundary comes with its reason
  * (openClosedReason, equatorwardReason).
  *
  * `hint` (the neighbouring sector's answer) lets the search start from a
@@ -259,10 +259,9 @@ function openClosedCell(probe: ClosedProbe, o: BoundaryOptions, hintLat: number,
   if (top < 0) {
     const stepNodes = Math.max(1, Math.round(o.scanStepDeg / OC_GRID_STEP_DEG));
     const s = grid.below(scanStartLatDeg(o));
-    if (at(s).closed) {
-      top = s;
-      for (let i = s + stepNodes; i < last && at(i).closed; i += stepNodes) top = i;
-    } else {
+    // A closed start goes straight to the climb (its farthest-first probes cover up to 6° a probe).
+    if (at(s).closed) top = s;
+    else {
       for (let i = s; i > 0 && top < 0;) {
         i = Math.max(0, i - stepNodes);
         if (at(i).closed) top = i;
@@ -307,21 +306,55 @@ function sourceBeyondReason(model: PreparedModel, mltH: number, sourceRe: number
   return 'the closed region ends before the source distance';
 }
 
+/**
+ * A bracket of the equatorward edge's root near a predicted latitude: a probe there, a Newton
+ * step with the dipole slope of ln r_eq (d ln r_eq/dλ = 2 tan λ, from r_eq = r / cos²λ for the line
+ * through a footpoint at radius r and latitude λ, references §1),
+ * then secant steps through the two newest closed probes (10 % past the predicted root, so the
+ * next probe tends to cross it), at most 4 probes and never more than 4 half-widths from the
+ * prediction. g is ln(r_eq/source) (NaN: not closed, the high side). Null when no bracket was found.
+ */
+function bracketNear(g: (lat: number) => number, hintLat: number, hintW: number, minLat: number, maxLat: number, tol: number): [number, number, number, number] | null {
+  const clampLat = (x: number) => Math.min(maxLat, Math.max(minLat, x));
+  let lo = NaN, glo = NaN, hi = NaN, ghi = NaN;
+  let xa = NaN, ga = NaN; // the newest closed probe before the current one
+  let x = clampLat(hintLat);
+  for (let k = 0; k < 4; k++) {
+    const gx = g(x);
+    if (gx <= 0) { if (!(x <= lo)) { lo = x; glo = gx; } } else if (!(x >= hi)) { hi = x; ghi = gx; }
+    if (lo < hi) return [lo, glo, hi, ghi];
+    let next: number;
+    if (!Number.isFinite(gx)) next = x - hintW; // above the closed region: step down
+    else {
+      let slope = 2 * Math.tan(x * RAD_PER_DEG) * RAD_PER_DEG; // per degree, dipole
+      if (Number.isFinite(ga) && x !== xa && (gx - ga) / (x - xa) > 0) slope = (gx - ga) / (x - xa);
+      const dx = -gx / slope;
+      next = x + 1.1 * dx + (dx > 0 ? 0.5 : -0.5) * tol;
+      xa = x; ga = gx;
+    }
+    next = Math.min(hintLat + 4 * hintW, Math.max(hintLat - 4 * hintW, next));
+    next = clampLat(next);
+    if (next === x) return null;
+    x = next;
+  }
+  return null;
+}
+
 function equatorwardEdge(model: PreparedModel, tracer: Tracer, sgn: number, mltH: number, samples: Sample[], ocLat: number, o: BoundaryOptions, hintLat: number, hintW: number): BoundaryPoint | MissingBoundaryReason {
   const src = o.sourceRe;
+  const lnSrc = Math.log(src);
+  // ln(r_eq/source): the sign of r_eq − source, and nearly linear in latitude (dipole: d ln r_eq/dλ = 2 tan λ),
+  // so the regula falsi needs few traces.
   const g = (lat: number): number => {
     const r = closedAt(model, tracer, sgn * lat, mltH);
-    return r.closed && Number.isFinite(r.eqR) ? r.eqR - src : NaN; // NaN: not closed
+    return r.closed && r.eqR > 0 ? Math.log(r.eqR) - lnSrc : NaN; // NaN: not closed
   };
   // Bracket [lo, hi] with g(lo) ≤ 0 < g(hi) (or hi not closed).
   let lo = NaN, glo = NaN, hi = NaN, ghi = NaN;
   if (Number.isFinite(hintLat)) {
-    const a = Math.max(o.minLatDeg, hintLat - hintW), b = hintLat + hintW;
-    const ga = g(a);
-    if (ga <= 0) {
-      const gb = g(b);
-      if (!(gb <= 0)) { lo = a; glo = ga; hi = b; ghi = gb; }
-    }
+    const top = Number.isNaN(ocLat) ? TOP_LAT_DEG : ocLat;
+    const b = bracketNear(g, hintLat, hintW, o.minLatDeg, top, o.latTolDeg);
+    if (b) [lo, glo, hi, ghi] = b;
   }
   if (Number.isNaN(lo)) {
     samples.sort((p, q) => p.lat - q.lat);
@@ -333,8 +366,8 @@ function equatorwardEdge(model: PreparedModel, tracer: Tracer, sgn: number, mltH
     if (samples.length === 0) return 'no closed lines at this MLT';
     if (!(samples[0].eqR <= src)) return 'the source distance maps below the lowest latitude searched';
     for (const s of samples) {
-      if (s.eqR <= src) { lo = s.lat; glo = s.eqR - src; }
-      else { hi = s.lat; ghi = s.eqR - src; break; }
+      if (s.eqR <= src) { lo = s.lat; glo = Math.log(s.eqR) - lnSrc; }
+      else { hi = s.lat; ghi = Math.log(s.eqR) - lnSrc; break; }
     }
     if (Number.isNaN(hi)) {
       if (Number.isNaN(ocLat)) return sourceBeyondReason(model, mltH, src); // closed to the pole, source never reached

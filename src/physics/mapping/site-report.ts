@@ -83,8 +83,8 @@ export function siteReport(model: PreparedModel, tConj: Tracer, tAlt: Tracer, si
       applyMat3T(v, g, pts[k], pts[k + 1], pts[k + 2]);
       lineGeo[k] = v[0]; lineGeo[k + 1] = v[1]; lineGeo[k + 2] = v[2];
     }
-    // Footpoints and MLT at the emission altitude.
-    const atAlt = traceSite(model, tAlt, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', false);
+    // Footpoints and MLT at the emission altitude (the same line when one tracer serves both altitudes).
+    const atAlt = tAlt === tConj ? line : traceSite(model, tAlt, site.latDeg, site.lonDeg, site.heightKm ?? 0, 'geo', false);
     const near = atAlt.near ?? line.near;
     const magLat = near ? near.magLatDeg : NaN;
     const mlt = near ? near.mltHours : NaN;

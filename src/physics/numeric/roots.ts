@@ -27,8 +27,8 @@ const ILLINOIS_MAX_ITERATIONS = 60;
  * is halved when the same end is kept twice). g may return NaN where it is not
  * defined (e.g. beyond the end of a region): such a point counts as the high side
  * and the step there falls back to bisection; `ghi` may be NaN on entry for the
- * same reason. A step closer than 5 % of the bracket to either end is replaced by
- * the midpoint (safeguard). When the secant step from the newest point is below a quarter
+ * same reason. A step closer than 5 % of the bracket to either end is moved to tol/2
+ * inside that end, or, right after such a step, replaced by the midpoint (safeguard). When the secant step from the newest point is below a quarter
  * of `tol`, the next probe is placed tol/2 beyond the estimated root (inside the bracket), so
  * the bracket usually closes in one more value. Stops only when the bracket is no wider than
  * `tol` (a small step alone is no proof: on a flat stretch the secant creeps) and returns the
@@ -38,13 +38,20 @@ const ILLINOIS_MAX_ITERATIONS = 60;
 export function illinoisRoot(g: (x: number) => number, lo: number, glo: number, hi: number, ghi: number, tol: number): number {
   let side = 0;
   let nearX = NaN; // a probe placed just across the estimated root, or NaN
+  let nearEndTried = false; // the last probe was placed tol/2 inside an end
   for (let it = 0; it < ILLINOIS_MAX_ITERATIONS && hi - lo > tol; it++) {
     let x: number;
     if (Number.isFinite(nearX) && nearX > lo && nearX < hi) x = nearX;
     else {
       x = Number.isFinite(ghi) && ghi !== glo ? lo + (hi - lo) * (glo / (glo - ghi)) : 0.5 * (lo + hi);
       const guard = 0.05 * (hi - lo);
-      if (!(x > lo + guard && x < hi - guard)) x = 0.5 * (lo + hi);
+      if (!(x > lo + guard && x < hi - guard)) {
+        // An estimate next to an end: probe tol/2 inside from it (the bracket closes when the estimate
+        // holds); after such a probe failed to close it, the midpoint (at most every other step creeps).
+        const inside = x <= lo + guard ? Math.max(x, lo) + 0.5 * tol : Math.min(x, hi) - 0.5 * tol;
+        x = !nearEndTried && inside > lo && inside < hi ? inside : 0.5 * (lo + hi);
+        nearEndTried = x === inside;
+      } else nearEndTried = false;
     }
     nearX = NaN;
     const gx = g(x);

@@ -71,6 +71,12 @@ const DEFAULT_TRACE_OPTIONS: Readonly<TraceOptions> = Object.freeze({
   maxLengthRe: 1000,
 });
 
+/**
+ * Running totals of this thread's traces and field evaluations (all tracers; never reset here):
+ * machine-independent cost figures for benchmarks and profiles (bench/batch.ts reads them).
+ */
+export const traceTotals = { traces: 0, evals: 0 };
+
 /** A seed this close to the stop surface (RE) is on it: the footpoint precision of the landing. */
 const SURFACE_TOL_RE = 1e-10;
 
@@ -192,6 +198,8 @@ export class Tracer {
     this.footMinus = endM === END_SURFACE ? 0 : endM === END_START_BELOW && upP >= 0 ? nm + upP - skip : -1;
     this.footPlus = endP === END_SURFACE ? n - 1 : endP === END_START_BELOW && upM >= 0 ? nm - 1 - upM : -1;
     this.lengthRe = lengthRe;
+    traceTotals.traces++;
+    traceTotals.evals += this.evals;
     return classify(endM, endP);
   }
 

@@ -147,12 +147,23 @@ export function sectorBoundaries(model: PreparedModel, tracer: Tracer, hemispher
   // The source distance follows the conditions (model.sourceRe) unless the caller sets one.
   const o = { ...DEFAULT_BOUNDARY_OPTIONS, ...opts, sourceRe: opts.sourceRe ?? model.sourceRe };
   const sgn = hemisphere === 'north' ? 1 : -1;
-  const probe: ClosedProbe = (lat) => closedAt(model, tracer, sgn * lat, mltH);
+  // Lines already traced in this search are not traced again (a hinted search may be redone unhinted).
+  const traced = new Map<number, Probe>();
+  const probe: ClosedProbe = (lat) => {
+    let p = traced.get(lat);
+    if (!p) { p = closedAt(model, tracer, sgn * lat, mltH); traced.set(lat, p); }
+    return p;
+  };
   const samples: Sample[] = [];
   const missing = (reason: MissingBoundaryReason): SectorBoundaries =>
     ({ mltHours: mltH, openClosed: null, equatorward: null, openClosedReason: reason, equatorwardReason: reason });
 
-  const bracket = openClosedCell(probe, o, hint?.openClosedLatDeg ?? NaN, samples);
+  let bracket = openClosedCell(probe, o, hint?.openClosedLatDeg ?? NaN, samples);
+  // A hint that lands on closed lines near the pole (e.g. a lone closed line at the top node) can
+  // climb to the pole from a region the unhinted scan never reaches: confirm by the unhinted search.
+  if (bracket === 'closed-to-pole' && hint?.openClosedLatDeg !== undefined && Number.isFinite(hint.openClosedLatDeg)) {
+    bracket = openClosedCell(probe, o, NaN, samples);
+  }
   if (bracket === 'none') return missing('no closed lines at this MLT');
   if (bracket === 'unresolved') return missing('unresolved lines');
   let ocLat = NaN;

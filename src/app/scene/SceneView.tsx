@@ -1,5 +1,5 @@
 /** The 3D view: GEO frame (Earth fixed, z to the north pole), rendered on demand. */
-import { useEffect } from 'react';
+import { useEffect, useMemo } from 'react';
 import { Canvas, useFrame, useThree } from '@react-three/fiber';
 import { frameRendered } from '../perf';
 import { setSnapshotter } from './snapshot';
@@ -11,6 +11,7 @@ import { FieldLines } from './FieldLines';
 import { OvalBand } from './OvalBand';
 import { Sites3D } from './Sites3D';
 import { CameraRig } from './CameraRig';
+import { softwareRendered } from './renderer';
 
 /** Takes over rendering (priority 1) so the timing marks land after gl.render. */
 function RenderAndMark() {
@@ -38,12 +39,15 @@ function Snapshot() {
 }
 
 export function SceneView() {
+  // Without a GPU every frame is drawn on the CPU: no multisampling, one pixel per CSS pixel.
+  const soft = useMemo(softwareRendered, []);
   return (
     <Canvas
       frameloop="demand"
-      gl={{ antialias: true }}
+      gl={{ antialias: !soft }}
       camera={{ fov: 40, near: 0.05, far: 1000, position: [-14, 22, 9] }}
-      dpr={[1, 2]}
+      dpr={soft ? 1 : [1, 2]}
+      data-renderer={soft ? 'software' : 'gpu'}
       aria-label="3D view of field lines, oval and magnetopause (GEO frame)"
     >
       <color attach="background" args={['#070b14']} />

@@ -2,8 +2,8 @@
  * The engine client: the app's only link to the workers. Watches the store,
  * asks for the fast scene first and the refined oval, sites and sweep after,
  * and writes current answers back into the store. Two engine workers (two
- * cores): the main one answers the scene, the north oval, sites and sweep; the
- * second searches the south oval at the same time.
+ * cores): each traces half of the scene's fan and then searches one
+ * hemisphere's oval; the main one also answers sites and sweep.
  */
 import * as Comlink from 'comlink';
 import type { EngineApi, FanSpec, FrameInfo, OvalResult, SceneResult, SitesResult, SweepResult } from '../../workers/protocol';
@@ -122,6 +122,49 @@ export function mergeOvalParts(requestId: number, parts: OvalResult[]): OvalResu
   };
 }
 
+/**
+ * One scene from the answers of its parts (the fan's MLT meridians split between the workers, in
+ * order): stale when any part is, the first error when any failed, else the first part's frames and
+ * magnetopause (every part prepared the same conditions), the lines of all parts one after the
+ * other (offsets moved on), the warnings of all (each once) and the longest worker time.
+ */
+export function mergeSceneParts(requestId: number, parts: SceneResult[]): SceneResult {
+  if (parts.length === 1) return parts[0];
+  const first = parts[0];
+  const base = { requestId, warnings: [], frames: first.frames, magnetopause: first.magnetopause, lines: first.lines };
+  if (parts.some((p) => p.stale)) return { ...base, stale: true };
+  const failed = parts.find((p) => p.error !== undefined);
+  if (failed) return { ...base, error: failed.error };
+  let nPoints = 0, nLines = 0;
+  for (const p of parts) { nPoints += p.lines.pointsGeo.length / 3; nLines += p.lines.types.length; }
+  const pointsGeo = new Float64Array(3 * nPoints);
+  const offsets = new Int32Array(nLines + 1);
+  const types = new Uint8Array(nLines);
+  let pt = 0, ln = 0;
+  for (const p of parts) {
+    const b = p.lines;
+    pointsGeo.set(b.pointsGeo, 3 * pt);
+    types.set(b.types, ln);
+    for (let i = 1; i < b.offsets.length; i++) offsets[ln + i] = pt + b.offsets[i];
+    pt += b.pointsGeo.length / 3;
+    ln += b.types.length;
+  }
+  const times = parts.map((p) => p.workerMs).filter((t): t is number => t !== undefined);
+  return {
+    ...base,
+    warnings: [...new Set(parts.flatMap((p) => p.warnings))],
+    lines: { pointsGeo, offsets, types },
+    ...(times.length > 0 ? { workerMs: Math.max(...times) } : {}),
+  };
+}
+
+/** The fan split in two by MLT meridians (first half, second half), or the whole fan alone when it has one meridian. */
+export function splitFan(fan: FanSpec): FanSpec[] {
+  const k = Math.ceil(fan.mltHours.length / 2);
+  if (fan.mltHours.length < 2) return [fan];
+  return [{ mltHours: fan.mltHours.slice(0, k), magLatDeg: fan.magLatDeg }, { mltHours: fan.mltHours.slice(k), magLatDeg: fan.magLatDeg }];
+}
+
 /** Product options of a request; a source distance left to follow the conditions is not sent. */
 const productOpts = (s: AppState) => ({
   altKm: s.products.altKm,
@@ -129,7 +172,7 @@ const productOpts = (s: AppState) => ({
   ...(s.products.sourceRe === null ? {} : { sourceRe: s.products.sourceRe }),
 });
 
-/** Which engine worker: 'main' (scene, north oval, sites, sweep) or 'oval' (the south oval, in parallel). */
+/** Which engine worker: 'main' (half the scene, the north oval, sites, sweep) or 'oval' (the other half of the scene, the south oval). */
 export type WorkerRole = 'main' | 'oval';
 
 /**
@@ -142,7 +185,7 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
   const worker = make('main');
   const api = Comlink.wrap<EngineApi>(worker);
   worker.addEventListener('error', (e) => reportError('engine')(`engine worker failed: ${e.message || 'could not start'}`));
-  // The second worker searches the south oval while the first draws the scene and searches the north.
+  // The second worker traces half the fan and searches the south oval while the first does the rest.
   const ovalWorker = nWorkers > 1 ? make('oval') : null;
   const ovalApi = ovalWorker ? Comlink.wrap<EngineApi>(ovalWorker) : null;
   ovalWorker?.addEventListener('error', (e) => reportError('engine')(`oval worker failed: ${e.message || 'could not start'}`));
@@ -184,7 +227,10 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
   const askScene = () => scene.request((id) => {
     const s = book.remember('scene', id);
     noteStep('scene', s.perf.seq, 'sent');
-    return api.scene(id, s.conditions, FAN);
+    if (!ovalApi) return api.scene(id, s.conditions, FAN);
+    // Half the fan on each worker, each before its half of the oval (asked right after).
+    const [a, b] = splitFan(FAN);
+    return Promise.all([api.scene(id, s.conditions, a), ovalApi.scene(id, s.conditions, b)]).then((parts) => mergeSceneParts(id, parts));
   });
   const askOval = () => oval.request((id) => {
     const s = book.remember('oval', id);

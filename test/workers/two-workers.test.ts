@@ -4,7 +4,7 @@ import { expose } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { createEngineApi } from '../../workers/engine-api';
 import type { BoundaryCurve, OvalResult } from '../../workers/protocol';
-import { mergeOvalParts, startEngine } from '../../src/app/engine';
+import { mergeOvalParts, mergeSceneParts, splitFan, startEngine } from '../../src/app/engine';
 import { setConditions, store } from '../../src/app/store';
 import { staleReason } from '../../src/app/store/freshness';
 import { expectAtMost } from '../helpers';
@@ -34,6 +34,29 @@ function maxDiffDeg(a: BoundaryCurve[], b: BoundaryCurve[]): { openClosed: numbe
   });
   return worst;
 }
+
+describe('scene on two workers', () => {
+  it('half the fan on each worker, merged, equals the whole fan traced by one worker (every point, offset and type)', async () => {
+    const fan = { mltHours: [0, 3, 6, 9, 12, 15, 18, 21], magLatDeg: [58, 67, 76, 82] };
+    const halves = splitFan(fan);
+    expect(halves.map((h) => h.mltHours)).toEqual([[0, 3, 6, 9], [12, 15, 18, 21]]);
+    expect(splitFan({ mltHours: [6], magLatDeg: [70] })).toHaveLength(1);
+    const c = { ...C, internal: 'igrf' as const };
+    const one = await createEngineApi().scene(1, c, fan);
+    const two = mergeSceneParts(1, await Promise.all([createEngineApi().scene(1, c, halves[0]), createEngineApi().scene(1, c, halves[1])]));
+    expect(two.error).toBeUndefined();
+    expect(Array.from(two.lines.offsets)).toEqual(Array.from(one.lines.offsets));
+    expect(Array.from(two.lines.types)).toEqual(Array.from(one.lines.types));
+    expect(two.lines.pointsGeo.length).toBe(one.lines.pointsGeo.length);
+    expect(two.lines.pointsGeo.every((v, i) => Object.is(v, one.lines.pointsGeo[i]))).toBe(true);
+    expect(two.frames).toEqual(one.frames);
+    expect(two.magnetopause).toEqual(one.magnetopause);
+    expect(two.warnings).toEqual(one.warnings);
+    const stale = mergeSceneParts(2, [{ ...one, requestId: 2 }, { ...one, requestId: 2, stale: true }]);
+    expect(stale.stale).toBe(true);
+    expect(mergeSceneParts(2, [{ ...one, error: 'time: x' }, one]).error).toBe('time: x');
+  });
+});
 
 describe('oval on two workers', () => {
   it('one hemisphere per worker equals the one-worker oval to 0.01° over a sequence of changes (previous answers as hints)', async () => {
@@ -110,6 +133,9 @@ describe('oval on two workers', () => {
       expect(d.openClosed).toBe(0);
       expectAtMost(d.equatorward, 0.01, 'store oval (two workers) vs one worker, equatorward');
       expect(got.used).toEqual(want.used);
+      // The scene came in two halves of the fan (8 MLT meridians × 8 latitudes).
+      await until(() => store.get().scene !== null && staleReason(store.get(), 'scene') === null);
+      expect(store.get().scene!.lines.types.length).toBe(64);
     } finally {
       engine.dispose();
     }

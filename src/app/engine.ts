@@ -200,7 +200,21 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
     write(a, seq);
     noteStep(what, seq, 'stored');
   };
-  const scene = new Channel<SceneResult>(marked('scene', (a, seq) => store.set({ scene: keepUnchanged(a, store.get().scene), errors: errorsWithout('scene'), sceneSeq: seq, ...book.answered('scene', a.requestId) })), reportError('scene'), reportBusy('scene'));
+  // Set below (the refined products' schedule): the scene channel went idle; the oval waits for the scene or for rest.
+  let sceneDone = () => {};
+  let ovalWaits = () => false;
+  const sceneBusy = reportBusy('scene');
+  let sceneInFlight = false;
+  const scene = new Channel<SceneResult>(marked('scene', (a, seq) => {
+    const answered = book.answered('scene', a.requestId);
+    // The scene for the current conditions is in: the oval waiting for it goes out before React draws the lines.
+    if (answered.answeredFor.scene?.conditions === store.get().conditions) sceneDone();
+    store.set({ scene: keepUnchanged(a, store.get().scene), errors: errorsWithout('scene'), sceneSeq: seq, ...answered });
+  }), reportError('scene'), (b) => {
+    sceneBusy(b);
+    sceneInFlight = b;
+    if (!b) sceneDone();
+  });
   // After a change the sites and the sweep (many model preparations) wait until the oval is idle,
   // so the refined oval has the worker to itself (their work would interleave with its sectors).
   let sweepDue = false;
@@ -210,8 +224,8 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
   // once and the older one stops at its next pause (Channel's supersede); the scene does not pause.
   const oval = new Channel<OvalResult>(marked('oval', (a, seq) => store.set({ oval: a, errors: errorsWithout('oval'), ovalSeq: seq, ...book.answered('oval', a.requestId) })), reportError('oval'), (b) => {
     ovalBusy(b);
-    // Busy, or idle between a drag's first oval and the one asked at rest: sites and sweep wait.
-    if (b || settle !== undefined) return;
+    // Busy, or idle while the next oval waits (for the scene, or for the controls to rest): sites and sweep wait.
+    if (b || ovalWaits()) return;
     if (sitesDue) {
       sitesDue = false;
       askSites();
@@ -251,19 +265,23 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
     return api.sweep(id, s.conditions, { ...productOpts(s), vary: v, ...SWEEP[v], mltHours: s.view.sweepMlt });
   });
 
-  // An isolated change asks for the refined oval at once, so the workers search while the main
-  // thread draws the new lines. A change that follows the previous one within SETTLE_MS is part of
-  // a drag: the refined products wait until the controls rest that long (longer than the interval
-  // of a drag's input events), so dragging stays fluid; the oval already running for the drag's
-  // first step is superseded by the request at rest, and sites and sweep wait for it.
+  // Scene first: after an isolated condition change the oval is asked once the scene's answer is
+  // in (both workers trace their half of the fan first), so the oval searches do not slow the
+  // scene's tracing; a change of the products alone (no new scene) asks at once. A change that
+  // follows the previous one within SETTLE_MS is part of a drag: the refined products wait until
+  // the controls rest that long (longer than the interval of a drag's input events), so dragging
+  // stays fluid; an oval already running is superseded by the request at rest, and sites and
+  // sweep wait for it.
   let settle: ReturnType<typeof setTimeout> | undefined;
+  let afterScene: (() => void) | null = null;
   let lastChangeAt = -Infinity;
-  const refine = (withSweep: boolean) => {
+  const refine = (withSweep: boolean, sceneAsked: boolean) => {
     const now = performance.now();
     const inDrag = now - lastChangeAt < SETTLE_MS;
     lastChangeAt = now;
     clearTimeout(settle);
     settle = undefined;
+    afterScene = null;
     const ask = () => {
       settle = undefined;
       if (withSweep) sweepDue = true;
@@ -271,15 +289,22 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
       askOval();
     };
     if (inDrag) settle = setTimeout(ask, SETTLE_MS);
+    else if (sceneAsked && sceneInFlight) afterScene = ask;
     else ask();
   };
+  sceneDone = () => {
+    const ask = afterScene;
+    afterScene = null;
+    if (ask) ask();
+  };
+  ovalWaits = () => settle !== undefined || afterScene !== null;
 
   const unsub = store.subscribe((s, prev) => {
     if (s.conditions !== prev.conditions) {
       askScene();
-      refine(true);
+      refine(true, true);
     } else if (s.products !== prev.products) {
-      refine(true);
+      refine(true, false);
     } else if (s.sites !== prev.sites) {
       askSites();
     }

@@ -17,7 +17,7 @@ const json = argv.includes('--json');
 /** --raw: print every change's steps too (one JSON line each, before the summary). */
 const raw = argv.includes('--raw');
 const runsAt = argv.indexOf('--runs');
-const runs = runsAt >= 0 ? Math.max(3, Number(argv[runsAt + 1]) || 15) : 15;
+const runs = runsAt >= 0 ? Math.max(3, Number(argv[runsAt + 1]) || 20) : 20;
 
 const median = (v: number[]) => {
   const s = [...v].sort((a, b) => a - b);

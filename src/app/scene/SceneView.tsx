@@ -2,6 +2,7 @@
 import { useEffect, useMemo } from 'react';
 import { Canvas, useFrame, useThree } from '@react-three/fiber';
 import { frameRendered } from '../perf';
+import { useStore } from '../store';
 import { setSnapshotter } from './snapshot';
 import { Earth } from './Earth';
 import { Graticules } from './Graticules';
@@ -20,6 +21,22 @@ function RenderAndMark() {
     gl.render(scene, camera);
     frameRendered(performance.now() - t, gl.info.render.calls, gl.info.render.triangles + gl.info.render.lines);
   }, 1);
+  return null;
+}
+
+/**
+ * Draws a new scene or oval answer at once instead of at the next animation frame: the last child
+ * of the canvas, so its effect runs after every part has put its new geometry in place; drawing
+ * uses up the frame those parts asked for (invalidate), so nothing is drawn twice. The new lines
+ * reach the screen up to one frame sooner.
+ */
+function DrawAnswers() {
+  const scene = useStore((s) => s.scene);
+  const oval = useStore((s) => s.oval);
+  const advance = useThree((s) => s.advance);
+  useEffect(() => {
+    if (scene || oval) advance(performance.now());
+  }, [scene, oval, advance]);
   return null;
 }
 
@@ -61,6 +78,7 @@ export function SceneView() {
       <FieldLines />
       <Sites3D />
       <Magnetopause />
+      <DrawAnswers />
     </Canvas>
   );
 }

@@ -27,7 +27,7 @@ export const appSection: BenchSection = {
       return { figures: [], detail: { skipped: `no Chromium at ${chromium}` } };
     }
     const script = fileURLToPath(new URL('./browser.ts', import.meta.url));
-    const runs = o.quick ? 3 : 15;
+    const runs = o.quick ? 3 : 20;
     const r = spawnSync(process.execPath, [...process.execArgv, script, '--json', '--runs', String(runs)], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'], timeout: 15 * 60_000 });
     const line = (r.stdout ?? '').trim().split('\n').filter((l) => l.startsWith('{')).pop();
     if (r.status !== 0 || !line) throw new Error(`browser bench failed (exit ${String(r.status ?? r.signal)}): ${(r.stderr ?? '').trim().split('\n').slice(-3).join(' | ')}`);

@@ -24,9 +24,15 @@ function withTransfer<T>(p: Promise<T>): Promise<T> {
   return p.then((r) => transfer(r, [...buffersOf(r, new Set())]));
 }
 
+/** As withTransfer, with the call's wall time in the worker (from the call to the answer) as `workerMs`. */
+function timed<T extends { workerMs?: number }>(call: () => Promise<T>): Promise<T> {
+  const t0 = performance.now();
+  return withTransfer(call().then((r) => ({ ...r, workerMs: performance.now() - t0 })));
+}
+
 const api: EngineApi = {
-  scene: (id, c, fan) => withTransfer(inner.scene(id, c, fan)),
-  oval: (id, c, o) => withTransfer(inner.oval(id, c, o)),
+  scene: (id, c, fan) => timed(() => inner.scene(id, c, fan)),
+  oval: (id, c, o) => timed(() => inner.oval(id, c, o)),
   sites: (id, c, o, s) => withTransfer(inner.sites(id, c, o, s)),
   sweep: (id, c, o) => withTransfer(inner.sweep(id, c, o)),
   // The progress callback arrives as a comlink proxy: release its port once the call is over.

@@ -52,6 +52,8 @@ export interface SceneResult {
   frames: FrameInfo;
   magnetopause: MagnetopauseInfo;
   lines: LineBundle;
+  /** The worker's compute time for this answer, ms (set by engine.worker.ts; for the timing marks). */
+  workerMs?: number;
 }
 
 /** One boundary curve per hemisphere, sampled per MLT; NaN where absent. */
@@ -94,6 +96,8 @@ export interface OvalResult {
   curves: BoundaryCurve[];
   /** Absent on a stale or failed answer. */
   used?: ModelUsed;
+  /** The worker's compute time for this answer, ms (set by engine.worker.ts; for the timing marks). */
+  workerMs?: number;
 }
 
 export type { SiteInput, SiteResult } from '../src/physics/mapping';
@@ -138,6 +142,14 @@ export interface SweepResult {
 
 /** Product options of a request: sourceRe absent = the model's storm-following value; minLatDeg = lowest latitude of the boundary searches. */
 export type RequestProducts = Omit<ProductOptions, 'sourceRe'> & { sourceRe?: number; minLatDeg?: number };
+
+/** Options of an oval request. */
+export type OvalOptions = RequestProducts & {
+  mltStepHours: number;
+  latTolDeg?: number;
+  /** The hemispheres to search, in this order (default both, north first); each once. */
+  hemispheres?: ('north' | 'south')[];
+};
 
 /** One step of a timeline: the time and the solar wind (the rest of the conditions come from `base`). */
 export interface TimelineStepInput {
@@ -219,8 +231,11 @@ export type TimelineProgress = (done: number, total: number) => void;
 export interface EngineApi {
   /** Frames, magnetopause and a fan of field lines (fast: the first thing drawn). */
   scene(requestId: number, c: FieldConditions, fan: FanSpec): Promise<SceneResult>;
-  /** Boundaries per MLT for both hemispheres (slower; refined). */
-  oval(requestId: number, c: FieldConditions, o: RequestProducts & { mltStepHours: number; latTolDeg?: number }): Promise<OvalResult>;
+  /**
+   * Boundaries per MLT (slower; refined): both hemispheres, or only those in o.hemispheres
+   * (curves in the order asked), so two workers can share one oval (src/app/engine.ts).
+   */
+  oval(requestId: number, c: FieldConditions, o: OvalOptions): Promise<OvalResult>;
   /** Conjugates and products for sites. Conjugate altitude: o.conjugateAltKm (default 0). */
   sites(requestId: number, c: FieldConditions, o: RequestProducts & { conjugateAltKm?: number; minElevationDeg?: number }, sites: SiteInput[]): Promise<SitesResult>;
   sweep(requestId: number, c: FieldConditions, o: RequestProducts & { vary: 'pdyn' | 'bz'; from: number; to: number; steps: number; mltHours: number }): Promise<SweepResult>;

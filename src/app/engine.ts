@@ -1,12 +1,15 @@
 /**
- * The engine client: the app's only link to the worker. Watches the store,
+ * The engine client: the app's only link to the workers. Watches the store,
  * asks for the fast scene first and the refined oval, sites and sweep after,
- * and writes current answers back into the store.
+ * and writes current answers back into the store. Two engine workers (two
+ * cores): each traces half of the scene's fan and then searches one
+ * hemisphere's oval; the main one also answers sites and sweep.
  */
 import * as Comlink from 'comlink';
-import type { EngineApi, FanSpec, OvalResult, SceneResult, SitesResult, SweepResult } from '../../workers/protocol';
+import type { EngineApi, FanSpec, FrameInfo, OvalResult, SceneResult, SitesResult, SweepResult } from '../../workers/protocol';
 import { Channel } from './channel';
 import { conjugateAltOf, store, type AnsweredFor, type AppState } from './store';
+import { noteStep } from './perf';
 
 /** The field-line fan: MLT meridians every 3 h, seeds from 58° to 82° magnetic latitude. */
 const FAN: FanSpec = {
@@ -19,7 +22,7 @@ const SWEEP = { pdyn: { from: 0.3, to: 30, steps: 13 }, bz: { from: -20, to: 10,
 
 const OVAL_MLT_STEP_H = 0.5;
 
-/** Rest of the controls (ms) before the refined products are asked for. */
+/** Changes closer than this (ms) are a drag: the refined products wait until the controls rest this long. */
 const SETTLE_MS = 40;
 
 interface EngineClient {
@@ -73,6 +76,95 @@ function requestBook() {
   };
 }
 
+/** Whether two frame blocks hold the same numbers (typed arrays element by element). */
+export function sameFrames(a: FrameInfo, b: FrameInfo): boolean {
+  for (const k of Object.keys(a) as (keyof FrameInfo)[]) {
+    const x = a[k], y = b[k];
+    if (typeof x === 'number' || typeof y === 'number') {
+      if (!Object.is(x, y)) return false;
+    } else if (x.length !== y.length || x.some((v, i) => !Object.is(v, y[i]))) return false;
+  }
+  return Object.keys(b).length === Object.keys(a).length;
+}
+
+/**
+ * A scene answer with the current answer's frames and magnetopause objects kept where their
+ * numbers did not change (a pressure step changes neither the frames nor, with the
+ * magnetopause off, its block): the parts of the page that draw only those (axes, globe,
+ * graticules, polar maps) then skip the answer.
+ */
+function keepUnchanged(a: SceneResult, cur: SceneResult | null): SceneResult {
+  if (!cur) return a;
+  const frames = sameFrames(cur.frames, a.frames) ? cur.frames : a.frames;
+  const m = a.magnetopause, n = cur.magnetopause;
+  const magnetopause = m.enabled === n.enabled && Object.is(m.r0Re, n.r0Re) && Object.is(m.alpha, n.alpha) ? n : m;
+  return frames === a.frames && magnetopause === a.magnetopause ? a : { ...a, frames, magnetopause };
+}
+
+/**
+ * One oval from the answers of its parts (one hemisphere per worker): stale when any part is, the
+ * first part's error when any failed, else the curves in the parts' order, the warnings of all
+ * (each once), the first part's `used` (every part prepared the same conditions) and the longest
+ * worker time.
+ */
+export function mergeOvalParts(requestId: number, parts: OvalResult[]): OvalResult {
+  if (parts.length === 1) return parts[0];
+  if (parts.some((p) => p.stale)) return { requestId, stale: true, warnings: [], curves: [] };
+  const failed = parts.find((p) => p.error !== undefined);
+  if (failed) return { requestId, error: failed.error, warnings: [], curves: [] };
+  const times = parts.map((p) => p.workerMs).filter((t): t is number => t !== undefined);
+  return {
+    requestId,
+    warnings: [...new Set(parts.flatMap((p) => p.warnings))],
+    curves: parts.flatMap((p) => p.curves),
+    ...(parts[0].used ? { used: parts[0].used } : {}),
+    ...(times.length > 0 ? { workerMs: Math.max(...times) } : {}),
+  };
+}
+
+/**
+ * One scene from the answers of its parts (the fan's MLT meridians split between the workers, in
+ * order): stale when any part is, the first error when any failed, else the first part's frames and
+ * magnetopause (every part prepared the same conditions), the lines of all parts one after the
+ * other (offsets moved on), the warnings of all (each once) and the longest worker time.
+ */
+export function mergeSceneParts(requestId: number, parts: SceneResult[]): SceneResult {
+  if (parts.length === 1) return parts[0];
+  const first = parts[0];
+  const base = { requestId, warnings: [], frames: first.frames, magnetopause: first.magnetopause, lines: first.lines };
+  if (parts.some((p) => p.stale)) return { ...base, stale: true };
+  const failed = parts.find((p) => p.error !== undefined);
+  if (failed) return { ...base, error: failed.error };
+  let nPoints = 0, nLines = 0;
+  for (const p of parts) { nPoints += p.lines.pointsGeo.length / 3; nLines += p.lines.types.length; }
+  const pointsGeo = new Float64Array(3 * nPoints);
+  const offsets = new Int32Array(nLines + 1);
+  const types = new Uint8Array(nLines);
+  let pt = 0, ln = 0;
+  for (const p of parts) {
+    const b = p.lines;
+    pointsGeo.set(b.pointsGeo, 3 * pt);
+    types.set(b.types, ln);
+    for (let i = 1; i < b.offsets.length; i++) offsets[ln + i] = pt + b.offsets[i];
+    pt += b.pointsGeo.length / 3;
+    ln += b.types.length;
+  }
+  const times = parts.map((p) => p.workerMs).filter((t): t is number => t !== undefined);
+  return {
+    ...base,
+    warnings: [...new Set(parts.flatMap((p) => p.warnings))],
+    lines: { pointsGeo, offsets, types },
+    ...(times.length > 0 ? { workerMs: Math.max(...times) } : {}),
+  };
+}
+
+/** The fan split in two by MLT meridians (first half, second half), or the whole fan alone when it has one meridian. */
+export function splitFan(fan: FanSpec): FanSpec[] {
+  const k = Math.ceil(fan.mltHours.length / 2);
+  if (fan.mltHours.length < 2) return [fan];
+  return [{ mltHours: fan.mltHours.slice(0, k), magLatDeg: fan.magLatDeg }, { mltHours: fan.mltHours.slice(k), magLatDeg: fan.magLatDeg }];
+}
+
 /** Product options of a request; a source distance left to follow the conditions is not sent. */
 const productOpts = (s: AppState) => ({
   altKm: s.products.altKm,
@@ -80,14 +172,49 @@ const productOpts = (s: AppState) => ({
   ...(s.products.sourceRe === null ? {} : { sourceRe: s.products.sourceRe }),
 });
 
-export function startEngine(makeWorker?: () => Worker): EngineClient {
-  const worker = makeWorker ? makeWorker() : new Worker(new URL('../../workers/engine.worker.ts', import.meta.url), { type: 'module' });
+/** Which engine worker: 'main' (half the scene, the north oval, sites, sweep) or 'oval' (the other half of the scene, the south oval). */
+export type WorkerRole = 'main' | 'oval';
+
+/**
+ * Start the client. `makeWorker` (tests) makes each worker; by default two module workers of
+ * workers/engine.worker.ts, or one where the browser reports a single core (`workers: 1`).
+ */
+export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { workers?: 1 | 2 } = {}): EngineClient {
+  const make = makeWorker ?? (() => new Worker(new URL('../../workers/engine.worker.ts', import.meta.url), { type: 'module' }));
+  const nWorkers = opts.workers ?? (typeof navigator !== 'undefined' && navigator.hardwareConcurrency === 1 ? 1 : 2);
+  const worker = make('main');
   const api = Comlink.wrap<EngineApi>(worker);
   worker.addEventListener('error', (e) => reportError('engine')(`engine worker failed: ${e.message || 'could not start'}`));
+  // The second worker traces half the fan and searches the south oval while the first does the rest.
+  const ovalWorker = nWorkers > 1 ? make('oval') : null;
+  const ovalApi = ovalWorker ? Comlink.wrap<EngineApi>(ovalWorker) : null;
+  ovalWorker?.addEventListener('error', (e) => reportError('engine')(`oval worker failed: ${e.message || 'could not start'}`));
 
   // Each answer remembers which change and which inputs it belongs to.
   const book = requestBook();
-  const scene = new Channel<SceneResult>((a) => store.set({ scene: a, errors: errorsWithout('scene'), sceneSeq: book.seq('scene', a.requestId), ...book.answered('scene', a.requestId) }), reportError('scene'), reportBusy('scene'));
+  /** Timing marks of an answer (perf.ts): back on the main thread, the worker's time, then stored. */
+  const marked = <A extends { requestId: number; workerMs?: number }>(what: 'scene' | 'oval', write: (a: A, seq: number) => void) => (a: A) => {
+    const seq = book.seq(what, a.requestId);
+    noteStep(what, seq, 'answered');
+    if (a.workerMs !== undefined) noteStep(what, seq, 'workerMs', a.workerMs);
+    write(a, seq);
+    noteStep(what, seq, 'stored');
+  };
+  // Set below (the refined products' schedule): the scene channel went idle; the oval waits for the scene or for rest.
+  let sceneDone = () => {};
+  let ovalWaits = () => false;
+  const sceneBusy = reportBusy('scene');
+  let sceneInFlight = false;
+  const scene = new Channel<SceneResult>(marked('scene', (a, seq) => {
+    const answered = book.answered('scene', a.requestId);
+    // The scene for the current conditions is in: the oval waiting for it goes out before React draws the lines.
+    if (answered.answeredFor.scene?.conditions === store.get().conditions) sceneDone();
+    store.set({ scene: keepUnchanged(a, store.get().scene), errors: errorsWithout('scene'), sceneSeq: seq, ...answered });
+  }), reportError('scene'), (b) => {
+    sceneBusy(b);
+    sceneInFlight = b;
+    if (!b) sceneDone();
+  });
   // After a change the sites and the sweep (many model preparations) wait until the oval is idle,
   // so the refined oval has the worker to itself (their work would interleave with its sectors).
   let sweepDue = false;
@@ -95,9 +222,10 @@ export function startEngine(makeWorker?: () => Worker): EngineClient {
   const ovalBusy = reportBusy('oval');
   // Oval, sites and sweep pause between pieces of work in the worker, so a newer request goes out at
   // once and the older one stops at its next pause (Channel's supersede); the scene does not pause.
-  const oval = new Channel<OvalResult>((a) => store.set({ oval: a, errors: errorsWithout('oval'), ovalSeq: book.seq('oval', a.requestId), ...book.answered('oval', a.requestId) }), reportError('oval'), (b) => {
+  const oval = new Channel<OvalResult>(marked('oval', (a, seq) => store.set({ oval: a, errors: errorsWithout('oval'), ovalSeq: seq, ...book.answered('oval', a.requestId) })), reportError('oval'), (b) => {
     ovalBusy(b);
-    if (b) return;
+    // Busy, or idle while the next oval waits (for the scene, or for the controls to rest): sites and sweep wait.
+    if (b || ovalWaits()) return;
     if (sitesDue) {
       sitesDue = false;
       askSites();
@@ -110,10 +238,22 @@ export function startEngine(makeWorker?: () => Worker): EngineClient {
   const sites = new Channel<SitesResult>((a) => store.set({ siteResults: a, errors: errorsWithout('sites'), ...book.answered('sites', a.requestId) }), reportError('sites'), reportBusy('sites'), true);
   const sweep = new Channel<SweepResult>((a) => store.set({ sweep: a, errors: errorsWithout('sweep'), ...book.answered('sweep', a.requestId) }), reportError('sweep'), reportBusy('sweep'), true);
 
-  const askScene = () => scene.request((id) => api.scene(id, book.remember('scene', id).conditions, FAN));
+  const askScene = () => scene.request((id) => {
+    const s = book.remember('scene', id);
+    noteStep('scene', s.perf.seq, 'sent');
+    if (!ovalApi) return api.scene(id, s.conditions, FAN);
+    // Half the fan on each worker, each before its half of the oval (asked right after).
+    const [a, b] = splitFan(FAN);
+    return Promise.all([api.scene(id, s.conditions, a), ovalApi.scene(id, s.conditions, b)]).then((parts) => mergeSceneParts(id, parts));
+  });
   const askOval = () => oval.request((id) => {
     const s = book.remember('oval', id);
-    return api.oval(id, s.conditions, { ...productOpts(s), mltStepHours: OVAL_MLT_STEP_H });
+    noteStep('oval', s.perf.seq, 'sent');
+    const o = { ...productOpts(s), mltStepHours: OVAL_MLT_STEP_H };
+    if (!ovalApi) return api.oval(id, s.conditions, o);
+    // One hemisphere per worker (each keeps its own previous answer as the next request's hints).
+    return Promise.all([api.oval(id, s.conditions, { ...o, hemispheres: ['north'] }), ovalApi.oval(id, s.conditions, { ...o, hemispheres: ['south'] })])
+      .then((parts) => mergeOvalParts(id, parts));
   });
   const askSites = () => sites.request((id) => {
     const s = book.remember('sites', id);
@@ -125,24 +265,46 @@ export function startEngine(makeWorker?: () => Worker): EngineClient {
     return api.sweep(id, s.conditions, { ...productOpts(s), vary: v, ...SWEEP[v], mltHours: s.view.sweepMlt });
   });
 
-  // Refined products wait until the controls rest a moment (longer than the interval of a drag's
-  // input events), so dragging stays fluid; a stale oval stops at its next sector anyway.
+  // Scene first: after an isolated condition change the oval is asked once the scene's answer is
+  // in (both workers trace their half of the fan first), so the oval searches do not slow the
+  // scene's tracing; a change of the products alone (no new scene) asks at once. A change that
+  // follows the previous one within SETTLE_MS is part of a drag: the refined products wait until
+  // the controls rest that long (longer than the interval of a drag's input events), so dragging
+  // stays fluid; an oval already running is superseded by the request at rest, and sites and
+  // sweep wait for it.
   let settle: ReturnType<typeof setTimeout> | undefined;
-  const refine = (withSweep: boolean) => {
+  let afterScene: (() => void) | null = null;
+  let lastChangeAt = -Infinity;
+  const refine = (withSweep: boolean, sceneAsked: boolean) => {
+    const now = performance.now();
+    const inDrag = now - lastChangeAt < SETTLE_MS;
+    lastChangeAt = now;
     clearTimeout(settle);
-    settle = setTimeout(() => {
+    settle = undefined;
+    afterScene = null;
+    const ask = () => {
+      settle = undefined;
       if (withSweep) sweepDue = true;
       sitesDue = true;
       askOval();
-    }, SETTLE_MS);
+    };
+    if (inDrag) settle = setTimeout(ask, SETTLE_MS);
+    else if (sceneAsked && sceneInFlight) afterScene = ask;
+    else ask();
   };
+  sceneDone = () => {
+    const ask = afterScene;
+    afterScene = null;
+    if (ask) ask();
+  };
+  ovalWaits = () => settle !== undefined || afterScene !== null;
 
   const unsub = store.subscribe((s, prev) => {
     if (s.conditions !== prev.conditions) {
       askScene();
-      refine(true);
+      refine(true, true);
     } else if (s.products !== prev.products) {
-      refine(true);
+      refine(true, false);
     } else if (s.sites !== prev.sites) {
       askSites();
     }
@@ -159,6 +321,7 @@ export function startEngine(makeWorker?: () => Worker): EngineClient {
       unsub();
       clearTimeout(settle);
       worker.terminate();
+      ovalWorker?.terminate();
     },
     refreshSweep: askSweep,
   };

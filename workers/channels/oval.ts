@@ -15,7 +15,8 @@
  * newer request stops the work between sectors.
  */
 import { mltGrid, sectorBoundaries, predictHint, type SectorBoundaries, type Hemisphere, type BoundaryHint } from '../../src/physics/mapping';
-import type { BoundaryCurve, EngineApi, OvalResult } from '../protocol';
+import type { BoundaryCurve, EngineApi, OvalOptions, OvalResult } from '../protocol';
+import { InputError, expectedGot } from '../../src/physics/errors';
 import type { EngineContext } from './context';
 import { modelUsed } from './used';
 
@@ -159,33 +160,42 @@ async function hemisphereInOrder(
   return { sectors: done as SectorBoundaries[], shift };
 }
 
+/** The hemispheres of a request: o.hemispheres (each once, 'north' or 'south'), default both. */
+function hemispheresOf(o: OvalOptions): Hemisphere[] {
+  const h = o.hemispheres ?? ['north', 'south'];
+  const ok = Array.isArray(h) && h.length > 0 && h.every((x) => x === 'north' || x === 'south') && new Set(h).size === h.length;
+  if (!ok) throw new InputError('hemispheres', expectedGot("a non-empty list of 'north' and/or 'south', each once", JSON.stringify(h)));
+  return [...h];
+}
+
 export function ovalChannel(ctx: EngineContext): EngineApi['oval'] {
-  // The last complete answer (sectors per hemisphere) and the grid it was computed on: the hints of the next request.
-  let last: { key: string; sectors: Record<Hemisphere, SectorBoundaries[]> } | null = null;
+  // The last complete answer per hemisphere and the grid it was computed on: the hints of the next request.
+  const last: Partial<Record<Hemisphere, { key: string; sectors: SectorBoundaries[] }>> = {};
   return (requestId, c, o) => ctx.run<OvalResult>('oval', requestId, () => ({ requestId, warnings: [], curves: [] }), async () => {
+    const hemispheres = hemispheresOf(o);
     const m = ctx.model(c);
     const t = ctx.tracer(m, o.altKm);
     const mlts = mltGrid(o.mltStepHours);
     // No source distance in the request: the model's storm-following value (sectorBoundaries).
     const opts = { sourceRe: o.sourceRe, latTolDeg: o.latTolDeg ?? 0.01, ...(o.minLatDeg === undefined ? {} : { minLatDeg: o.minLatDeg }) };
     const key = JSON.stringify([o.mltStepHours, o.altKm, opts.sourceRe ?? null, opts.latTolDeg, o.minLatDeg ?? null]);
-    const prev = last && last.key === key ? last.sectors : null;
     const curves: BoundaryCurve[] = [];
-    const sectors = { north: [], south: [] } as Record<Hemisphere, SectorBoundaries[]>;
-    // The first hemisphere's shifts predict the second's.
+    const found: Partial<Record<Hemisphere, SectorBoundaries[]>> = {};
+    // The first hemisphere's shifts predict the second's (when one request asks for both).
     let ref: Record<Which, Float64Array> | null = null;
-    for (const hemisphere of ['north', 'south'] as const) {
+    for (const hemisphere of hemispheres) {
       const cur = emptyCurve(hemisphere, mlts);
-      const { sectors: found, shift } = await hemisphereInOrder(
+      const prev = last[hemisphere]?.key === key ? last[hemisphere]!.sectors : null;
+      const { sectors, shift } = await hemisphereInOrder(
         (i, hint) => sectorBoundaries(m, t, hemisphere, mlts[i], opts, hint),
-        mlts.length, prev ? prev[hemisphere] : null, ref, () => ctx.pause('oval', requestId),
+        mlts.length, prev, ref, () => ctx.pause('oval', requestId),
       );
-      ref = shift;
-      found.forEach((b, i) => fillSector(cur, i, b));
-      sectors[hemisphere] = found;
+      ref = prev ? shift : null;
+      sectors.forEach((b, i) => fillSector(cur, i, b));
+      found[hemisphere] = sectors;
       curves.push(cur);
     }
-    last = { key, sectors };
+    for (const h of hemispheres) last[h] = { key, sectors: found[h]! };
     return { requestId, warnings: [...m.warnings], curves, used: modelUsed(m, o.sourceRe) };
   });
 }

@@ -4,7 +4,7 @@ import { useThree } from '@react-three/fiber';
 import * as THREE from 'three';
 import { bundleSegments } from '../lib/sphere';
 import { store, useStore } from '../store';
-import { awaitDraw } from '../perf';
+import { awaitDraw, noteStep } from '../perf';
 
 export function FieldLines() {
   const lines = useStore((s) => s.scene?.lines);
@@ -17,6 +17,7 @@ export function FieldLines() {
     g.setAttribute('position', new THREE.BufferAttribute(positions, 3));
     g.setAttribute('color', new THREE.BufferAttribute(colours, 3));
     g.setIndex(new THREE.BufferAttribute(index, 1));
+    noteStep('scene', store.get().sceneSeq, 'built');
     return g;
   }, [lines]);
   useEffect(() => {

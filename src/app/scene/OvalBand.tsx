@@ -6,7 +6,7 @@ import { ovalBandMesh } from '../lib/sphere';
 import { OVAL_COLOURS } from '../lib/palette';
 import { RE_KM } from '../../physics/constants';
 import { store, useStore } from '../store';
-import { awaitDraw } from '../perf';
+import { awaitDraw, noteStep } from '../perf';
 
 export function OvalBand() {
   const oval = useStore((s) => s.oval);
@@ -15,7 +15,7 @@ export function OvalBand() {
   const parts = useMemo(() => {
     if (!oval) return [];
     const r = 1 + Math.max(altKm, 15) / RE_KM; // lift ground-level bands just clear of the globe
-    return oval.curves.map((c) => {
+    const built = oval.curves.map((c) => {
       const m = ovalBandMesh(c, r);
       const band = new THREE.BufferGeometry();
       band.setAttribute('position', new THREE.BufferAttribute(m.positions, 3));
@@ -24,6 +24,8 @@ export function OvalBand() {
       edges.setAttribute('position', new THREE.BufferAttribute(m.edges, 3));
       return { key: c.hemisphere, band, edges };
     });
+    noteStep('oval', store.get().ovalSeq, 'built');
+    return built;
   }, [oval, altKm]);
   useEffect(() => {
     awaitDraw('oval', store.get().ovalSeq);

@@ -1,0 +1,82 @@
+import { describe, it, expect } from 'vitest';
+import { MessageChannel } from 'node:worker_threads';
+import { expose } from 'comlink';
+import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
+import { createEngineApi } from '../../workers/engine-api';
+import type { EngineApi } from '../../workers/protocol';
+import { startEngine } from '../../src/app/engine';
+import { setConditions, store } from '../../src/app/store';
+import { staleReason } from '../../src/app/store/freshness';
+
+// The engine client's schedule (src/app/engine.ts): scene first, the oval once the scene is in, one
+// hemisphere per worker; during a drag (changes closer than 40 ms) the oval waits until the controls rest.
+type Ev = { worker: string; what: 'scene' | 'oval'; edge: 'start' | 'end'; pdynNpa: number; hemispheres?: string[] };
+
+function loggingWorker(name: string, log: Ev[]): Worker {
+  const inner = createEngineApi();
+  const api: EngineApi = {
+    ...inner,
+    scene: async (id, c, fan) => { log.push({ worker: name, what: 'scene', edge: 'start', pdynNpa: c.pdynNpa }); const r = await inner.scene(id, c, fan); log.push({ worker: name, what: 'scene', edge: 'end', pdynNpa: c.pdynNpa }); return r; },
+    oval: async (id, c, o) => { log.push({ worker: name, what: 'oval', edge: 'start', pdynNpa: c.pdynNpa, hemispheres: o.hemispheres }); const r = await inner.oval(id, c, o); log.push({ worker: name, what: 'oval', edge: 'end', pdynNpa: c.pdynNpa }); return r; },
+  };
+  const { port1, port2 } = new MessageChannel();
+  expose(api, nodeEndpoint(port2));
+  const ep = nodeEndpoint(port1);
+  return {
+    postMessage: ep.postMessage.bind(ep),
+    addEventListener: (type: string, l: EventListener) => { if (type === 'message') ep.addEventListener('message', l); },
+    removeEventListener: (type: string, l: EventListener) => { if (type === 'message') ep.removeEventListener('message', l); },
+    terminate: () => { port1.close(); port2.close(); },
+  } as unknown as Worker;
+}
+
+async function until(ok: () => boolean, ms = 60_000): Promise<void> {
+  const t0 = Date.now();
+  while (!ok()) {
+    if (Date.now() - t0 > ms) throw new Error('timed out');
+    await new Promise((r) => setTimeout(r, 10));
+  }
+}
+
+const fresh = () => ['scene', 'oval'].every((c) => staleReason(store.get(), c as 'scene' | 'oval') === null) && store.get().oval !== null && store.get().scene !== null;
+
+describe('engine client schedule', () => {
+  it('an isolated change: both scene halves end before either oval half starts; one hemisphere per worker', async () => {
+    setConditions({ internal: 'dipole', tail: false, pdynNpa: 3 });
+    const log: Ev[] = [];
+    const engine = startEngine((role) => loggingWorker(role, log), { workers: 2 });
+    try {
+      await until(fresh);
+      await until(() => !store.get().pending.sites && !store.get().pending.sweep);
+      log.length = 0;
+      setConditions({ pdynNpa: 5 });
+      await until(fresh);
+      const mine = log.filter((e) => e.pdynNpa === 5);
+      const lastSceneEnd = mine.map((e) => e.what === 'scene' && e.edge === 'end').lastIndexOf(true);
+      const firstOvalStart = mine.findIndex((e) => e.what === 'oval' && e.edge === 'start');
+      expect(mine.filter((e) => e.what === 'scene' && e.edge === 'end').map((e) => e.worker).sort()).toEqual(['main', 'oval']);
+      expect(firstOvalStart).toBeGreaterThan(lastSceneEnd);
+      expect(mine.filter((e) => e.what === 'oval' && e.edge === 'start').map((e) => `${e.worker}:${e.hemispheres?.join()}`).sort()).toEqual(['main:north', 'oval:south']);
+    } finally {
+      engine.dispose();
+    }
+  }, 120_000);
+
+  it('a drag (changes closer than 40 ms): no oval for the steps in between, one for the value at rest', async () => {
+    setConditions({ internal: 'dipole', tail: false, pdynNpa: 3 });
+    const log: Ev[] = [];
+    const engine = startEngine((role) => loggingWorker(role, log), { workers: 2 });
+    try {
+      await until(fresh);
+      await until(() => !store.get().pending.sites && !store.get().pending.sweep);
+      log.length = 0;
+      for (const p of [4, 5, 6, 7]) setConditions({ pdynNpa: p });
+      await until(fresh);
+      const ovals = log.filter((e) => e.what === 'oval' && e.edge === 'start');
+      expect(ovals.map((e) => e.pdynNpa)).toEqual([7, 7]);
+      expect(store.get().oval!.curves.map((c) => c.hemisphere)).toEqual(['north', 'south']);
+    } finally {
+      engine.dispose();
+    }
+  }, 120_000);
+});

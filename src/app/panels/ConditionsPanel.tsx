@@ -50,20 +50,15 @@ function StormControls() {
   );
 }
 
-export function ConditionsPanel() {
+/** Dynamic pressure: number, log slider, or from proton density and the solar-wind speed. */
+function PressureControls() {
   const c = useStore((s) => s.conditions);
-  const p = useStore((s) => s.products);
-  const view = useStore((s) => s.view);
   const [density, setDensity] = useState(5);
   const [pMsg, setPMsg] = useState('');
   const speedKms = c.speedKms ?? NOMINAL_SPEED_KMS;
   const fromPlasma = pressureFromPlasma(density, speedKms);
-  const used = useStore((s) => s.oval?.used ?? s.siteResults?.used ?? null);
   return (
-    <section className="panel" aria-labelledby="cond-h">
-      <h2 id="cond-h">Conditions</h2>
-      <LinkNotices />
-      <TimeControl />
+    <>
       <NumberField label="Dynamic pressure (nPa)" value={c.pdynNpa} range={APP_RANGES.pdynNpa} step={0.1} onCommit={(v) => setConditions({ pdynNpa: v })} hint={HINTS.pdyn} />
       <input
         type="range"
@@ -86,11 +81,28 @@ export function ConditionsPanel() {
         )}
         {pMsg && <p role="status" className="msg">{pMsg}</p>}
       </details>
-      <StormControls />
+    </>
+  );
+}
+
+/** IMF Bz and By (GSM), number and slider each. */
+function ImfControls() {
+  const c = useStore((s) => s.conditions);
+  return (
+    <>
       <NumberField label="IMF Bz (nT)" value={c.bzNt} range={APP_RANGES.imfNt} step={0.5} onCommit={(v) => setConditions({ bzNt: v })} hint={HINTS.bz} />
       <input type="range" aria-label="IMF Bz slider (GSM, nT)" min={-30} max={30} step={0.5} value={c.bzNt} onChange={(e) => setConditions({ bzNt: Number(e.target.value) })} />
       <NumberField label="IMF By (nT)" value={c.byNt} range={APP_RANGES.imfNt} step={0.5} onCommit={(v) => setConditions({ byNt: v })} hint={HINTS.by} />
       <input type="range" aria-label="IMF By slider (GSM, nT)" min={-30} max={30} step={0.5} value={c.byNt} onChange={(e) => setConditions({ byNt: Number(e.target.value) })} />
+    </>
+  );
+}
+
+/** Footpoint altitude (preset or custom) and the conjugate altitude (the footpoint's unless set apart). */
+function AltitudeControls() {
+  const p = useStore((s) => s.products);
+  return (
+    <>
       <div className="field">
         <label htmlFor="alt-preset">Altitude preset</label>
         <select
@@ -113,6 +125,17 @@ export function ConditionsPanel() {
         <input type="checkbox" checked={p.conjugateAltKm === null} onChange={(e) => setProducts({ conjugateAltKm: e.target.checked ? null : p.altKm })} /> conjugate point at the footpoint altitude
       </label>
       <NumberField label="Conjugate altitude (km)" value={conjugateAltOf(p)} range={APP_RANGES.altKm} step={10} disabled={p.conjugateAltKm === null} onCommit={(v) => setProducts({ conjugateAltKm: v })} hint={HINTS.conjugateAltKm} />
+    </>
+  );
+}
+
+/** Main field, IMF efficiency, source distance, minimum elevation and the boundary searches' floor. */
+function ModelControls() {
+  const c = useStore((s) => s.conditions);
+  const p = useStore((s) => s.products);
+  const used = useStore((s) => s.oval?.used ?? s.siteResults?.used ?? null);
+  return (
+    <>
       <div className="field">
         <label htmlFor="internal">Internal field</label>
         <select id="internal" value={c.internal} onChange={(e) => setConditions({ internal: e.target.value === 'igrf' ? 'igrf' : 'dipole' })}>
@@ -128,16 +151,40 @@ export function ConditionsPanel() {
       <NumberField label="Source distance (RE)" value={p.sourceRe ?? Number((used?.sourceRe ?? NaN).toFixed(2))} range={APP_RANGES.sourceRe} step={0.5} disabled={p.sourceRe === null} onCommit={(v) => setProducts({ sourceRe: v })} hint={HINTS.sourceRe} />
       <NumberField label="Minimum elevation (deg)" value={p.minElevationDeg} range={APP_RANGES.minElevationDeg} step={1} onCommit={(v) => setProducts({ minElevationDeg: v })} hint={HINTS.minElevation} />
       <NumberField label="Lowest boundary MLAT (deg)" value={p.minLatDeg} range={APP_RANGES.minLatDeg} step={1} onCommit={(v) => setProducts({ minLatDeg: v })} hint={HINTS.minLat} />
-      <fieldset>
-        <legend>Show</legend>
-        <label title={HINTS.magnetopause}><input type="checkbox" checked={c.magnetopause} aria-describedby="hint-mp" onChange={(e) => setConditions({ magnetopause: e.target.checked })} /> magnetopause term</label>
-        <span id="hint-mp" className="hint field-hint">{HINTS.magnetopause}</span>
-        <label title={HINTS.tail}><input type="checkbox" checked={c.tail !== false} aria-describedby="hint-tail" onChange={(e) => setConditions({ tail: e.target.checked })} /> tail current sheet</label>
-        <span id="hint-tail" className="hint field-hint">{HINTS.tail}</span>
-        <label><input type="checkbox" checked={view.magnetopauseSurface} onChange={(e) => setView({ magnetopauseSurface: e.target.checked })} /> magnetopause surface</label>
-        <label><input type="checkbox" checked={view.fan} onChange={(e) => setView({ fan: e.target.checked })} /> field-line fan</label>
-        <label><input type="checkbox" checked={view.magGraticule} onChange={(e) => setView({ magGraticule: e.target.checked })} /> magnetic graticule</label>
-      </fieldset>
+    </>
+  );
+}
+
+/** Model terms switched on or off, and what the 3D view shows. */
+function ShowControls() {
+  const c = useStore((s) => s.conditions);
+  const view = useStore((s) => s.view);
+  return (
+    <fieldset>
+      <legend>Show</legend>
+      <label title={HINTS.magnetopause}><input type="checkbox" checked={c.magnetopause} aria-describedby="hint-mp" onChange={(e) => setConditions({ magnetopause: e.target.checked })} /> magnetopause term</label>
+      <span id="hint-mp" className="hint field-hint">{HINTS.magnetopause}</span>
+      <label title={HINTS.tail}><input type="checkbox" checked={c.tail !== false} aria-describedby="hint-tail" onChange={(e) => setConditions({ tail: e.target.checked })} /> tail current sheet</label>
+      <span id="hint-tail" className="hint field-hint">{HINTS.tail}</span>
+      <label><input type="checkbox" checked={view.magnetopauseSurface} onChange={(e) => setView({ magnetopauseSurface: e.target.checked })} /> magnetopause surface</label>
+      <label><input type="checkbox" checked={view.fan} onChange={(e) => setView({ fan: e.target.checked })} /> field-line fan</label>
+      <label><input type="checkbox" checked={view.magGraticule} onChange={(e) => setView({ magGraticule: e.target.checked })} /> magnetic graticule</label>
+    </fieldset>
+  );
+}
+
+export function ConditionsPanel() {
+  return (
+    <section className="panel" aria-labelledby="cond-h">
+      <h2 id="cond-h">Conditions</h2>
+      <LinkNotices />
+      <TimeControl />
+      <PressureControls />
+      <StormControls />
+      <ImfControls />
+      <AltitudeControls />
+      <ModelControls />
+      <ShowControls />
     </section>
   );
 }

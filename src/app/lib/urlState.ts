@@ -135,39 +135,46 @@ function expandCompressed(q: URLSearchParams, notices: string[]): URLSearchParam
   }
 }
 
-/** Decode a query (with or without "?"); never throws. Each refused value keeps its default and adds a notice. */
-export function decodeUrlState(query: string, defaults: UrlState): DecodedUrlState {
-  const notices: string[] = [];
-  let q: URLSearchParams;
-  try {
-    q = expandCompressed(new URLSearchParams(query.startsWith('?') ? query.slice(1) : query), notices);
-  } catch {
-    return { ...defaults, maps: { cgmGraticule: defaults.maps?.cgmGraticule ?? false }, notices: ['The link could not be read; the defaults are shown.'] };
-  }
-  const d = defaults.conditions;
-  const refused = (message: string) => notices.push(`${message} — the default is kept.`);
-  const number = (key: string, what: string, range: ValueRange, fallback: number): number => {
-    const raw = q.get(key);
-    if (raw === null) return fallback;
-    const r = readNumber(`${what} (${key}=)`, raw, range);
-    if (!r.ok) { refused(r.message); return fallback; }
-    return r.value;
+/** Reads one query's values; a refused value keeps its fallback and adds a notice. */
+interface QueryReader {
+  q: URLSearchParams;
+  notices: string[];
+  refused(message: string): void;
+  number(key: string, what: string, range: ValueRange, fallback: number): number;
+  flag(key: string, fallback: boolean): boolean;
+}
+
+function queryReader(q: URLSearchParams, notices: string[]): QueryReader {
+  const refused = (message: string) => { notices.push(`${message} — the default is kept.`); };
+  return {
+    q, notices, refused,
+    number(key, what, range, fallback) {
+      const raw = q.get(key);
+      if (raw === null) return fallback;
+      const r = readNumber(`${what} (${key}=)`, raw, range);
+      if (!r.ok) { refused(r.message); return fallback; }
+      return r.value;
+    },
+    flag(key, fallback) {
+      const raw = q.get(key);
+      if (raw === null) return fallback;
+      if (raw === '1' || raw === '0') return raw === '1';
+      refused(`${key}=: expected 1 or 0, got "${raw.slice(0, 40)}"`);
+      return fallback;
+    },
   };
-  const flag = (key: string, fallback: boolean): boolean => {
-    const raw = q.get(key);
-    if (raw === null) return fallback;
-    if (raw === '1' || raw === '0') return raw === '1';
-    refused(`${key}=: expected 1 or 0, got "${raw.slice(0, 40)}"`);
-    return fallback;
-  };
+}
+
+function decodeConditions(r: QueryReader, d: FieldConditions): FieldConditions {
+  const { q, notices, refused, number, flag } = r;
   let time = d.time;
   const t = q.get('t');
   if (t !== null) {
-    const r = readTime('time (t=)', t);
-    if (!r.ok) refused(r.message);
+    const rt = readTime('time (t=)', t);
+    if (!rt.ok) refused(rt.message);
     else {
-      time = r.value.iso;
-      if (r.value.noZone) notices.push(`The link's time ${t.slice(0, 40)} has no zone; it is read as UTC (${time}).`);
+      time = rt.value.iso;
+      if (rt.value.noZone) notices.push(`The link's time ${t.slice(0, 40)} has no zone; it is read as UTC (${time}).`);
     }
   }
   let internal: InternalFieldKind = d.internal;
@@ -193,14 +200,18 @@ export function decodeUrlState(query: string, defaults: UrlState): DecodedUrlSta
   };
   // A refused optional value with no default stays "not set" (NaN marks it above).
   for (const k of ['tiltDeg', 'dstNt', 'speedKms'] as const) if (Number.isNaN(conditions[k])) conditions[k] = null;
+  return conditions;
+}
 
-  const products: ProductSettings = { ...defaults.products };
+function decodeProducts(r: QueryReader, defaults: ProductSettings): ProductSettings {
+  const { q, refused, number } = r;
+  const products: ProductSettings = { ...defaults };
   const altRaw = q.get('alt');
   if (altRaw === 'ground' || altRaw === 'green' || altRaw === 'red') Object.assign(products, { altPreset: altRaw, altKm: ALT[altRaw] });
   else if (altRaw !== null) {
-    const r = readNumber('footpoint altitude (alt=)', altRaw, APP_RANGES.altKm);
-    if (r.ok) Object.assign(products, { altPreset: 'custom', altKm: r.value });
-    else refused(`${r.message} (or ground, green, red)`);
+    const ra = readNumber('footpoint altitude (alt=)', altRaw, APP_RANGES.altKm);
+    if (ra.ok) Object.assign(products, { altPreset: 'custom', altKm: ra.value });
+    else refused(`${ra.message} (or ground, green, red)`);
   }
   const caltRaw = q.get('calt');
   if (caltRaw !== null) products.conjugateAltKm = number('calt', 'conjugate altitude', APP_RANGES.altKm, products.conjugateAltKm ?? NaN);
@@ -210,23 +221,40 @@ export function decodeUrlState(query: string, defaults: UrlState): DecodedUrlSta
   if (Number.isNaN(products.sourceRe)) products.sourceRe = null;
   products.minElevationDeg = number('minel', 'minimum elevation', APP_RANGES.minElevationDeg, products.minElevationDeg);
   products.minLatDeg = number('minlat', 'lowest boundary latitude', APP_RANGES.minLatDeg, products.minLatDeg);
+  return products;
+}
 
-  let sites = defaults.sites;
-  if (q.has('site')) {
-    const all = q.getAll('site');
-    sites = [];
-    const bad: string[] = [];
-    let k = 0;
-    for (; k < all.length && sites.length < APP_LIMITS.maxSites; k++) {
-      const r = parseSiteParam(all[k], k + 1);
-      if (r.ok) sites.push(r.value);
-      else bad.push(r.message);
-    }
-    if (bad.length > 0) notices.push(`${bad.length} site${bad.length === 1 ? '' : 's'} in the link refused: ${bad.slice(0, 3).join('; ')}${bad.length > 3 ? '; …' : ''}.`);
-    if (k < all.length) {
-      notices.push(`The link names ${all.length} sites; the app holds at most ${APP_LIMITS.maxSites}, so ${all.length - k} were not loaded — use the command line's batch for more.`);
-    }
+function decodeSites(q: URLSearchParams, defaults: UrlState['sites'], notices: string[]): UrlState['sites'] {
+  if (!q.has('site')) return defaults;
+  const all = q.getAll('site');
+  const sites: SiteInput[] = [];
+  const bad: string[] = [];
+  let k = 0;
+  for (; k < all.length && sites.length < APP_LIMITS.maxSites; k++) {
+    const r = parseSiteParam(all[k], k + 1);
+    if (r.ok) sites.push(r.value);
+    else bad.push(r.message);
   }
-  const maps: MapOptions = { cgmGraticule: flag('cgm', defaults.maps?.cgmGraticule ?? false) };
+  if (bad.length > 0) notices.push(`${bad.length} site${bad.length === 1 ? '' : 's'} in the link refused: ${bad.slice(0, 3).join('; ')}${bad.length > 3 ? '; …' : ''}.`);
+  if (k < all.length) {
+    notices.push(`The link names ${all.length} sites; the app holds at most ${APP_LIMITS.maxSites}, so ${all.length - k} were not loaded — use the command line's batch for more.`);
+  }
+  return sites;
+}
+
+/** Decode a query (with or without "?"); never throws. Each refused value keeps its default and adds a notice. */
+export function decodeUrlState(query: string, defaults: UrlState): DecodedUrlState {
+  const notices: string[] = [];
+  let q: URLSearchParams;
+  try {
+    q = expandCompressed(new URLSearchParams(query.startsWith('?') ? query.slice(1) : query), notices);
+  } catch {
+    return { ...defaults, maps: { cgmGraticule: defaults.maps?.cgmGraticule ?? false }, notices: ['The link could not be read; the defaults are shown.'] };
+  }
+  const r = queryReader(q, notices);
+  const conditions = decodeConditions(r, defaults.conditions);
+  const products = decodeProducts(r, defaults.products);
+  const sites = decodeSites(q, defaults.sites, notices);
+  const maps: MapOptions = { cgmGraticule: r.flag('cgm', defaults.maps?.cgmGraticule ?? false) };
   return { conditions, products, sites, maps, notices };
 }

@@ -83,6 +83,131 @@ export function cgmGraticuleOf(model: PreparedModel, options: CgmGraticuleOption
   return buildCgmGraticule(cgmMainField(model), model.frames, options);
 }
 
+/** Traces CGM samples for one main field, instant and height: the converter's definition inverted. */
+class GraticuleSampler {
+  traces = 0;
+  undefinedSamples = 0;
+  /** Result of the last landing: geodetic latitude, longitude (deg) and the radius at the exact height (RE). */
+  landLat = NaN;
+  landLon = NaN;
+  landR = NaN;
+  private sideSign = 1;
+  private readonly tracer: Tracer;
+  private readonly mag = new Float64Array(3);
+  private readonly geo = new Float64Array(3);
+  private readonly g2 = new Float64Array(3);
+  private readonly mid = new Float64Array(3);
+  private forward: CgmConverter | null = null;
+
+  constructor(private readonly mainField: MainFieldModel, private readonly frames: FrameSet, readonly heightKm: number) {
+    const axis = frames.axisGeo;
+    // The trace runs in GEO and may not leave its hemisphere's side of the dipole equator: the
+    // "inside" test of the tracer ends a half-line that crosses it (and the other half at once).
+    const field: TraceField = {
+      evaluate: (out, x, y, z) => mainField.evaluateGeo(out, x, y, z),
+      isInside: (x, y, z) => this.sideSign * (axis[0] * x + axis[1] * y + axis[2] * z) > 0,
+      boundaryMinRe: 0,
+      geoZRow: Float64Array.of(0, 0, 1),
+    };
+    this.tracer = new Tracer(field, { ellipsoid: true, altKm: heightKm, stepFactor: CGM_STEP_FACTOR, hMaxRe: 1, rMaxRe: CGM_MAX_APEX_RE, maxSteps: 6000 });
+  }
+
+  /** Follow the main field from the dipole-equator point (apexRe, MAG longitude lonRad) down to the height surface. */
+  private land(apexRe: number, lonRad: number, north: boolean): boolean {
+    const { mag, geo, g2, frames, tracer } = this;
+    mag[0] = apexRe * Math.cos(lonRad); mag[1] = apexRe * Math.sin(lonRad); mag[2] = 0;
+    geoFromMag(geo, mag, frames);
+    this.sideSign = north ? 1 : -1;
+    tracer.trace(geo[0], geo[1], geo[2]);
+    this.traces++;
+    const k = tracer.footPlus >= 0 ? tracer.footPlus : tracer.footMinus;
+    if (k < 0) return false;
+    const p = tracer.points;
+    const x = p[3 * k], y = p[3 * k + 1], z = p[3 * k + 2];
+    const axis = frames.axisGeo;
+    if (this.sideSign * (axis[0] * x + axis[1] * y + axis[2] * z) <= 0) return false;
+    const gd = geodeticFromGeo(x, y, z);
+    this.landLat = gd.latDeg; this.landLon = gd.lonDeg;
+    // The radius of the reported point itself (latitude, longitude at the exact height).
+    geoFromGeodetic(g2, gd.latDeg, gd.lonDeg, this.heightKm);
+    this.landR = Math.hypot(g2[0], g2[1], g2[2]);
+    return true;
+  }
+
+  /** The sample at CGM latitude latDeg (> 0) and longitude lonRad in a hemisphere; rGuess: the radius expected there. */
+  sample(latDeg: number, lonRad: number, north: boolean, rGuess: number): boolean {
+    const cos2 = Math.cos(latDeg * RAD_PER_DEG) ** 2;
+    let r = rGuess;
+    for (let it = 0; it < MAX_REFINE; it++) {
+      const apexRe = r / cos2;
+      if (!(apexRe <= CGM_MAX_APEX_RE)) return false;
+      if (!this.land(apexRe, lonRad, north)) return false;
+      const got = Math.acos(Math.sqrt(Math.min(1, this.landR / apexRe))) * DEG_PER_RAD;
+      if (Math.abs(got - latDeg) <= LAT_TOL_DEG) return true;
+      r = this.landR;
+    }
+    return false;
+  }
+
+  /** True when the segment between two samples (deg) stays on the line: its midpoint's CGM latitude (and MLT) as expected. */
+  private midpointOnLine(lat0: number, lon0: number, lat1: number, lon1: number, cgmLat: number, mltH: number | null): boolean {
+    const { geo, g2, mid, heightKm } = this;
+    this.forward ??= prepareCgm(this.mainField, this.frames);
+    geoFromGeodetic(geo, lat0, lon0, heightKm);
+    geoFromGeodetic(g2, lat1, lon1, heightKm);
+    const gd = geodeticFromGeo(0.5 * (geo[0] + g2[0]), 0.5 * (geo[1] + g2[1]), 0.5 * (geo[2] + g2[2]));
+    geoFromGeodetic(mid, gd.latDeg, gd.lonDeg, heightKm);
+    const r = this.forward.fromGeo(mid[0], mid[1], mid[2]);
+    this.traces++;
+    if (!r.defined || Math.abs(r.latDeg - cgmLat) > MID_TOL_DEG) return false;
+    if (mltH === null) return true;
+    const d = Math.abs(r.mltH - mltH);
+    return Math.min(d, 24 - d) * 15 <= MID_TOL_DEG / Math.cos(cgmLat * RAD_PER_DEG);
+  }
+
+  /** A line being built: samples, with NaN pushed between two samples whose segment leaves the line. */
+  lineBuilder(mltH: number | null) {
+    const la: number[] = [], lo: number[] = [], cl: number[] = [];
+    return {
+      push: (lat: number, lon: number, cgmLat: number) => {
+        const n = la.length;
+        if (n > 0 && Number.isFinite(lat) && Number.isFinite(la[n - 1]) && Math.min(Math.abs(cgmLat), Math.abs(cl[n - 1])) < MID_CHECK_BELOW_DEG
+          && !this.midpointOnLine(la[n - 1], lo[n - 1], lat, lon, 0.5 * (cgmLat + cl[n - 1]), mltH)) {
+          la.push(NaN); lo.push(NaN); cl.push(0.5 * (cgmLat + cl[n - 1]));
+        }
+        la.push(lat); lo.push(lon); cl.push(cgmLat);
+      },
+      done: () => ({ latDeg: Float64Array.from(la), lonDeg: Float64Array.from(lo), cgmLatDeg: Float64Array.from(cl) }),
+    };
+  }
+
+  /**
+   * Samples along a line at the given CGM latitudes and MAG longitudes (rad), in order; the radius of
+   * each guessed from the last two samples (equal steps). loop: the first sample repeated at the end.
+   */
+  line(points: readonly { latDeg: number; lonRad: number }[], north: boolean, mltH: number | null, loop: boolean) {
+    const sgn = north ? 1 : -1;
+    const b = this.lineBuilder(mltH);
+    let r1 = NaN, r2 = NaN;
+    let first: [number, number] = [NaN, NaN];
+    points.forEach(({ latDeg, lonRad }, i) => {
+      const guess = Number.isFinite(r2) ? 2 * r1 - r2 : Number.isFinite(r1) ? r1 : ellipsoidRadiusRe(Math.sin(latDeg * RAD_PER_DEG), this.heightKm);
+      if (this.sample(latDeg, lonRad, north, guess)) {
+        b.push(this.landLat, this.landLon, sgn * latDeg);
+        if (i === 0) first = [this.landLat, this.landLon];
+        r2 = r1; r1 = this.landR;
+      } else {
+        b.push(NaN, NaN, sgn * latDeg);
+        this.undefinedSamples++;
+        r1 = NaN; r2 = NaN;
+      }
+    });
+    // Closed loop: the first sample repeated at the end.
+    if (loop) b.push(first[0], first[1], sgn * points[0].latDeg);
+    return b.done();
+  }
+}
+
 /**
  * The CGM graticule for a main field (GEO) and the frames of the instant (their
  * dipole axis defines the dipole equator and MAG; the Sun direction the MLT).
@@ -97,116 +222,13 @@ export function buildCgmGraticule(mainField: MainFieldModel, frames: FrameSet, o
   const merStep = requireInRange('meridianStepDeg', options.meridianStepDeg ?? 2, 0.25, 10, 'deg');
   if (!Number.isInteger(360 / lonStep)) throw new InputError('lonStepDeg', `expected a step that divides 360°, got ${lonStep}`);
 
-  const axis = frames.axisGeo;
-  let sideSign = 1;
-  // The trace runs in GEO and may not leave its hemisphere's side of the dipole equator: the
-  // "inside" test of the tracer ends a half-line that crosses it (and the other half at once).
-  const field: TraceField = {
-    evaluate: (out, x, y, z) => mainField.evaluateGeo(out, x, y, z),
-    isInside: (x, y, z) => sideSign * (axis[0] * x + axis[1] * y + axis[2] * z) > 0,
-    boundaryMinRe: 0,
-    geoZRow: Float64Array.of(0, 0, 1),
-  };
-  const tracer = new Tracer(field, { ellipsoid: true, altKm: heightKm, stepFactor: CGM_STEP_FACTOR, hMaxRe: 1, rMaxRe: CGM_MAX_APEX_RE, maxSteps: 6000 });
-  const mag = new Float64Array(3);
-  const geo = new Float64Array(3);
-  const g2 = new Float64Array(3);
-  let traces = 0;
-  let undefinedSamples = 0;
-  // Result of the last landing.
-  let landLat = NaN, landLon = NaN, landR = NaN;
-
-  /** Follow the main field from the dipole-equator point (apexRe, MAG longitude lonRad) down to the height surface. */
-  function land(apexRe: number, lonRad: number, north: boolean): boolean {
-    mag[0] = apexRe * Math.cos(lonRad); mag[1] = apexRe * Math.sin(lonRad); mag[2] = 0;
-    geoFromMag(geo, mag, frames);
-    sideSign = north ? 1 : -1;
-    tracer.trace(geo[0], geo[1], geo[2]);
-    traces++;
-    const k = tracer.footPlus >= 0 ? tracer.footPlus : tracer.footMinus;
-    if (k < 0) return false;
-    const p = tracer.points;
-    const x = p[3 * k], y = p[3 * k + 1], z = p[3 * k + 2];
-    if (sideSign * (axis[0] * x + axis[1] * y + axis[2] * z) <= 0) return false;
-    const gd = geodeticFromGeo(x, y, z);
-    landLat = gd.latDeg; landLon = gd.lonDeg;
-    // The radius of the reported point itself (latitude, longitude at the exact height).
-    geoFromGeodetic(g2, gd.latDeg, gd.lonDeg, heightKm);
-    landR = Math.hypot(g2[0], g2[1], g2[2]);
-    return true;
-  }
-
-  /** The sample at CGM latitude latDeg (> 0) and longitude lonRad in a hemisphere; rGuess: the radius expected there. */
-  function sample(latDeg: number, lonRad: number, north: boolean, rGuess: number): boolean {
-    const cos2 = Math.cos(latDeg * RAD_PER_DEG) ** 2;
-    let r = rGuess;
-    for (let it = 0; it < MAX_REFINE; it++) {
-      const apexRe = r / cos2;
-      if (!(apexRe <= CGM_MAX_APEX_RE)) return false;
-      if (!land(apexRe, lonRad, north)) return false;
-      const got = Math.acos(Math.sqrt(Math.min(1, landR / apexRe))) * DEG_PER_RAD;
-      if (Math.abs(got - latDeg) <= LAT_TOL_DEG) return true;
-      r = landR;
-    }
-    return false;
-  }
-
-  let forward: CgmConverter | null = null;
-  const mid = new Float64Array(3);
-  /** True when the segment between two samples (deg) stays on the line: its midpoint's CGM latitude (and MLT) as expected. */
-  function midpointOnLine(lat0: number, lon0: number, lat1: number, lon1: number, cgmLat: number, mltH: number | null): boolean {
-    forward ??= prepareCgm(mainField, frames);
-    geoFromGeodetic(geo, lat0, lon0, heightKm);
-    geoFromGeodetic(g2, lat1, lon1, heightKm);
-    const gd = geodeticFromGeo(0.5 * (geo[0] + g2[0]), 0.5 * (geo[1] + g2[1]), 0.5 * (geo[2] + g2[2]));
-    geoFromGeodetic(mid, gd.latDeg, gd.lonDeg, heightKm);
-    const r = forward.fromGeo(mid[0], mid[1], mid[2]);
-    traces++;
-    if (!r.defined || Math.abs(r.latDeg - cgmLat) > MID_TOL_DEG) return false;
-    if (mltH === null) return true;
-    const d = Math.abs(r.mltH - mltH);
-    return Math.min(d, 24 - d) * 15 <= MID_TOL_DEG / Math.cos(cgmLat * RAD_PER_DEG);
-  }
-
-  /** A line being built: samples, with NaN pushed between two samples whose segment leaves the line. */
-  function lineBuilder(mltH: number | null) {
-    const la: number[] = [], lo: number[] = [], cl: number[] = [];
-    return {
-      push(lat: number, lon: number, cgmLat: number) {
-        const n = la.length;
-        if (n > 0 && Number.isFinite(lat) && Number.isFinite(la[n - 1]) && Math.min(Math.abs(cgmLat), Math.abs(cl[n - 1])) < MID_CHECK_BELOW_DEG
-          && !midpointOnLine(la[n - 1], lo[n - 1], lat, lon, 0.5 * (cgmLat + cl[n - 1]), mltH)) {
-          la.push(NaN); lo.push(NaN); cl.push(0.5 * (cgmLat + cl[n - 1]));
-        }
-        la.push(lat); lo.push(lon); cl.push(cgmLat);
-      },
-      done: () => ({ latDeg: Float64Array.from(la), lonDeg: Float64Array.from(lo), cgmLatDeg: Float64Array.from(cl) }),
-    };
-  }
-
+  const sampler = new GraticuleSampler(mainField, frames, heightKm);
   const lines: GraticuleLine[] = [];
   const nLon = Math.round(360 / lonStep);
   for (const north of [true, false]) {
-    const sgn = north ? 1 : -1;
     for (const lat of lats) {
-      const b = lineBuilder(null);
-      let r1 = NaN, r2 = NaN;
-      let first: [number, number] = [NaN, NaN];
-      for (let i = 0; i < nLon; i++) {
-        const guess = Number.isFinite(r2) ? 2 * r1 - r2 : Number.isFinite(r1) ? r1 : ellipsoidRadiusRe(Math.sin(lat * RAD_PER_DEG), heightKm);
-        if (sample(lat, i * lonStep * RAD_PER_DEG, north, guess)) {
-          b.push(landLat, landLon, sgn * lat);
-          if (i === 0) first = [landLat, landLon];
-          r2 = r1; r1 = landR;
-        } else {
-          b.push(NaN, NaN, sgn * lat);
-          undefinedSamples++;
-          r1 = NaN; r2 = NaN;
-        }
-      }
-      // Closed loop: the first sample repeated at the end.
-      b.push(first[0], first[1], sgn * lat);
-      lines.push({ kind: 'latitude', hemisphere: north ? 'north' : 'south', value: sgn * lat, ...b.done() });
+      const pts = Array.from({ length: nLon }, (_, i) => ({ latDeg: lat, lonRad: i * lonStep * RAD_PER_DEG }));
+      lines.push({ kind: 'latitude', hemisphere: north ? 'north' : 'south', value: (north ? 1 : -1) * lat, ...sampler.line(pts, north, null, true) });
     }
   }
 
@@ -215,28 +237,15 @@ export function buildCgmGraticule(mainField: MainFieldModel, frames: FrameSet, o
   const merLats: number[] = [];
   for (let l = MERIDIAN_FROM_DEG; l < maxLatDeg; l += merStep) merLats.push(l);
   // The Sun's MAG longitude: MLT 12 h (mltHours of the apex point in SM, whose x–z plane holds the Sun).
+  const mag = new Float64Array(3);
   magFromGeo(mag, frames.sunGeo, frames);
   const sunLonDeg = Math.atan2(mag[1], mag[0]) * DEG_PER_RAD;
   for (const north of [true, false]) {
-    const sgn = north ? 1 : -1;
     for (const mlt of mlts) {
       const lonRad = (sunLonDeg + (mlt - 12) * 15) * RAD_PER_DEG;
-      const b = lineBuilder(mlt);
-      let r1 = NaN, r2 = NaN;
-      for (const lat of merLats) {
-        // Equal latitude steps: the radius extrapolated from the last two samples.
-        const guess = Number.isFinite(r2) ? 2 * r1 - r2 : Number.isFinite(r1) ? r1 : ellipsoidRadiusRe(Math.sin(lat * RAD_PER_DEG), heightKm);
-        if (sample(lat, lonRad, north, guess)) {
-          b.push(landLat, landLon, sgn * lat);
-          r2 = r1; r1 = landR;
-        } else {
-          b.push(NaN, NaN, sgn * lat);
-          undefinedSamples++;
-          r1 = NaN; r2 = NaN;
-        }
-      }
-      lines.push({ kind: 'mlt', hemisphere: north ? 'north' : 'south', value: mlt, ...b.done() });
+      const pts = merLats.map((latDeg) => ({ latDeg, lonRad }));
+      lines.push({ kind: 'mlt', hemisphere: north ? 'north' : 'south', value: mlt, ...sampler.line(pts, north, mlt, false) });
     }
   }
-  return { heightKm, lines, maxLatDeg, undefinedSamples, traces };
+  return { heightKm, lines, maxLatDeg, undefinedSamples: sampler.undefinedSamples, traces: sampler.traces };
 }

@@ -345,6 +345,30 @@ function jobWindow(workers: number): number {
   return Math.max(4, 4 * workers);
 }
 
+/** The inputs exist and the output is none of them; the worker count (at most the cores, with a warning). */
+async function checkRun(p: Plan, io: BatchIo): Promise<number> {
+  await requireFile(p.sitesPath, '--sites');
+  if (p.conditionsPath !== null) await requireFile(p.conditionsPath, '--conditions');
+  if (p.outPath !== null) {
+    await checkOutNotInput(p.outPath, [{ flag: '--sites', path: p.sitesPath }, ...(p.conditionsPath !== null ? [{ flag: '--conditions', path: p.conditionsPath }] : [])]);
+  }
+  const cores = Math.max(1, os.availableParallelism());
+  const workers = p.workersAsked ?? cores;
+  if (workers > cores) {
+    io.stderr(`${NAME}: warning: --workers ${workers} is more than the ${cores} cores of this machine; using ${cores}\n`);
+    return cores;
+  }
+  return workers;
+}
+
+/** What a stop by signal left behind: the counts so far and where the rows went. */
+function stoppedText(stopBy: StopSignal, totals: Totals, conditions: number, outPath: string | null, partial: string | null): string {
+  const where = outPath === null ? 'the rows written so far went to stdout (incomplete)'
+    : partial !== null ? `${outPath} left untouched; the rows written so far are in ${partial} (incomplete)`
+    : `${outPath} left untouched; nothing kept (--keep-partial keeps the rows written so far)`;
+  return `${NAME}: stopped by ${stopBy} after ${totals.rows} rows (${conditions} conditions): ${totals.ok} computed, ${totals.skipped} skipped, ${totals.failed} failed; ${where}\n`;
+}
+
 /** The batch command as a function: argv after `batch`; returns the exit code and never throws. */
 export async function runBatch(argv: readonly string[], io: BatchIo): Promise<number> {
   if (argv.includes('--help') || argv.includes('-h')) { io.stdout(batchHelp()); return EXIT_OK; }
@@ -364,17 +388,7 @@ export async function runBatch(argv: readonly string[], io: BatchIo): Promise<nu
     const p = plan(argv, io);
     keepPartial = p.keepPartial;
     outPath = p.outPath;
-    await requireFile(p.sitesPath, '--sites');
-    if (p.conditionsPath !== null) await requireFile(p.conditionsPath, '--conditions');
-    if (p.outPath !== null) {
-      await checkOutNotInput(p.outPath, [{ flag: '--sites', path: p.sitesPath }, ...(p.conditionsPath !== null ? [{ flag: '--conditions', path: p.conditionsPath }] : [])]);
-    }
-    const cores = Math.max(1, os.availableParallelism());
-    let workers = p.workersAsked ?? cores;
-    if (workers > cores) {
-      io.stderr(`${NAME}: warning: --workers ${workers} is more than the ${cores} cores of this machine; using ${cores}\n`);
-      workers = cores;
-    }
+    const workers = await checkRun(p, io);
     const sites = await readSites(p.sitesPath);
     const jobs = await conditionJobs(p, sites.length);
     const expected = p.progress && p.conditionsPath !== null ? Math.ceil(Math.max(0, (await countLines(p.conditionsPath)) - 1) / p.shard.n) : 1;
@@ -417,10 +431,7 @@ export async function runBatch(argv: readonly string[], io: BatchIo): Promise<nu
       if (sink && keepPartial) await sink.write(suffix).catch(() => {});
       const partial = sink ? await sink.abort(keepPartial) : null;
       sink = null;
-      const where = outPath === null ? 'the rows written so far went to stdout (incomplete)'
-        : partial !== null ? `${outPath} left untouched; the rows written so far are in ${partial} (incomplete)`
-        : `${outPath} left untouched; nothing kept (--keep-partial keeps the rows written so far)`;
-      io.stderr(`${NAME}: stopped by ${stopBy} after ${totals.rows} rows (${conditions} conditions): ${totals.ok} computed, ${totals.skipped} skipped, ${totals.failed} failed; ${where}\n`);
+      io.stderr(stoppedText(stopBy, totals, conditions, outPath, partial));
       return STOP_SIGNALS[stopBy];
     }
     if (e instanceof UsageError) {

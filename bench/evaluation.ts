@@ -162,7 +162,16 @@ export const fieldSection: BenchSection = {
         { key: 'evalNsWithTail', value: nsTail.ns, cpuValue: nsTail.cpuNs, unit: 'ns/eval', note: 'app default model (tail sheet on), same kind of points' },
         { key: 'prepareMsWithTail', value: prepTail.meanMs, cpuValue: prepTail.cpuMeanMs, unit: 'ms/condition', note: `the same conditions with the tail sheet on (p95 ${prepTail.p95Ms.toFixed(1)} ms)` },
       );
-      Object.assign(detail, { prepareMsMaxWithTail: prepTail.maxMs });
+      // With IGRF (the app's main field): every condition at its own date (the date's coefficients and
+      // truncation radii prepared each time), and the same conditions at one date (the app re-preparing
+      // for a control change: model.ts keeps the date's main field).
+      const prepIgrf = prepareTiming(conds.map((c) => ({ ...c, tail: true, internal: 'igrf' as const })), batches);
+      const prepIgrfOneDate = prepareTiming(conds.map((c) => ({ ...c, tail: true, internal: 'igrf' as const, time: BENCH_CONDITIONS.time })), batches);
+      figures.push(
+        { key: 'prepareMsIgrf', value: prepIgrf.meanMs, cpuValue: prepIgrf.cpuMeanMs, unit: 'ms/condition', note: `the same conditions with IGRF and the tail sheet, each at its own date (p95 ${prepIgrf.p95Ms.toFixed(1)} ms)` },
+        { key: 'prepareMsIgrfOneDate', value: prepIgrfOneDate.meanMs, cpuValue: prepIgrfOneDate.cpuMeanMs, unit: 'ms/condition', note: `the same with every condition at one date: the app's control changes (p95 ${prepIgrfOneDate.p95Ms.toFixed(1)} ms)` },
+      );
+      Object.assign(detail, { prepareMsMaxWithTail: prepTail.maxMs, prepareMsMaxIgrf: prepIgrf.maxMs });
     }
     if (!o.part || o.part === 'storm') {
       const modelStorm = prepareModel(BENCH_CONDITIONS_STORM);

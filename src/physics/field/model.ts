@@ -141,12 +141,11 @@ export function prepareModel(input: Partial<FieldConditions> & { time: string },
   const c = normalizeConditions(input);
   const ms = parseUtc(c.time);
   const year = decimalYear(ms);
-  const coeffs = igrfCoefficients(year, c.internal === 'igrf' ? 13 : 1);
-  const dipole = centredDipole(coeffs);
+  const { dipole, synthesis } = mainFieldOfDate(year, c.internal);
   const frames = prepareFrames(ms, dipole.axisGeo, c.tiltDeg);
   const warnings: string[] = [];
 
-  const internal = prepareInternal(c, coeffs, dipole, frames, warnings);
+  const internal = prepareInternal(c, synthesis, dipole, frames, warnings);
   const storm = prepareStorm(c, dipole, options, warnings);
   const tail = prepareTailTerm(c, frames, options, storm.source.sourceRe + TAIL_INNER_GAP_RE);
   const ring = prepareRingCurrent(storm.ringParams, frames.sinTilt, frames.cosTilt);
@@ -199,12 +198,51 @@ function prepareStorm(c: FieldConditions, dipole: CentredDipole, options: ModelO
   return { state, ringParams, source };
 }
 
+/** The main field of one instant: its centred dipole and, for IGRF, the truncated synthesis (null for the dipole). */
+interface MainFieldOfDate {
+  readonly dipole: CentredDipole;
+  readonly synthesis: MainFieldModel | null;
+}
+
+/**
+ * Main fields of the last few instants, by internal-field kind and decimal year (least recently used
+ * dropped). The app prepares a new model for every control change at the same time, and the date's
+ * coefficients, centred dipole and truncation radii (~0.3 ms) do not depend on the other conditions.
+ * The entries are immutable and evaluateGeo writes only into its `out`, so models share them;
+ * a model from the cache equals a fresh one to the bit (test/physics/field/model-cache.test.ts).
+ */
+const mainFieldCache = new Map<string, MainFieldOfDate>();
+const MAIN_FIELD_CACHE_SIZE = 8;
+
+function mainFieldOfDate(year: number, internal: InternalFieldKind): MainFieldOfDate {
+  const key = `${internal} ${year}`; // String(number) round-trips a double exactly
+  const kept = mainFieldCache.get(key);
+  if (kept) {
+    mainFieldCache.delete(key);
+    mainFieldCache.set(key, kept);
+    return kept;
+  }
+  const coeffs = igrfCoefficients(year, internal === 'igrf' ? 13 : 1);
+  // Degrees that cannot move a traced footpoint by 0.001° at the radius are skipped (mainfield/truncation.ts;
+  // every degree below 1.2 RE, so ground values are the full synthesis).
+  const entry: MainFieldOfDate = {
+    dipole: centredDipole(coeffs),
+    synthesis: internal === 'igrf' ? prepareMainField(coeffs, { footpointTolDeg: 0.001 }) : null,
+  };
+  mainFieldCache.set(key, entry);
+  if (mainFieldCache.size > MAIN_FIELD_CACHE_SIZE) mainFieldCache.delete(mainFieldCache.keys().next().value as string);
+  return entry;
+}
+
+/** Forget the kept main fields (tests: a fresh preparation against a cached one). */
+export function clearMainFieldCache(): void {
+  mainFieldCache.clear();
+}
+
 /** The main field as a writer (GSM in, GSM out): the tilted centred dipole, or the full IGRF synthesis rotated through GEO. */
-function prepareInternal(c: FieldConditions, coeffs: ReturnType<typeof igrfCoefficients>, dipole: CentredDipole, frames: FrameSet, warnings: string[]): FieldWriter {
-  if (c.internal === 'igrf') {
-    // Degrees that cannot move a traced footpoint by 0.001° at the radius are skipped (mainfield/truncation.ts;
-    // every degree below 1.2 RE, so ground values are the full synthesis).
-    const mf: MainFieldModel = prepareMainField(coeffs, { footpointTolDeg: 0.001 });
+function prepareInternal(c: FieldConditions, synthesis: MainFieldModel | null, dipole: CentredDipole, frames: FrameSet, warnings: string[]): FieldWriter {
+  if (synthesis !== null) {
+    const mf = synthesis;
     const m = frames.gsmFromGeo; // row-major GSM ← GEO
     const geo = new Float64Array(3);
     if (c.tiltDeg !== null && c.tiltDeg !== undefined) {

@@ -43,17 +43,44 @@ export function leastSquaresQr(a: Float64Array, b: Float64Array, m: number, n: n
     let vtv = 0;
     for (let i = k; i < m; i++) vtv += a[ok + i] * a[ok + i];
     const beta = 2 / vtv;
-    for (let j = k + 1; j < n; j++) {
-      const oj = j * m;
-      let d = 0;
-      for (let i = k; i < m; i++) d += a[ok + i] * a[oj + i];
-      d *= beta;
-      for (let i = k; i < m; i++) a[oj + i] -= d * a[ok + i];
+    // Apply the reflection to the columns right of k four (then two, then one with b) at a time: one
+    // pass over v per block instead of per column. Each column's dot product and update run in the same
+    // order as one column at a time, so the result is the same to the bit (test/physics/numeric/lsq.test.ts);
+    // measured 1.6–2.4× faster for the compression fit's 548 × 26 and 548 × 43 problems.
+    let j = k + 1;
+    for (; j + 3 < n; j += 4) {
+      const o0 = j * m, o1 = o0 + m, o2 = o1 + m, o3 = o2 + m;
+      let d0 = 0, d1 = 0, d2 = 0, d3 = 0;
+      for (let i = k; i < m; i++) {
+        const v = a[ok + i];
+        d0 += v * a[o0 + i]; d1 += v * a[o1 + i]; d2 += v * a[o2 + i]; d3 += v * a[o3 + i];
+      }
+      d0 *= beta; d1 *= beta; d2 *= beta; d3 *= beta;
+      for (let i = k; i < m; i++) {
+        const v = a[ok + i];
+        a[o0 + i] -= d0 * v; a[o1 + i] -= d1 * v; a[o2 + i] -= d2 * v; a[o3 + i] -= d3 * v;
+      }
     }
-    let d = 0;
-    for (let i = k; i < m; i++) d += a[ok + i] * b[i];
-    d *= beta;
-    for (let i = k; i < m; i++) b[i] -= d * a[ok + i];
+    for (; j + 1 < n; j += 2) {
+      const o0 = j * m, o1 = o0 + m;
+      let d0 = 0, d1 = 0;
+      for (let i = k; i < m; i++) { const v = a[ok + i]; d0 += v * a[o0 + i]; d1 += v * a[o1 + i]; }
+      d0 *= beta; d1 *= beta;
+      for (let i = k; i < m; i++) { const v = a[ok + i]; a[o0 + i] -= d0 * v; a[o1 + i] -= d1 * v; }
+    }
+    if (j < n) {
+      // The last column together with the right-hand side.
+      const o0 = j * m;
+      let d0 = 0, db = 0;
+      for (let i = k; i < m; i++) { const v = a[ok + i]; d0 += v * a[o0 + i]; db += v * b[i]; }
+      d0 *= beta; db *= beta;
+      for (let i = k; i < m; i++) { const v = a[ok + i]; a[o0 + i] -= d0 * v; b[i] -= db * v; }
+    } else {
+      let d = 0;
+      for (let i = k; i < m; i++) d += a[ok + i] * b[i];
+      d *= beta;
+      for (let i = k; i < m; i++) b[i] -= d * a[ok + i];
+    }
     diag[k] = alpha;
   }
   // Back substitution R x = Qᵀb (upper triangle above the diagonal is in a, diagonal in diag).

@@ -10,7 +10,7 @@ import { sceneChannel } from './channels/scene';
 import { ovalChannel } from './channels/oval';
 import { sitesChannel } from './channels/sites';
 import { sweepChannel } from './channels/sweep';
-import { timelineChannel, timelineFocusChannel, timelineHoldChannel } from './channels/timeline';
+import { timelineChannel, timelineFocusChannel } from './channels/timeline';
 
 export function createEngineApi(): EngineApi {
   const ctx = createEngineContext();
@@ -21,6 +21,5 @@ export function createEngineApi(): EngineApi {
     sweep: sweepChannel(ctx),
     timeline: timelineChannel(ctx),
     timelineFocus: timelineFocusChannel(ctx),
-    timelineHold: timelineHoldChannel(ctx),
   };
 }

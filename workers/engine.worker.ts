@@ -38,7 +38,6 @@ const api: EngineApi = {
   // The progress callback arrives as a comlink proxy: release its port once the call is over.
   timeline: (id, b, st, o, s, p) => inner.timeline(id, b, st, o, s, p).finally(() => (p as unknown as { [releaseProxy]?: () => void } | undefined)?.[releaseProxy]?.()),
   timelineFocus: (id, k) => inner.timelineFocus(id, k),
-  timelineHold: (id, h) => inner.timelineHold(id, h),
 };
 
 expose(api, self as unknown as Endpoint);

@@ -253,10 +253,4 @@ export interface EngineApi {
    * is the same whatever the order the steps are computed in.
    */
   timelineFocus(requestId: number, step: number): Promise<void>;
-  /**
-   * Hold the running timeline request `requestId` between steps (true) or let it go on (false), so
-   * the cursor's own answers have the cores; a focused step not done yet is still computed, and a
-   * newer timeline request releases every older one (which then stops as stale).
-   */
-  timelineHold(requestId: number, hold: boolean): Promise<void>;
 }

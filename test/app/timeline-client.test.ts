@@ -236,26 +236,6 @@ describe('timeline client: scrubbing fills the table and the maps at once', () =
     await until(() => timelineStore.get().result !== null, 'the site timelines', 60_000);
   }, 180_000);
 
-  it('while the engine client computes the cursor\'s step (scene, oval or sites pending) the running timeline is held, and released when they are in', async () => {
-    const { calls, answer, engine } = scripted();
-    const holds: [number, boolean][] = [];
-    client = createTimelineClient(() => ({ ...engine, hold: (id, h) => holds.push([id, h]) }), { settleMs: 5, ovalsAhead: false });
-    store.set({ pending: { scene: false, oval: false, sites: false, sweep: false } });
-    load(series('storm-hold.csv', 3));
-    await until(() => calls.length === 1, 'the timeline request');
-    expect(holds).toEqual([]);
-    const id = calls[0].id;
-    store.set({ pending: { scene: true, oval: false, sites: false, sweep: false } });
-    store.set({ pending: { scene: false, oval: true, sites: false, sweep: false } });
-    store.set({ pending: { scene: false, oval: false, sites: false, sweep: true } });
-    expect(holds).toEqual([[id, true], [id, false]]);
-    answer(0);
-    await until(() => timelineStore.get().result !== null, 'the answer');
-    store.set({ pending: { scene: false, oval: true, sites: false, sweep: false } });
-    expect(holds).toEqual([[id, true], [id, false]]);
-    store.set({ pending: { scene: false, oval: false, sites: false, sweep: false } });
-  });
-
   it('the oval request of the kept ovals is the engine client\'s: its first oval equals one asked with ovalRequestOptions', async () => {
     const { port1, port2 } = new MessageChannel();
     expose(createEngineApi(), nodeEndpoint(port2));

@@ -95,33 +95,6 @@ describe('timeline channel', () => {
     expect({ ...again, requestId: 1 }).toEqual(inOrder);
   }, 120_000);
 
-  it('a held request (timelineHold) waits between steps, still computes a focused step, goes on when released, and gives the same answer; a newer request ends a held one as stale', async () => {
-    const steps = demoSteps();
-    const inOrder = await createEngineApi().timeline(1, BASE, steps, O, SITES);
-    const api = createEngineApi();
-    const seen: number[] = [];
-    const running = api.timeline(2, BASE, steps, O, SITES, (_d, _t, step) => {
-      seen.push(step!);
-      if (seen.length === 1) void api.timelineHold(2, true);
-    });
-    const settle = () => new Promise((r) => setTimeout(r, 50));
-    await settle();
-    expect(seen).toEqual([0]);
-    await api.timelineFocus(2, 2);
-    await settle();
-    expect(seen).toEqual([0, 2]);
-    await api.timelineHold(2, false);
-    const r = await running;
-    expect(seen).toEqual([0, 2, 1]);
-    expect({ ...r, requestId: 1 }).toEqual(inOrder);
-    // Held for good, then a newer request: the older answers stale, the newer one in full.
-    const older = api.timeline(3, BASE, steps, O, SITES, () => { void api.timelineHold(3, true); });
-    await settle();
-    const newer = await api.timeline(4, BASE, steps, O, SITES);
-    expect((await older).stale).toBe(true);
-    expect({ ...newer, requestId: 1 }).toEqual(inOrder);
-  }, 120_000);
-
   it('the margin is the distance to the nearest oval edge by the definition of each relation', () => {
     const b = { openClosedMagLatDeg: 72, equatorwardMagLatDeg: 65 };
     expect(ovalMarginDeg({ ovalRelation: 'poleward', magLatDeg: 75, boundaries: b })).toBeCloseTo(3, 12);

@@ -53,39 +53,7 @@ function focusMap(ctx: EngineContext): Map<number, number> {
 export function timelineFocusChannel(ctx: EngineContext): EngineApi['timelineFocus'] {
   return async (requestId, step) => {
     const f = focusMap(ctx);
-    if (!f.has(requestId) || !Number.isInteger(step)) return;
-    f.set(requestId, step);
-    // A held request wakes for the focused step (and holds again after it).
-    const h = holdOf.get(ctx)?.get(requestId);
-    const w = h?.wake;
-    if (h && w) { h.wake = null; w(); }
-  };
-}
-
-/** Per engine: the running timeline requests held between steps (timelineHold), each with its wake-up. */
-interface Hold { held: boolean; wake: (() => void) | null }
-const holdOf = new WeakMap<EngineContext, Map<number, Hold>>();
-function holdMap(ctx: EngineContext): Map<number, Hold> {
-  let h = holdOf.get(ctx);
-  if (!h) holdOf.set(ctx, (h = new Map()));
-  return h;
-}
-
-/** Release a held request (it goes on at once). */
-function release(h: Hold): void {
-  h.held = false;
-  const w = h.wake;
-  h.wake = null;
-  w?.();
-}
-
-/** The `timelineHold` call: hold or release the running request `requestId` (ignored when it is not running). */
-export function timelineHoldChannel(ctx: EngineContext): EngineApi['timelineHold'] {
-  return async (requestId, hold) => {
-    const h = holdMap(ctx).get(requestId);
-    if (!h) return;
-    if (hold) h.held = true;
-    else release(h);
+    if (f.has(requestId) && Number.isInteger(step)) f.set(requestId, step);
   };
 }
 
@@ -111,22 +79,11 @@ export function timelineChannel(ctx: EngineContext): EngineApi['timeline'] {
     let nextInOrder = 0;
     const focus = focusMap(ctx);
     focus.set(requestId, -1);
-    const holds = holdMap(ctx);
-    // A newer request releases the older ones (they stop as stale at their next pause).
-    for (const [id, h] of holds) if (id < requestId) release(h);
-    const hold: Hold = { held: false, wake: null };
-    holds.set(requestId, hold);
-    const focused = () => { const f = focus.get(requestId) ?? -1; return f >= 0 && f < n && !done[f] ? f : -1; };
     try {
       for (let count = 0; count < n; count++) {
         await ctx.pause('timeline', requestId);
-        // Held: wait (a focused step still goes), then look again whether a newer request came.
-        while (hold.held && focused() < 0) {
-          await new Promise<void>((wake) => { hold.wake = wake; });
-          await ctx.pause('timeline', requestId);
-        }
-        let i = focused();
-        if (i < 0) {
+        let i = focus.get(requestId) ?? -1;
+        if (!(i >= 0 && i < n) || done[i]) {
           while (done[nextInOrder]) nextInOrder++;
           i = nextInOrder;
         }
@@ -180,7 +137,6 @@ export function timelineChannel(ctx: EngineContext): EngineApi['timeline'] {
       }
     } finally {
       focus.delete(requestId);
-      holds.delete(requestId);
     }
     // The warnings in step order (the same list whatever the order the steps were computed in).
     const warnings = new Set(stepWarnings.flat());

@@ -36,8 +36,6 @@ export interface TimelineEngine {
   timeline(requestId: number, base: FieldConditions, steps: TimelineStepInput[], o: TimelineOptions, sites: SiteInput[], progress?: TimelineProgress): Promise<TimelineResult>;
   /** Have the running timeline request compute this step next (absent: the steps go in order). */
   focus?(requestId: number, step: number): void;
-  /** Hold the running timeline request between steps, or let it go on (absent: never held). */
-  hold?(requestId: number, hold: boolean): void;
   oval(requestId: number, c: FieldConditions, o: RequestProducts & { mltStepHours: number }): Promise<OvalResult>;
 }
 
@@ -185,8 +183,6 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
       });
       // The cursor's step first (the worker takes it at its first pause).
       focusCursor();
-      heldFor = { id, held: false };
-      holdWhileEngineBusy();
       return answer;
     });
   };
@@ -220,22 +216,6 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
     const k = timelineStore.get().cursor;
     if (!p || !busy || channel.latestId !== p.id || p.cells[k] || p.key !== currentKey()) return;
     engine().focus?.(p.id, k);
-  }
-
-  /**
-   * While the engine client computes the cursor's step (scene, oval, sites), the timeline waits
-   * between steps (the cursor's own step, when focused, still goes), so those answers have the
-   * cores; it goes on as soon as they are in.
-   */
-  let heldFor: { id: number; held: boolean } | null = null;
-  function holdWhileEngineBusy(): void {
-    const h = heldFor;
-    if (!h || channel.latestId !== h.id) return;
-    const p = store.get().pending;
-    const want = busy && (p.scene || p.oval || p.sites);
-    if (want === h.held) return;
-    h.held = want;
-    engine().hold?.(h.id, want);
   }
 
   // ---- scrubbing: fill the table and the maps for the cursor's step ----
@@ -349,7 +329,6 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
 
   const unsubStore = store.subscribe((s, prev) => {
     learn(s, prev);
-    if (s.pending !== prev.pending) holdWhileEngineBusy();
     if (s.conditions !== prev.conditions || s.products !== prev.products || s.sites !== prev.sites || s.siteResults !== prev.siteResults || s.oval !== prev.oval) scheduleFill();
     if (s.conditions !== prev.conditions || s.products !== prev.products || s.sites !== prev.sites) {
       poke();
@@ -399,7 +378,6 @@ export function startTimelineClient(): void {
     return {
       timeline: (id, base, steps, o, sites, progress) => r.timeline(id, base, steps, o, sites, progress ? Comlink.proxy(progress) : undefined),
       focus: (id, step) => { void r.timelineFocus(id, step); },
-      hold: (id, h) => { void r.timelineHold(id, h); },
       oval: (id, c, o) => r.oval(id, c, o),
     };
   });

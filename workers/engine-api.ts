@@ -10,7 +10,7 @@ import { sceneChannel } from './channels/scene';
 import { ovalChannel } from './channels/oval';
 import { sitesChannel } from './channels/sites';
 import { sweepChannel } from './channels/sweep';
-import { timelineChannel } from './channels/timeline';
+import { timelineChannel, timelineFocusChannel } from './channels/timeline';
 
 export function createEngineApi(): EngineApi {
   const ctx = createEngineContext();
@@ -20,5 +20,6 @@ export function createEngineApi(): EngineApi {
     sites: sitesChannel(ctx),
     sweep: sweepChannel(ctx),
     timeline: timelineChannel(ctx),
+    timelineFocus: timelineFocusChannel(ctx),
   };
 }

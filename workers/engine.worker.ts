@@ -37,6 +37,7 @@ const api: EngineApi = {
   sweep: (id, c, o) => withTransfer(inner.sweep(id, c, o)),
   // The progress callback arrives as a comlink proxy: release its port once the call is over.
   timeline: (id, b, st, o, s, p) => inner.timeline(id, b, st, o, s, p).finally(() => (p as unknown as { [releaseProxy]?: () => void } | undefined)?.[releaseProxy]?.()),
+  timelineFocus: (id, k) => inner.timelineFocus(id, k),
 };
 
 expose(api, self as unknown as Endpoint);

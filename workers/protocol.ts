@@ -225,8 +225,11 @@ export interface TimelineResult {
   sites: TimelineSite[];
 }
 
-/** Progress of a timeline call: steps done of the total. */
-export type TimelineProgress = (done: number, total: number) => void;
+/**
+ * Progress of a timeline call: steps done of the total; with the step just done (its index) and its
+ * cells (one per site, in the sites' order), so the table can be filled for the steps already done.
+ */
+export type TimelineProgress = (done: number, total: number, step?: number, cells?: TimelineCell[]) => void;
 
 export interface EngineApi {
   /** Frames, magnetopause and a fan of field lines (fast: the first thing drawn). */
@@ -244,4 +247,10 @@ export interface EngineApi {
    * request stops it between steps). `base` supplies the model switches.
    */
   timeline(requestId: number, base: FieldConditions, steps: TimelineStepInput[], o: TimelineOptions, sites: SiteInput[], progress?: TimelineProgress): Promise<TimelineResult>;
+  /**
+   * Compute step `step` of the timeline request `requestId` next, if it is running and that step is
+   * not done yet (the cursor's step, while scrubbing before the site timelines are in); the answer
+   * is the same whatever the order the steps are computed in.
+   */
+  timelineFocus(requestId: number, step: number): Promise<void>;
 }

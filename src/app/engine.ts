@@ -55,6 +55,13 @@ function errorsWithout(ch: keyof AppState['errors']): AppState['errors'] {
   return rest;
 }
 
+/** Whether the store shows an oval computed for the current conditions and products (no error). */
+function ovalShownForCurrent(): boolean {
+  const s = store.get();
+  const a = s.answeredFor.oval;
+  return s.oval !== null && !s.errors.oval && !s.errors.engine && a?.conditions === s.conditions && a.products === s.products;
+}
+
 /** Store writer: whether a channel has a request in flight. */
 const reportBusy = (ch: keyof AppState['pending']) => (b: boolean) => store.set((s) => ({ pending: { ...s.pending, [ch]: b } }));
 
@@ -222,7 +229,14 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
   const ovalBusy = reportBusy('oval');
   // Oval, sites and sweep pause between pieces of work in the worker, so a newer request goes out at
   // once and the older one stops at its next pause (Channel's supersede); the scene does not pause.
-  const oval = new Channel<OvalResult>(marked('oval', (a, seq) => store.set({ oval: a, errors: errorsWithout('oval'), ovalSeq: seq, ...book.answered('oval', a.requestId) })), reportError('oval'), (b) => {
+  const oval = new Channel<OvalResult>(marked('oval', (a, seq) => {
+    const answered = book.answered('oval', a.requestId);
+    // An oval for earlier inputs never replaces one shown for the current inputs (a kept oval filled by the timeline).
+    const cur = store.get();
+    const forCurrent = answered.answeredFor.oval?.conditions === cur.conditions && answered.answeredFor.oval.products === cur.products;
+    if (!forCurrent && ovalShownForCurrent()) return;
+    store.set({ oval: a, errors: errorsWithout('oval'), ovalSeq: seq, ...answered });
+  }), reportError('oval'), (b) => {
     ovalBusy(b);
     // Busy, or idle while the next oval waits (for the scene, or for the controls to rest): sites and sweep wait.
     if (b || ovalWaits()) return;
@@ -284,6 +298,15 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
     afterScene = null;
     const ask = () => {
       settle = undefined;
+      // The oval for these inputs is already shown (kept from an earlier visit of a timeline step):
+      // no second search; the sites and the sweep go at once.
+      if (ovalShownForCurrent()) {
+        sitesDue = false;
+        if (withSweep) sweepDue = false;
+        askSites();
+        if (withSweep) askSweep();
+        return;
+      }
       if (withSweep) sweepDue = true;
       sitesDue = true;
       askOval();

@@ -5,19 +5,21 @@ import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { createEngineApi } from '../../workers/engine-api';
 import type { EngineApi } from '../../workers/protocol';
 import { startEngine } from '../../src/app/engine';
-import { setConditions, store } from '../../src/app/store';
+import { setConditions, store, type AppState } from '../../src/app/store';
+import type { OvalResult } from '../../workers/protocol';
 import { staleReason } from '../../src/app/store/freshness';
 
 // The engine client's schedule (src/app/engine.ts): scene first, the oval once the scene is in, one
 // hemisphere per worker; during a drag (changes closer than 40 ms) the oval waits until the controls rest.
-type Ev = { worker: string; what: 'scene' | 'oval'; edge: 'start' | 'end'; pdynNpa: number; hemispheres?: string[] };
+type Ev = { worker: string; what: 'scene' | 'oval' | 'sites'; edge: 'start' | 'end'; pdynNpa: number; hemispheres?: string[] };
 
-function loggingWorker(name: string, log: Ev[]): Worker {
+function loggingWorker(name: string, log: Ev[], onOvalStart: (pdynNpa: number) => void = () => {}): Worker {
   const inner = createEngineApi();
   const api: EngineApi = {
     ...inner,
     scene: async (id, c, fan) => { log.push({ worker: name, what: 'scene', edge: 'start', pdynNpa: c.pdynNpa }); const r = await inner.scene(id, c, fan); log.push({ worker: name, what: 'scene', edge: 'end', pdynNpa: c.pdynNpa }); return r; },
-    oval: async (id, c, o) => { log.push({ worker: name, what: 'oval', edge: 'start', pdynNpa: c.pdynNpa, hemispheres: o.hemispheres }); const r = await inner.oval(id, c, o); log.push({ worker: name, what: 'oval', edge: 'end', pdynNpa: c.pdynNpa }); return r; },
+    sites: async (id, c, o, sites) => { log.push({ worker: name, what: 'sites', edge: 'start', pdynNpa: c.pdynNpa }); const r = await inner.sites(id, c, o, sites); log.push({ worker: name, what: 'sites', edge: 'end', pdynNpa: c.pdynNpa }); return r; },
+    oval: async (id, c, o) => { log.push({ worker: name, what: 'oval', edge: 'start', pdynNpa: c.pdynNpa, hemispheres: o.hemispheres }); onOvalStart(c.pdynNpa); const r = await inner.oval(id, c, o); log.push({ worker: name, what: 'oval', edge: 'end', pdynNpa: c.pdynNpa }); return r; },
   };
   const { port1, port2 } = new MessageChannel();
   expose(api, nodeEndpoint(port2));
@@ -76,6 +78,47 @@ describe('engine client schedule', () => {
       expect(ovals.map((e) => e.pdynNpa)).toEqual([7, 7]);
       expect(store.get().oval!.curves.map((c) => c.hemisphere)).toEqual(['north', 'south']);
     } finally {
+      engine.dispose();
+    }
+  }, 120_000);
+
+  it('an oval already shown for the new inputs (kept by the timeline): no second oval search, the sites go at once; an older oval finishing later does not replace it', async () => {
+    setConditions({ internal: 'dipole', tail: false, pdynNpa: 3 });
+    const log: Ev[] = [];
+    let onOvalStart = (_p: number) => {};
+    const engine = startEngine((role) => loggingWorker(role, log, (p) => onOvalStart(p)), { workers: 2 });
+    // As the timeline's scrubbing fill: inside the change's notification, the kept oval of pdyn 3 is shown.
+    let kept: OvalResult | null = null;
+    const fillKept = (s: AppState, prev: AppState) => {
+      if (kept && s.conditions !== prev.conditions && s.conditions.pdynNpa === 3) {
+        store.set({ oval: kept, answeredFor: { ...s.answeredFor, oval: { conditions: s.conditions, products: s.products, sites: s.sites, view: s.view } } });
+      }
+    };
+    const unsubFill = store.subscribe(fillKept);
+    const sitesFresh = () => staleReason(store.get(), 'sites') === null && !store.get().pending.sites;
+    try {
+      await until(fresh);
+      await until(() => !store.get().pending.sites && !store.get().pending.sweep);
+      kept = store.get().oval;
+      setConditions({ pdynNpa: 5 });
+      await until(() => fresh() && sitesFresh() && !store.get().pending.oval && !store.get().pending.sweep);
+      // Back to pdyn 3: the kept oval is shown; the engine asks the scene and the sites, no oval.
+      log.length = 0;
+      setConditions({ pdynNpa: 3 });
+      await until(() => fresh() && sitesFresh() && !store.get().pending.sweep);
+      expect(store.get().oval).toBe(kept);
+      expect(log.filter((e) => e.what === 'oval')).toEqual([]);
+      expect(log.filter((e) => e.what === 'sites' && e.edge === 'start').map((e) => e.pdynNpa)).toEqual([3]);
+      // A move while an oval for pdyn 7 is being searched, onto pdyn 3 (kept): the pdyn-7 oval answers later and is dropped.
+      log.length = 0;
+      onOvalStart = (p) => { if (p === 7) { onOvalStart = () => {}; setTimeout(() => setConditions({ pdynNpa: 3 }), 0); } };
+      setConditions({ pdynNpa: 7 });
+      await until(() => log.some((e) => e.what === 'oval' && e.edge === 'end' && e.pdynNpa === 7) && store.get().conditions.pdynNpa === 3);
+      await until(() => fresh() && sitesFresh() && !store.get().pending.oval && !store.get().pending.sweep);
+      expect(store.get().oval).toBe(kept);
+      expect(log.filter((e) => e.what === 'oval' && e.edge === 'start').map((e) => e.pdynNpa)).toEqual([7, 7]);
+    } finally {
+      unsubFill();
       engine.dispose();
     }
   }, 120_000);

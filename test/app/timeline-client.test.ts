@@ -199,6 +199,43 @@ describe('timeline client: scrubbing fills the table and the maps at once', () =
     store.set({ errors: {} });
   }, 180_000);
 
+  it('before the site timelines are in: the cursor\'s step is computed next and fills the table from its cells (equal to the sites channel\'s answer)', async () => {
+    const api = createEngineApi();
+    const s = series('storm-partial.csv', 12);
+    const order: number[] = [];
+    let release = () => {};
+    const held = new Promise<void>((r) => { release = r; });
+    const engine: TimelineEngine = {
+      // The whole answer is held back until the test has looked at the filled table.
+      timeline: (id, b, st, o, si, progress) => api.timeline(id, b, st, o, si, (done, total, step, cells) => {
+        if (step !== undefined) order.push(step);
+        if (order.length === 1) moveCursor(9);
+        progress?.(done, total, step, cells);
+      }).then(async (r) => { await held; return r; }),
+      focus: (id, k) => { void api.timelineFocus(id, k); },
+      oval: (id, c, o) => api.oval(id, c, o),
+    };
+    client = createTimelineClient(() => engine, { settleMs: 5, ovalsAhead: false });
+    load(s);
+    await until(() => order.length === 12, 'every step of the site timelines', 60_000);
+    // Step 0 first (the cursor's at the request), then the cursor's new step 9, then the rest in order.
+    expect(order.slice(0, 3)).toEqual([0, 9, 1]);
+    const st = store.get();
+    expect(timelineStore.get().result).toBeNull();
+    expect(timelineStore.get().cursor).toBe(9);
+    expect(staleReason(st, 'sites')).toBeNull();
+    expect(st.siteResults!.fromTimeline).toBe(true);
+    const o = { altKm: st.products.altKm, minLatDeg: st.products.minLatDeg, conjugateAltKm: st.products.conjugateAltKm ?? st.products.altKm, minElevationDeg: st.products.minElevationDeg };
+    const direct = await createEngineApi().sites(1, st.conditions, o, st.sites);
+    st.siteResults!.sites.forEach((got, i) => {
+      const { lineGeo: _a, footpoints: _b, cgm: _c, ...w } = direct.sites[i];
+      const { lineGeo: _d, footpoints: _e, ...g } = got;
+      expect(g, got.name).toEqual(w);
+    });
+    release();
+    await until(() => timelineStore.get().result !== null, 'the site timelines', 60_000);
+  }, 180_000);
+
   it('the oval request of the kept ovals is the engine client\'s: its first oval equals one asked with ovalRequestOptions', async () => {
     const { port1, port2 } = new MessageChannel();
     expose(createEngineApi(), nodeEndpoint(port2));

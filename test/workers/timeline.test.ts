@@ -75,6 +75,26 @@ describe('timeline channel', () => {
     for (const s of r.sites) expect(s.bestHours).toMatch(/UTC/);
   });
 
+  it('a focused step (timelineFocus) is computed next; each step\'s cells come with the progress once; the answer equals the one computed in order', async () => {
+    const steps = demoSteps();
+    const inOrder = await createEngineApi().timeline(1, BASE, steps, O, SITES);
+    const api = createEngineApi();
+    const seen: { done: number; step: number | undefined; cells: unknown }[] = [];
+    const running = api.timeline(2, BASE, steps, O, SITES, (done, _total, step, cells) => seen.push({ done, step, cells }));
+    // Sent after the request, as the app does: taken at the worker's first pause, before step 0.
+    await api.timelineFocus(2, 2);
+    const r = await running;
+    expect(seen.map((e) => e.step)).toEqual([2, 0, 1]);
+    expect(seen.map((e) => e.done)).toEqual([1, 2, 3]);
+    for (const e of seen) expect(e.cells, `step ${e.step} cells`).toEqual(SITES.map((_, k) => r.sites[k].cells[e.step!]));
+    // The same answer whatever the order (cells, storm index, warnings, best hours).
+    expect({ ...r, requestId: 1 }).toEqual(inOrder);
+    // A focus for a request that is not running is ignored.
+    await api.timelineFocus(7, 1);
+    const again = await api.timeline(3, BASE, steps, O, SITES);
+    expect({ ...again, requestId: 1 }).toEqual(inOrder);
+  }, 120_000);
+
   it('the margin is the distance to the nearest oval edge by the definition of each relation', () => {
     const b = { openClosedMagLatDeg: 72, equatorwardMagLatDeg: 65 };
     expect(ovalMarginDeg({ ovalRelation: 'poleward', magLatDeg: 75, boundaries: b })).toBeCloseTo(3, 12);

@@ -41,6 +41,22 @@ export function ovalMarginDeg(r: Pick<SiteResult, 'ovalRelation' | 'magLatDeg' |
   }
 }
 
+/** Per engine: the step each running timeline request should compute next (set by timelineFocus). */
+const focusOf = new WeakMap<EngineContext, Map<number, number>>();
+function focusMap(ctx: EngineContext): Map<number, number> {
+  let f = focusOf.get(ctx);
+  if (!f) focusOf.set(ctx, (f = new Map()));
+  return f;
+}
+
+/** The `timelineFocus` call: step `step` of the running request `requestId` next (ignored when it is not running). */
+export function timelineFocusChannel(ctx: EngineContext): EngineApi['timelineFocus'] {
+  return async (requestId, step) => {
+    const f = focusMap(ctx);
+    if (f.has(requestId) && Number.isInteger(step)) f.set(requestId, step);
+  };
+}
+
 export function timelineChannel(ctx: EngineContext): EngineApi['timeline'] {
   return (requestId, base, steps, o, sites, progress) => ctx.run<TimelineResult>('timeline', requestId, () => ({ requestId, warnings: [], stepsMs: [], dstNt: [], dstSource: [], sites: [] }), async () => {
     if (!Array.isArray(steps) || steps.length === 0) throw new InputError('timeline', 'expected at least one time step');
@@ -53,56 +69,77 @@ export function timelineChannel(ctx: EngineContext): EngineApi['timeline'] {
       return ms;
     });
     const out: TimelineSite[] = sites.map((s) => ({ name: s.name, latDeg: s.latDeg, lonDeg: s.lonDeg, cells: [], bestHours: '', bestIntervals: [] }));
-    const warnings = new Set<string>();
-    const dstNt: number[] = [];
-    const dstSource: ('given' | 'estimated')[] = [];
-    for (let i = 0; i < steps.length; i++) {
-      await ctx.pause('timeline', requestId);
-      const st = steps[i];
-      const m = prepareModel({ ...base, time: st.time, pdynNpa: st.pdynNpa, bzNt: st.bzNt, byNt: st.byNt, dstNt: st.dstNt, speedKms: st.speedKms });
-      for (const w of m.warnings) warnings.add(w);
-      dstNt.push(m.storm.dstNt);
-      dstSource.push(m.storm.dstSource);
-      const tConj = makeTracer(m, { altKm: conjugateAltKm, ellipsoid: true });
-      const tAlt = conjugateAltKm === o.altKm ? tConj : makeTracer(m, { altKm: o.altKm, ellipsoid: true });
-      // As the sites channel: no source distance in the request means the model's storm-following one.
-      const sourceRe = o.sourceRe ?? m.sourceRe;
-      const options = { conjugateAltKm, altKm: o.altKm, sourceRe, minElevationDeg: o.minElevationDeg ?? DEFAULT_MIN_ELEVATION_DEG };
-      const boundaryAt = o.minLatDeg === undefined ? undefined
-        : (h: 'north' | 'south', mlt: number) => sectorBoundaries(m, tAlt, h, mlt, { sourceRe, minLatDeg: o.minLatDeg });
-      sites.forEach((site, k) => {
-        const r = siteReport(m, tConj, tAlt, site, options, boundaryAt, false);
-        const d = skyDarkness(site.latDeg, site.lonDeg, site.heightKm ?? 0, stepsMs[i], { sunLimitDeg });
-        const cell: TimelineCell = {
-          type: r.type,
-          ovalRelation: r.ovalRelation,
-          ovalMarginDeg: ovalMarginDeg(r),
-          mltHours: r.mltHours,
-          magLatDeg: r.magLatDeg,
-          lShell: r.lShell,
-          conjugateLatDeg: r.conjugate ? r.conjugate.geoLatDeg : null,
-          conjugateLonDeg: r.conjugate ? r.conjugate.geoLonDeg : null,
-          openClosedMagLatDeg: r.boundaries?.openClosedMagLatDeg ?? null,
-          equatorwardMagLatDeg: r.boundaries?.equatorwardMagLatDeg ?? null,
-          ovalElevationDeg: r.sky ? r.sky.elevationDeg : null,
-          ovalAzimuthDeg: r.sky ? r.sky.azimuthDeg : null,
-          ovalVisible: r.sky ? r.sky.visible : false,
-          sunElevationDeg: d.sunElevationDeg,
-          twilight: d.twilight,
-          dark: d.dark,
-          moonElevationDeg: d.moonElevationDeg,
-          moonIlluminatedFraction: d.moonIlluminatedFraction,
-          equatorRe: r.equatorRe,
-          conjugate: r.conjugate,
-          ovalDistanceKm: r.sky ? r.sky.distanceKm : null,
-          ovalRelationReason: r.ovalRelationReason ?? null,
-          boundaries: r.boundaries,
-        };
-        if (r.error) cell.error = r.error;
-        out[k].cells.push(cell);
-      });
-      progress?.(i + 1, steps.length);
+    const n = steps.length;
+    // Steps in order, except a focused step (timelineFocus) goes next; every answer goes to its step's slot.
+    const stepWarnings: (readonly string[])[] = new Array(n);
+    const dstNt: number[] = new Array(n);
+    const dstSource: ('given' | 'estimated')[] = new Array(n);
+    for (const s of out) s.cells = new Array<TimelineCell>(n);
+    const done = new Uint8Array(n);
+    let nextInOrder = 0;
+    const focus = focusMap(ctx);
+    focus.set(requestId, -1);
+    try {
+      for (let count = 0; count < n; count++) {
+        await ctx.pause('timeline', requestId);
+        let i = focus.get(requestId) ?? -1;
+        if (!(i >= 0 && i < n) || done[i]) {
+          while (done[nextInOrder]) nextInOrder++;
+          i = nextInOrder;
+        }
+        done[i] = 1;
+        const st = steps[i];
+        const m = prepareModel({ ...base, time: st.time, pdynNpa: st.pdynNpa, bzNt: st.bzNt, byNt: st.byNt, dstNt: st.dstNt, speedKms: st.speedKms });
+        stepWarnings[i] = m.warnings;
+        dstNt[i] = m.storm.dstNt;
+        dstSource[i] = m.storm.dstSource;
+        const stepCells: TimelineCell[] = [];
+        const tConj = makeTracer(m, { altKm: conjugateAltKm, ellipsoid: true });
+        const tAlt = conjugateAltKm === o.altKm ? tConj : makeTracer(m, { altKm: o.altKm, ellipsoid: true });
+        // As the sites channel: no source distance in the request means the model's storm-following one.
+        const sourceRe = o.sourceRe ?? m.sourceRe;
+        const options = { conjugateAltKm, altKm: o.altKm, sourceRe, minElevationDeg: o.minElevationDeg ?? DEFAULT_MIN_ELEVATION_DEG };
+        const boundaryAt = o.minLatDeg === undefined ? undefined
+          : (h: 'north' | 'south', mlt: number) => sectorBoundaries(m, tAlt, h, mlt, { sourceRe, minLatDeg: o.minLatDeg });
+        sites.forEach((site, k) => {
+          const r = siteReport(m, tConj, tAlt, site, options, boundaryAt, false);
+          const d = skyDarkness(site.latDeg, site.lonDeg, site.heightKm ?? 0, stepsMs[i], { sunLimitDeg });
+          const cell: TimelineCell = {
+            type: r.type,
+            ovalRelation: r.ovalRelation,
+            ovalMarginDeg: ovalMarginDeg(r),
+            mltHours: r.mltHours,
+            magLatDeg: r.magLatDeg,
+            lShell: r.lShell,
+            conjugateLatDeg: r.conjugate ? r.conjugate.geoLatDeg : null,
+            conjugateLonDeg: r.conjugate ? r.conjugate.geoLonDeg : null,
+            openClosedMagLatDeg: r.boundaries?.openClosedMagLatDeg ?? null,
+            equatorwardMagLatDeg: r.boundaries?.equatorwardMagLatDeg ?? null,
+            ovalElevationDeg: r.sky ? r.sky.elevationDeg : null,
+            ovalAzimuthDeg: r.sky ? r.sky.azimuthDeg : null,
+            ovalVisible: r.sky ? r.sky.visible : false,
+            sunElevationDeg: d.sunElevationDeg,
+            twilight: d.twilight,
+            dark: d.dark,
+            moonElevationDeg: d.moonElevationDeg,
+            moonIlluminatedFraction: d.moonIlluminatedFraction,
+            equatorRe: r.equatorRe,
+            conjugate: r.conjugate,
+            ovalDistanceKm: r.sky ? r.sky.distanceKm : null,
+            ovalRelationReason: r.ovalRelationReason ?? null,
+            boundaries: r.boundaries,
+          };
+          if (r.error) cell.error = r.error;
+          out[k].cells[i] = cell;
+          stepCells.push(cell);
+        });
+        progress?.(count + 1, n, i, stepCells);
+      }
+    } finally {
+      focus.delete(requestId);
     }
+    // The warnings in step order (the same list whatever the order the steps were computed in).
+    const warnings = new Set(stepWarnings.flat());
     for (const s of out) {
       const tl: TimelineStep[] = s.cells.map((c, i) => ({ ms: stepsMs[i], lineType: c.type, ovalRelation: c.ovalRelation, ovalMarginDeg: c.ovalMarginDeg, ovalElevationDeg: c.ovalElevationDeg, dark: c.dark }));
       const b = bestHours(tl, o.maxZenithDeg === undefined ? {} : { maxZenithDeg: o.maxZenithDeg });

@@ -18,13 +18,13 @@
  * change of the inputs makes the one in progress stale at its next sector.
  */
 import * as Comlink from 'comlink';
-import type { EngineApi, OvalResult, RequestProducts, TimelineOptions, TimelineResult, TimelineStepInput, SiteInput } from '../../../workers/protocol';
+import type { EngineApi, OvalResult, RequestProducts, TimelineCell, TimelineOptions, TimelineProgress, TimelineResult, TimelineStepInput, SiteInput } from '../../../workers/protocol';
 import type { FieldConditions } from '../../physics/field/conditions';
 import { Channel } from '../channel';
 import { conjugateAltOf, store, type AnsweredFor, type AppState } from '../store';
 import { timelineStore, type LoadedSeries, type TimelineState } from './state';
 import { cursorPatch, nightStartMs, timelineSteps } from './steps';
-import { sitesFromTimeline } from './fill';
+import { sitesFromStep, sitesFromTimeline } from './fill';
 import { OVAL_CACHE_SIZE, OvalCache, ovalKey, ovalRequestOptions, stepsAround } from './oval-cache';
 import { MAX_TIMELINE_STEPS } from '../../../workers/channels/timeline-limits';
 
@@ -33,7 +33,9 @@ const SETTLE_MS = 250;
 
 /** The calls the client makes: the engine API's timeline and oval (a worker in the app, in-process in the tests). */
 export interface TimelineEngine {
-  timeline(requestId: number, base: FieldConditions, steps: TimelineStepInput[], o: TimelineOptions, sites: SiteInput[], progress?: (done: number, total: number) => void): Promise<TimelineResult>;
+  timeline(requestId: number, base: FieldConditions, steps: TimelineStepInput[], o: TimelineOptions, sites: SiteInput[], progress?: TimelineProgress): Promise<TimelineResult>;
+  /** Have the running timeline request compute this step next (absent: the steps go in order). */
+  focus?(requestId: number, step: number): void;
   oval(requestId: number, c: FieldConditions, o: RequestProducts & { mltStepHours: number }): Promise<OvalResult>;
 }
 
@@ -102,6 +104,8 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
   let shownKey = '';
   let shownSteps: TimelineStepInput[] = [];
   let askedKey = '';
+  /** The cells of the newest request's steps done so far (they fill the table before the whole answer is in). */
+  let partial: { id: number; key: string; steps: TimelineStepInput[]; sites: SiteInput[]; cells: (TimelineCell[] | undefined)[] } | null = null;
   let busy = false;
   let disposed = false;
 
@@ -166,9 +170,20 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
     channel.request((id) => {
       asked.set(id, { key, steps });
       if (asked.size > 16) asked.delete(asked.keys().next().value as number);
-      return api.timeline(id, s.conditions, steps, {
+      const mine = { id, key, steps, sites: s.sites, cells: [] as (TimelineCell[] | undefined)[] };
+      partial = mine;
+      const answer = api.timeline(id, s.conditions, steps, {
         altKm: s.products.altKm, ...(s.products.sourceRe === null ? {} : { sourceRe: s.products.sourceRe }), minLatDeg: s.products.minLatDeg, conjugateAltKm: conjugateAltOf(s.products), minElevationDeg: s.products.minElevationDeg, sunLimitDeg: t.sunLimitDeg,
-      }, s.sites, (done, total) => { if (channel.latestId === id) timelineStore.set({ progress: { done, total } }); });
+      }, s.sites, (done, total, step, cells) => {
+        if (channel.latestId !== id) return;
+        timelineStore.set({ progress: { done, total } });
+        if (step === undefined || !cells || partial !== mine) return;
+        mine.cells[step] = cells;
+        if (step === timelineStore.get().cursor) scheduleFill();
+      });
+      // The cursor's step first (the worker takes it at its first pause).
+      focusCursor();
+      return answer;
     });
   };
 
@@ -195,6 +210,14 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
     settle = setTimeout(() => { timerKey = ''; ask(); }, settleMs);
   }
 
+  /** While the newest request runs: the cursor's step next, unless it is done. */
+  function focusCursor(): void {
+    const p = partial;
+    const k = timelineStore.get().cursor;
+    if (!p || !busy || channel.latestId !== p.id || p.cells[k] || p.key !== currentKey()) return;
+    engine().focus?.(p.id, k);
+  }
+
   // ---- scrubbing: fill the table and the maps for the cursor's step ----
   let filling = false;
   const fill = () => {
@@ -205,8 +228,12 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
     let answeredFor = s.answeredFor;
     // Nothing is filled over a channel's refusal of the current inputs (its message stays until it answers them).
     const sitesFresh = answeredFor.sites?.conditions === s.conditions && answeredFor.sites.products === s.products && answeredFor.sites.sites === s.sites;
-    if (!sitesFresh && !s.errors.sites && !s.errors.engine && t.result && shownKey === currentKey()) {
-      const f = sitesFromTimeline(t.result, shownSteps, t.cursor, s.conditions, s.sites);
+    if (!sitesFresh && !s.errors.sites && !s.errors.engine) {
+      const key = currentKey();
+      const p = partial;
+      // The whole answer, or else the newest request's cells of the steps done so far.
+      const f = t.result && shownKey === key ? sitesFromTimeline(t.result, shownSteps, t.cursor, s.conditions, s.sites)
+        : p && p.key === key && p.cells[t.cursor] ? sitesFromStep(p.sites, p.cells[t.cursor]!, p.steps, t.cursor, s.conditions, s.sites) : null;
       if (f) {
         patch.siteResults = f;
         answeredFor = { ...answeredFor, sites: answered(s) };
@@ -312,6 +339,7 @@ export function createTimelineClient(engine: () => TimelineEngine, opt: Timeline
     if (t.result !== prev.result || t.cursor !== prev.cursor) scheduleFill();
     if (t.series !== prev.series || t.night !== prev.night || t.sunLimitDeg !== prev.sunLimitDeg || t.result !== prev.result || t.error !== prev.error) poke();
     if (t.cursor !== prev.cursor || t.series !== prev.series || t.result !== prev.result) pumpOvals();
+    if (t.cursor !== prev.cursor) focusCursor();
   });
   poke();
 
@@ -349,6 +377,7 @@ export function startTimelineClient(): void {
     const r = remote();
     return {
       timeline: (id, base, steps, o, sites, progress) => r.timeline(id, base, steps, o, sites, progress ? Comlink.proxy(progress) : undefined),
+      focus: (id, step) => { void r.timelineFocus(id, step); },
       oval: (id, c, o) => r.oval(id, c, o),
     };
   });

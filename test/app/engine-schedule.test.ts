@@ -1,7 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { MessageChannel } from 'node:worker_threads';
-import { expose } from 'comlink';
-import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
+import { portWorker } from '../fake-worker';
 import { createEngineApi } from '../../workers/engine-api';
 import type { EngineApi } from '../../workers/protocol';
 import { startEngine } from '../../src/app/engine';
@@ -21,15 +19,7 @@ function loggingWorker(name: string, log: Ev[], onOvalStart: (pdynNpa: number) =
     sites: async (id, c, o, sites) => { log.push({ worker: name, what: 'sites', edge: 'start', pdynNpa: c.pdynNpa }); const r = await inner.sites(id, c, o, sites); log.push({ worker: name, what: 'sites', edge: 'end', pdynNpa: c.pdynNpa }); return r; },
     oval: async (id, c, o) => { log.push({ worker: name, what: 'oval', edge: 'start', pdynNpa: c.pdynNpa, hemispheres: o.hemispheres }); onOvalStart(c.pdynNpa); const r = await inner.oval(id, c, o); log.push({ worker: name, what: 'oval', edge: 'end', pdynNpa: c.pdynNpa }); return r; },
   };
-  const { port1, port2 } = new MessageChannel();
-  expose(api, nodeEndpoint(port2));
-  const ep = nodeEndpoint(port1);
-  return {
-    postMessage: ep.postMessage.bind(ep),
-    addEventListener: (type: string, l: EventListener) => { if (type === 'message') ep.addEventListener('message', l); },
-    removeEventListener: (type: string, l: EventListener) => { if (type === 'message') ep.removeEventListener('message', l); },
-    terminate: () => { port1.close(); port2.close(); },
-  } as unknown as Worker;
+  return portWorker(api);
 }
 
 async function until(ok: () => boolean, ms = 60_000): Promise<void> {

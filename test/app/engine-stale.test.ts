@@ -1,8 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { MessageChannel } from 'node:worker_threads';
-import { expose } from 'comlink';
-import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
-import { createEngineApi } from '../../workers/engine-api';
+import { portWorker } from '../fake-worker';
 import { startEngine } from '../../src/app/engine';
 import { setConditions, store } from '../../src/app/store';
 import { staleReason } from '../../src/app/store/freshness';
@@ -20,16 +17,7 @@ async function until(ok: () => boolean, ms = 60_000): Promise<void> {
 
 describe('engine client and refused inputs', () => {
   it('clears the results of a channel the worker refuses, and fills them again for good inputs', async () => {
-    const { port1, port2 } = new MessageChannel();
-    expose(createEngineApi(), nodeEndpoint(port2));
-    const ep = nodeEndpoint(port1);
-    // A Worker stand-in: messages go through the port; no 'error' events (the adapter would deliver messages to them).
-    const fake = {
-      postMessage: ep.postMessage.bind(ep),
-      addEventListener: (type: string, l: EventListener) => { if (type === 'message') ep.addEventListener('message', l); },
-      removeEventListener: (type: string, l: EventListener) => { if (type === 'message') ep.removeEventListener('message', l); },
-      terminate: () => { port1.close(); port2.close(); },
-    } as unknown as Worker;
+    const fake = portWorker();
     store.set({ sites: [{ name: 'Low', latDeg: 50, lonDeg: 10 }] });
     const engine = startEngine(() => fake);
     try {

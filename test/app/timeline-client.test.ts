@@ -6,9 +6,7 @@
  * sites and oval channels (workers/engine-api.ts) for the same inputs.
  */
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { MessageChannel } from 'node:worker_threads';
-import { expose } from 'comlink';
-import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
+import { portWorker } from '../fake-worker';
 import { createTimelineClient, type TimelineClient, type TimelineEngine } from '../../src/app/timeline/client';
 import { timelineStore, type LoadedSeries } from '../../src/app/timeline/state';
 import { moveCursor } from '../../src/app/timeline/actions';
@@ -237,15 +235,7 @@ describe('timeline client: scrubbing fills the table and the maps at once', () =
   }, 180_000);
 
   it('the oval request of the kept ovals is the engine client\'s: its first oval equals one asked with ovalRequestOptions', async () => {
-    const { port1, port2 } = new MessageChannel();
-    expose(createEngineApi(), nodeEndpoint(port2));
-    const ep = nodeEndpoint(port1);
-    const fake = {
-      postMessage: ep.postMessage.bind(ep),
-      addEventListener: (type: string, l: EventListener) => { if (type === 'message') ep.addEventListener('message', l); },
-      removeEventListener: (type: string, l: EventListener) => { if (type === 'message') ep.removeEventListener('message', l); },
-      terminate: () => { port1.close(); port2.close(); },
-    } as unknown as Worker;
+    const fake = portWorker();
     store.set({ sites: [] });
     const engine = startEngine(() => fake);
     try {

@@ -1,7 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { MessageChannel } from 'node:worker_threads';
-import { expose } from 'comlink';
-import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
+import { portWorker } from '../fake-worker';
 import { createEngineApi } from '../../workers/engine-api';
 import type { BoundaryCurve, OvalResult } from '../../workers/protocol';
 import { mergeOvalParts, mergeSceneParts, splitFan, startEngine } from '../../src/app/engine';
@@ -105,20 +103,8 @@ describe('oval on two workers', () => {
   });
 
   it('the engine client with two workers writes the whole oval (north, south) into the store, equal to one worker\'s', async () => {
-    const ports: MessagePort[] = [];
     // A Worker stand-in per role, each with its own engine API behind a MessageChannel.
-    const makeWorker = () => {
-      const { port1, port2 } = new MessageChannel();
-      expose(createEngineApi(), nodeEndpoint(port2));
-      const ep = nodeEndpoint(port1);
-      ports.push(port1 as unknown as MessagePort, port2 as unknown as MessagePort);
-      return {
-        postMessage: ep.postMessage.bind(ep),
-        addEventListener: (type: string, l: EventListener) => { if (type === 'message') ep.addEventListener('message', l); },
-        removeEventListener: (type: string, l: EventListener) => { if (type === 'message') ep.removeEventListener('message', l); },
-        terminate: () => { port1.close(); port2.close(); },
-      } as unknown as Worker;
-    };
+    const makeWorker = portWorker;
     const roles: string[] = [];
     setConditions({ ...C, internal: 'dipole' });
     const engine = startEngine((role) => { roles.push(role); return makeWorker(); }, { workers: 2 });

@@ -8,8 +8,8 @@ import { existsSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readCsvTable as readTable } from '../../src/io/csv';
 import { geoJsonProblems } from '../../src/io/geojson';
-import { CHROMIUM, launch, ROOT, serveApp, waitForEngine, type Browser, type Served } from './harness';
-import { downloadText, setNumber, waitFresh } from './pageHelpers';
+import { CHROMIUM, ROOT, waitForEngine, type Browser, type Served } from './harness';
+import { downloadText, setNumber, waitFresh, openApp } from './pageHelpers';
 
 /** The app's CSV exports start with `# key: value` metadata lines (as the batch's do); the table follows. */
 const readCsvTable = (text: string) => readTable(text.split(/\r?\n/).filter((l) => !l.startsWith('# ')).join('\r\n'));
@@ -30,18 +30,18 @@ if (!HAVE_BROWSER) {
 
 beforeAll(async () => {
   if (!HAVE_BROWSER) return;
-  served = await serveApp();
-  b = await launch();
-  b.page.on('console', (m) => { if (m.type() === 'error') consoleErrors.push(m.text()); });
-  b.page.on('pageerror', (e) => consoleErrors.push(`pageerror: ${e.message}`));
-  b.page.on('dialog', (d) => { dialogs.push(d.message()); void d.dismiss(); });
-  b.context.on('request', (r) => {
-    const u = r.url();
-    if (!u.startsWith(served.url) && !u.startsWith('data:') && !u.startsWith('blob:')) foreignRequests.push(u);
-  });
-  await b.page.goto(served.url);
-  await waitForEngine(b.page);
-  await waitFresh(b.page, ['scene', 'oval', 'sites', 'sweep']);
+  ({ served, b } = await openApp({
+    channels: ['scene', 'oval', 'sites', 'sweep'],
+    before: (br, sv) => {
+      br.page.on('console', (m) => { if (m.type() === 'error') consoleErrors.push(m.text()); });
+      br.page.on('pageerror', (e) => consoleErrors.push(`pageerror: ${e.message}`));
+      br.page.on('dialog', (d) => { dialogs.push(d.message()); void d.dismiss(); });
+      br.context.on('request', (r) => {
+        const u = r.url();
+        if (!u.startsWith(sv.url) && !u.startsWith('data:') && !u.startsWith('blob:')) foreignRequests.push(u);
+      });
+    },
+  }));
 });
 
 afterAll(async () => {

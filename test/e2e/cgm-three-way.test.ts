@@ -21,8 +21,8 @@ import { promisify } from 'node:util';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readCsvTable } from '../../src/io/csv';
 import { expectClose } from '../helpers';
-import { CHROMIUM, ROOT, launch, serveApp, waitForEngine, type Browser, type Served } from './harness';
-import { downloadText, setNumber, waitFresh } from './pageHelpers';
+import { CHROMIUM, ROOT, waitForEngine, type Browser, type Served } from './harness';
+import { downloadText, setNumber, waitFresh, openApp } from './pageHelpers';
 
 const HAVE_BROWSER = existsSync(CHROMIUM);
 if (!HAVE_BROWSER && process.env.CI) throw new Error(`e2e: ${CHROMIUM} is missing under CI`);
@@ -45,12 +45,7 @@ const pageErrors: string[] = [];
 
 beforeAll(async () => {
   if (!HAVE_BROWSER) return;
-  served = await serveApp();
-  b = await launch();
-  b.page.on('pageerror', (e) => pageErrors.push(e.message));
-  await b.page.goto(`${served.url}?${QUERY}`);
-  await waitForEngine(b.page);
-  await waitFresh(b.page);
+  ({ served, b } = await openApp({ query: QUERY, before: (br) => br.page.on('pageerror', (e) => pageErrors.push(e.message)) }));
 }, 300_000);
 
 afterAll(async () => {

@@ -7,8 +7,8 @@
 import { existsSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readCsvTable } from '../../src/io/csv';
-import { CHROMIUM, launch, serveApp, waitForEngine, type Browser, type Served } from './harness';
-import { downloadText, setNumber, waitFresh } from './pageHelpers';
+import { CHROMIUM, type Browser, type Served } from './harness';
+import { downloadText, setNumber, waitFresh, openApp } from './pageHelpers';
 
 const HAVE_BROWSER = existsSync(CHROMIUM);
 if (!HAVE_BROWSER && process.env.CI) throw new Error(`e2e: ${CHROMIUM} is missing under CI`);
@@ -34,12 +34,10 @@ async function status(text: string): Promise<void> {
 
 beforeAll(async () => {
   if (!HAVE_BROWSER) return;
-  served = await serveApp();
-  b = await launch();
-  b.page.on('pageerror', (e) => pageErrors.push(e.message));
-  await b.page.goto(`${served.url}?t=2025-03-20T22:00&tilt=95&p=0x3C&site=Tarrow%20Fen|56.5|-20&site=Short|61&minlat=35`);
-  await waitForEngine(b.page);
-  await waitFresh(b.page);
+  ({ served, b } = await openApp({
+    query: 't=2025-03-20T22:00&tilt=95&p=0x3C&site=Tarrow%20Fen|56.5|-20&site=Short|61&minlat=35',
+    before: (br) => br.page.on('pageerror', (e) => pageErrors.push(e.message)),
+  }));
 }, 300_000);
 
 afterAll(async () => {

@@ -1,5 +1,6 @@
 /** Page-side helpers for the e2e tests and the browser benchmark (they read window.__atlas). */
 import type { Page } from 'playwright-core';
+import { launch, serveApp, waitForEngine, type Browser, type Served } from './harness';
 
 type Ch = 'scene' | 'oval' | 'sites' | 'sweep';
 
@@ -34,4 +35,19 @@ export async function downloadText(page: Page, button: string): Promise<{ name: 
   const chunks: Buffer[] = [];
   for await (const c of stream) chunks.push(c as Buffer);
   return { name: dl.suggestedFilename(), text: Buffer.concat(chunks).toString('utf8') };
+}
+
+/**
+ * Build and serve the app, launch the browser, let `before` attach its listeners (page
+ * errors, requests, dialogs), open the page at `query` and wait until the engine has
+ * answered the channels for the page's inputs.
+ */
+export async function openApp(opts: { query?: string; channels?: Ch[]; before?: (b: Browser, served: Served) => void } = {}): Promise<{ served: Served; b: Browser }> {
+  const served = await serveApp();
+  const b = await launch();
+  opts.before?.(b, served);
+  await b.page.goto(opts.query ? `${served.url}?${opts.query}` : served.url);
+  await waitForEngine(b.page);
+  await waitFresh(b.page, opts.channels);
+  return { served, b };
 }

@@ -19,8 +19,8 @@ import { readSeriesText } from '../../src/io/series/series';
 import { prepareModel } from '../../src/physics/field/model';
 import type { FieldConditions } from '../../src/physics/field/conditions';
 import { makeTracer, sectorBoundaries, siteReport, type SiteInput, type SiteResult } from '../../src/physics/mapping';
-import { CHROMIUM, launch, ROOT, serveApp, waitForEngine, type Browser, type Served } from './harness';
-import { downloadText, waitFresh } from './pageHelpers';
+import { CHROMIUM, ROOT, type Browser, type Served } from './harness';
+import { downloadText, waitFresh, openApp } from './pageHelpers';
 import { expectClose } from '../helpers';
 import { scratchDir, spawnCli } from '../cli/helpers';
 
@@ -55,13 +55,12 @@ const DEMO = readSeriesText(readFileSync(resolve(ROOT, 'examples/demo-storm.csv'
 
 beforeAll(async () => {
   if (!HAVE_BROWSER) return;
-  served = await serveApp();
-  b = await launch();
-  b.page.on('console', (m) => { if (m.type() === 'error') consoleErrors.push(m.text()); });
-  b.page.on('pageerror', (e) => consoleErrors.push(`pageerror: ${e.message}`));
-  await b.page.goto(served.url);
-  await waitForEngine(b.page);
-  await waitFresh(b.page, ['scene', 'oval', 'sites']);
+  ({ served, b } = await openApp({
+    before: (br) => {
+      br.page.on('console', (m) => { if (m.type() === 'error') consoleErrors.push(m.text()); });
+      br.page.on('pageerror', (e) => consoleErrors.push(`pageerror: ${e.message}`));
+    },
+  }));
 });
 
 afterAll(async () => {

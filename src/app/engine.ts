@@ -10,6 +10,7 @@ import type { EngineApi, FanSpec, FrameInfo, OvalResult, SceneResult, SitesResul
 import { Channel } from './channel';
 import { conjugateAltOf, store, type AnsweredFor, type AppState } from './store';
 import { noteStep } from './perf';
+import { ovalRequestOptions } from './timeline/oval-cache';
 
 /** The field-line fan: MLT meridians every 3 h, seeds from 58° to 82° magnetic latitude. */
 const FAN: FanSpec = {
@@ -19,8 +20,6 @@ const FAN: FanSpec = {
 
 /** Sweep ranges: Pdyn 0.3–30 nPa (log spaced), Bz −20..+10 nT. */
 const SWEEP = { pdyn: { from: 0.3, to: 30, steps: 13 }, bz: { from: -20, to: 10, steps: 13 } } as const;
-
-const OVAL_MLT_STEP_H = 0.5;
 
 /** Changes closer than this (ms) are a drag: the refined products wait until the controls rest this long. */
 const SETTLE_MS = 40;
@@ -263,7 +262,7 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
   const askOval = () => oval.request((id) => {
     const s = book.remember('oval', id);
     noteStep('oval', s.perf.seq, 'sent');
-    const o = { ...productOpts(s), mltStepHours: OVAL_MLT_STEP_H };
+    const o = ovalRequestOptions(s.products);
     if (!ovalApi) return api.oval(id, s.conditions, o);
     // One hemisphere per worker (each keeps its own previous answer as the next request's hints).
     return Promise.all([api.oval(id, s.conditions, { ...o, hemispheres: ['north'] }), ovalApi.oval(id, s.conditions, { ...o, hemispheres: ['south'] })])

@@ -8,13 +8,13 @@ import type { FieldConditions } from '../../physics/field/conditions';
 import type { OvalResult, RequestProducts } from '../../../workers/protocol';
 import type { ProductSettings } from '../store';
 
-/** MLT spacing of the app's oval (h): the engine client's (src/app/engine.ts), so a kept oval is the one it would ask for. */
+/** MLT spacing of the app's oval (h). */
 export const OVAL_MLT_STEP_H = 0.5;
 
 /** Ovals kept: a 5-minute series over 33 h, or a storm at 1 h twice over (about 6 KB each). */
 export const OVAL_CACHE_SIZE = 400;
 
-/** The oval request of the app for these product settings (as the engine client makes it). */
+/** The app's oval request for these product settings: the engine client (src/app/engine.ts) asks with it, so a kept oval is the one it would ask for. */
 export function ovalRequestOptions(p: ProductSettings): RequestProducts & { mltStepHours: number } {
   return { altKm: p.altKm, minLatDeg: p.minLatDeg, ...(p.sourceRe === null ? {} : { sourceRe: p.sourceRe }), mltStepHours: OVAL_MLT_STEP_H };
 }

@@ -101,11 +101,30 @@ const tmp = new Float64Array(3);
 
 interface Probe { closed: boolean; unresolved: boolean; eqR: number }
 
+/**
+ * Return radius of the searches' classification traces, RE (Tracer.trace's returnStopRe; 0: full
+ * traces). A probe needs only the line type and the equatorial distance, so the return leg of a
+ * line may stop where it comes back inward below this radius, provided every line heading inward
+ * there reaches the ground: the main field must dominate. The only external term that grows
+ * large inside a few RE is the storm-time ring current (its own field at Earth's centre is
+ * Dst*); with |Dst*| ≤ 300 nT the external field stays under ~10 % of the main field inside
+ * 2.5 RE (main field ≥ ~1,900 nT there), with |Dst*| ≤ 800 nT inside 2 RE (≥ ~3,700 nT); beyond,
+ * full traces. test/physics/mapping/classification-trace.test.ts checks the line type and
+ * equatorial distance against full traces over random conditions up to those limits.
+ * Saves the last ~7–10 % of a probe's field evaluations (measured in the batch).
+ */
+export function classificationReturnRe(model: PreparedModel): number {
+  const ring = Math.abs(model.ringCurrent.params.centreNt);
+  if (ring <= 300) return 2.5;
+  if (ring <= 800) return 2;
+  return 0;
+}
+
 /** Closed / not-closed test of the line from (magLat, MLT) at the footpoint altitude; eqR is its equatorial distance, RE. */
 function closedAt(model: PreparedModel, tracer: Tracer, magLatDeg: number, mltH: number): Probe {
   const o = tracer.options;
   gsmAtMagneticLatMlt(tmp, model.frames, magLatDeg, mltH, o.altKm, o.ellipsoid);
-  const type = tracer.trace(tmp[0], tmp[1], tmp[2]);
+  const type = tracer.trace(tmp[0], tmp[1], tmp[2], classificationReturnRe(model));
   if (type !== LINE_CLOSED) return { closed: false, unresolved: type === LINE_UNRESOLVED, eqR: NaN };
   const eq = equatorCrossing(tracer.points, tracer.bMag, tracer.nPoints);
   return { closed: true, unresolved: false, eqR: eq ? eq.rRe : NaN };

@@ -17,7 +17,7 @@ export type { Footpoint, EquatorCrossing, Hemisphere } from '../trace/footpoint'
 export { makeTracer, traceGsm, type LineResult } from './lines';
 export { siteGsm, splitFootpoints, traceSite, type NearFarFootpoints, type SiteLine } from './sites';
 export {
-  sectorBoundaries, boundaryPoint, DEFAULT_SOURCE_RE, DEFAULT_BOUNDARY_OPTIONS,
+  sectorBoundaries, boundaryPoint, classificationReturnRe, DEFAULT_SOURCE_RE, DEFAULT_BOUNDARY_OPTIONS,
   type BoundaryPoint, type SectorBoundaries, type MissingBoundaryReason, type BoundaryOptions, type BoundaryHint,
 } from './boundaries';
 export { predictHint, boundaryFinder } from './hints';

@@ -31,12 +31,17 @@ export const END_DISTANCE = 2;
 export const END_BUDGET = 3;
 /** Started below the stop surface and the direction leads down: no points. */
 export const END_START_BELOW = 4;
+/**
+ * Came back inward below the return radius of a classification trace (Tracer.trace's
+ * returnStopRe) after having been above it: bound for the stop surface, no footpoint recorded.
+ */
+export const END_RETURNED = 5;
 
 /** Line type code from the two half-trace end states. */
 export function classify(endMinus: number, endPlus: number): LineTypeCode {
   if (endMinus === END_BUDGET || endPlus === END_BUDGET) return LINE_UNRESOLVED;
-  const footM = endMinus === END_SURFACE || endMinus === END_START_BELOW;
-  const footP = endPlus === END_SURFACE || endPlus === END_START_BELOW;
+  const footM = endMinus === END_SURFACE || endMinus === END_START_BELOW || endMinus === END_RETURNED;
+  const footP = endPlus === END_SURFACE || endPlus === END_START_BELOW || endPlus === END_RETURNED;
   if (footM && footP) return LINE_CLOSED;
   return LINE_OPEN;
 }

@@ -20,11 +20,13 @@
  *  - a seed on the stop surface (within 1e-10 RE) is its own footpoint;
  *  - open: the line leaves through the magnetopause, passes rMaxRe, or reaches tailward of
  *    the field's distant neutral line (`neutralLineXRe`);
- *  - unresolved: the step or length budget is exhausted (reported, never dropped).
+ *  - unresolved: the step or length budget is exhausted (reported, never dropped);
+ *  - classification traces only (`trace(x, y, z, returnStopRe)`, the boundary searches): a half
+ *    that has been above returnStopRe and comes back below it ends there (END_RETURNED).
  */
 import { ellipsoidRadiusRe } from '../frames/geodesy';
 import { RE_KM } from '../constants';
-import { END_SURFACE, END_MAGNETOPAUSE, END_DISTANCE, END_BUDGET, END_START_BELOW, classify } from './line-type';
+import { END_SURFACE, END_MAGNETOPAUSE, END_DISTANCE, END_BUDGET, END_START_BELOW, END_RETURNED, classify } from './line-type';
 
 /** What the tracer needs of a field model. */
 export interface TraceField {
@@ -155,10 +157,17 @@ export class Tracer {
   /**
    * Trace the whole line through (x, y, z) GSM, both directions. Returns the
    * line type code (LINE_CLOSED / LINE_OPEN / LINE_UNRESOLVED).
+   *
+   * returnStopRe > 0 makes it a classification trace: a half that has been above that radius
+   * and comes back inward below it ends there (END_RETURNED, counted as reaching the surface,
+   * no footpoint recorded). The caller vouches that every line heading inward below that radius
+   * reaches the stop surface (the main field dominates there: `classificationReturnRe`), so the
+   * line type and every point up to there are those of the full trace.
    */
-  trace(x: number, y: number, z: number): number {
+  trace(x: number, y: number, z: number, returnStopRe = 0): number {
     this.evals = 0;
     const cap = this.capacity;
+    this.returnStopRe = returnStopRe;
     // −B half: stored reversed at the front of points.
     const endM = this.traceHalf(x, y, z, -1);
     this.endMinus = endM;
@@ -257,6 +266,9 @@ export class Tracer {
     let end = END_BUDGET;
     const bMin = f.boundaryMinRe;
     const xNeutral = f.neutralLineXRe ?? -Infinity;
+    // Classification trace: armed once the half has been above the return radius.
+    const rReturn = this.returnStopRe;
+    let returnArmed = false;
     for (let step = 0; step < maxSteps; step++) {
       let h = stepFactor * r;
       if (h < hMin) h = hMin;
@@ -295,6 +307,11 @@ export class Tracer {
       bx = ebx; by = eby; bz = ebz; bmag = ebmag;
       out[3 * n] = x; out[3 * n + 1] = y; out[3 * n + 2] = z; outB[n] = bmag;
       n++;
+      if (rReturn > 0) {
+        if (returnArmed) {
+          if (r < rReturn) { end = END_RETURNED; break; }
+        } else if (r > rReturn) returnArmed = true;
+      }
       if (r >= bMin && !f.isInside(x, y, z)) { end = END_MAGNETOPAUSE; break; }
       if (r > rMax || x < xNeutral) { end = END_DISTANCE; break; }
       if (length > maxLength) { end = END_BUDGET; break; }
@@ -308,6 +325,8 @@ export class Tracer {
 
   /** Index (in the half) of the upward surface crossing of the last half-trace, or −1. */
   private upIndex = -1;
+  /** Return radius of the current classification trace, RE (0: a full trace). */
+  private returnStopRe = 0;
   // End of the last rk4Step (scratch, not re-entrant); after landOnSurface, the landing
   // point, |B| there (stepEndB) and the arc length from the step's start (stepEndH).
   private stepEndX = 0;

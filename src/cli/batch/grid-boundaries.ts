@@ -6,12 +6,14 @@
  */
 import type { PreparedModel } from '../../physics/field/model';
 import type { Tracer } from '../../physics/trace/tracer';
-import { sectorBoundaries, mltGrid, type SectorBoundaries, type BoundaryPoint, type Hemisphere } from '../../physics/mapping';
+import { boundaryFinder, mltGrid, type SectorBoundaries, type BoundaryPoint, type Hemisphere } from '../../physics/mapping';
 import { boundaryPoint } from '../../physics/mapping';
 import type { BoundaryProvider } from '../../physics/mapping';
 
 /**
- * Boundaries at grid MLTs k·step (computed on first use, kept for the model),
+ * Boundaries at grid MLTs k·step (computed on first use, kept for the model; each node's search
+ * starts from the nearest node already answered, boundaryFinder — the same answer to the search
+ * tolerance at a lower cost),
  * linearly interpolated in MLT (periodic) between the two nodes around the
  * asked MLT; null when either node has none. The interpolated point's
  * geographic position is exact for its (magnetic latitude, MLT).
@@ -19,10 +21,11 @@ import type { BoundaryProvider } from '../../physics/mapping';
 export function gridBoundaries(m: PreparedModel, tAlt: Tracer, sourceRe: number | undefined, stepH: number): BoundaryProvider {
   const n = mltGrid(stepH).length;
   const nodes = new Map<string, SectorBoundaries>();
+  const search = boundaryFinder(m, tAlt, { sourceRe });
   const node = (h: Hemisphere, i: number): SectorBoundaries => {
     const key = `${h}${i}`;
     let b = nodes.get(key);
-    if (!b) { b = sectorBoundaries(m, tAlt, h, i * stepH, { sourceRe }); nodes.set(key, b); }
+    if (!b) { b = search(h, i * stepH); nodes.set(key, b); }
     return b;
   };
   return (h, mlt) => {

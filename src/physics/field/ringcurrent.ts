@@ -67,11 +67,21 @@ export function ellipticKE(out: Float64Array, m: number): Float64Array {
  */
 export function ellipticKEPoly(out: Float64Array, m1: number): Float64Array {
   const l = -Math.log(m1);
-  out[0] = 1.38629436112 + m1 * (0.09666344259 + m1 * (0.03590092383 + m1 * (0.03742563713 + m1 * 0.01451196212)))
-    + l * (0.5 + m1 * (0.12498593597 + m1 * (0.06880248576 + m1 * (0.03328355346 + m1 * 0.00441787012))));
-  out[1] = 1 + m1 * (0.44325141463 + m1 * (0.06260601220 + m1 * (0.04757383546 + m1 * 0.01736506451)))
-    + l * m1 * (0.24998368310 + m1 * (0.09200180037 + m1 * (0.04069697526 + m1 * 0.00526449639)));
+  out[0] = kPoly(m1, l);
+  out[1] = ePoly(m1, l);
   return out;
+}
+
+/** K of A&S 17.3.34 for m1 = 1 − m and l = ln(1/m1). */
+function kPoly(m1: number, l: number): number {
+  return 1.38629436112 + m1 * (0.09666344259 + m1 * (0.03590092383 + m1 * (0.03742563713 + m1 * 0.01451196212)))
+    + l * (0.5 + m1 * (0.12498593597 + m1 * (0.06880248576 + m1 * (0.03328355346 + m1 * 0.00441787012))));
+}
+
+/** E of A&S 17.3.36 for m1 = 1 − m and l = ln(1/m1). */
+function ePoly(m1: number, l: number): number {
+  return 1 + m1 * (0.44325141463 + m1 * (0.06260601220 + m1 * (0.04757383546 + m1 * 0.01736506451)))
+    + l * m1 * (0.24998368310 + m1 * (0.09200180037 + m1 * (0.04069697526 + m1 * 0.00526449639)));
 }
 
 /**
@@ -192,6 +202,7 @@ export function prepareRingCurrent(p: RingCurrentParameters, sinTilt: number, co
     const rho = Math.sqrt(rho2);
     let bz = 0;
     let brr = 0; // B_ρ/ρ
+    const iRho2 = 1 / rho2; // used only where m ≥ 1e-8, i.e. ρ > 0
     for (let j = 0; j < n; j++) {
       const a = aArr[j];
       const a2 = a2Arr[j];
@@ -200,7 +211,8 @@ export function prepareRingCurrent(p: RingCurrentParameters, sinTilt: number, co
       const am = a - rho;
       const beta2 = ap * ap + ze2;
       const alpha2 = am * am + ze2;
-      const m = (4 * a * rho) / beta2;
+      const iBeta2 = 1 / beta2;
+      const m = 4 * a * rho * iBeta2;
       const c = cArr[j];
       if (m < 1e-8) {
         // Leading terms near the axis (derived): B_z = πC a²/(2q^{3/2}), B_ρ/ρ = 3πC a² z/(4 q^{5/2}), q = a² + z_e².
@@ -209,13 +221,20 @@ export function prepareRingCurrent(p: RingCurrentParameters, sinTilt: number, co
         bz += 0.5 * Math.PI * c * a2 * iq;
         brr += (0.75 * Math.PI * c * a2 * zs * iq) / q;
       } else {
-        if (m >= RING_POLY_MIN_M) ellipticKEPoly(ke, alpha2 / beta2); // m1 = 1 − m = α²/β² without cancellation
-        else ellipticKE(ke, m);
-        const kk = ke[0], ee = ke[1];
+        let kk: number, ee: number;
+        if (m >= RING_POLY_MIN_M) {
+          const m1 = alpha2 * iBeta2; // 1 − m = α²/β² without cancellation
+          const l = -Math.log(m1);
+          kk = kPoly(m1, l);
+          ee = ePoly(m1, l);
+        } else {
+          ellipticKE(ke, m);
+          kk = ke[0]; ee = ke[1];
+        }
         const r2 = rho2 + ze2;
         const f = c / (2 * alpha2 * Math.sqrt(beta2));
         bz += f * ((a2 - r2) * ee + alpha2 * kk);
-        brr += (f * zs * ((a2 + r2) * ee - alpha2 * kk)) / rho2;
+        brr += f * zs * ((a2 + r2) * ee - alpha2 * kk) * iRho2;
       }
     }
     const bxs = brr * xs;

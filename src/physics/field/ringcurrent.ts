@@ -86,9 +86,9 @@ function ePoly(m1: number, l: number): number {
 
 /**
  * Below this parameter m the ring keeps the AGM: the bracket of B_ρ, (1 − m/2)E − (1 − m)K ≈ 3πm²/32,
- * cancels, so an absolute error ε of K and E becomes a relative error ≈ 3.4 ε/m² of B_ρ
- * (≤ 7e-6 at m = 0.1 with ε = 2e-8, and B_ρ ≪ B_z there: near the axis or far out). Points with m < 0.1
- * are few (within ~0.03 (a² + z²)/a of the axis).
+ * cancels, so an absolute error ε of K and E becomes a relative error ≤ 2ε/(3πm²/32) ≈ 6.8 ε/m² of B_ρ
+ * (≤ 1.4e-5 at m = 0.1 with ε = 2e-8, and B_ρ ≪ B_z there: near the axis or far out). Points with m < 0.1
+ * are few (within ~0.025 (a² + z_e²)/a of the axis, or far above the ring).
  */
 export const RING_POLY_MIN_M = 0.1;
 

@@ -65,7 +65,7 @@ describe('ring current with the polynomial K, E against the AGM ring (references
       }
     }
     // Bound (derived): |ΔK|, |ΔE| ≤ 2e-8 give a field error of order 2e-8 of the loops' field scale (the centre
-    // field Dst*), and ≤ 3.4·2e-8/m² of B_ρ where m is small (B_ρ ≪ B_z there). Measured 1.0e-8 |Dst*|; relative
+    // field Dst*), and ≤ 6.8·2e-8/m² of B_ρ where m is small (B_ρ ≪ B_z there). Measured 1.0e-8 |Dst*|; relative
     // to the local ring field 5.3e-7 at worst (where B_z changes sign beside the loops, |B| ≈ 0.004 |Dst*|).
     expectAtMost(worst, 3e-8, 'largest |B_poly − B_AGM| / |Dst*|');
     expectAtMost(worstLocal, 1e-6, 'largest |B_poly − B_AGM| / |B_AGM|');

@@ -16,9 +16,12 @@
  * (∇×B/μ0) is spread over |z| ≲ d about the equator; far away it tends to the loop's dipole,
  * moment I·πa² (derived).
  *
- * K and E by the arithmetic–geometric mean (Abramowitz & Stegun §17.6): a₀ = 1, b₀ = √(1 − m),
- * c₀ = √m; K = π/(2a_N), E = K·(1 − Σ 2^(n−1) c_n²). Near the axis (k² < 1e-8) the leading
- * terms of the expansion in ρ are used (derived), where the bracket of B_ρ would cancel.
+ * K and E by the polynomial approximations of Abramowitz & Stegun 17.3.34 / 17.3.36 (|error| ≤ 2e-8,
+ * `ellipticKEPoly`; the field then differs from the exact loops by ≤ 3e-8 |Dst*|, footpoints by ≤ 1e-4°,
+ * test/physics/field/ring-fast.test.ts), and for m < RING_POLY_MIN_M, where the bracket of B_ρ cancels,
+ * by the arithmetic–geometric mean (A&S §17.6): a₀ = 1, b₀ = √(1 − m), c₀ = √m; K = π/(2a_N),
+ * E = K·(1 − Σ 2^(n−1) c_n²). Near the axis (k² < 1e-8) the leading terms of the expansion in ρ
+ * are used (derived), where the bracket of B_ρ would cancel.
  *
  * Strength (references §10): the index is measured from a quiet-day baseline, so the quiet
  * model (its tail and magnetopause currents) is the baseline and the ring carries the storm
@@ -53,6 +56,41 @@ export function ellipticKE(out: Float64Array, m: number): Float64Array {
   out[1] = k * (1 - sum);
   return out;
 }
+
+/**
+ * Complete elliptic integrals by the polynomial approximations of Abramowitz & Stegun 17.3.34 (K)
+ * and 17.3.36 (E) (after Hastings; references §10), in the complementary parameter m1 = 1 − m ∈ (0, 1]:
+ *   K = Σ a_i m1^i + ln(1/m1) Σ b_i m1^i,  E = 1 + Σ c_i m1^i + ln(1/m1) Σ d_i m1^i  (i ≤ 4),
+ * |error| ≤ 2e-8 for each (A&S; measured against the AGM over m ∈ [0, 1 − 1e-12] in
+ * test/physics/field/ring-fast.test.ts: K 1.35e-8, E 1.57e-8). Taking m1 directly keeps full precision near
+ * m = 1, where 1 − m would cancel. One log and four short polynomials instead of the AGM's square roots. Writes [K, E].
+ */
+export function ellipticKEPoly(out: Float64Array, m1: number): Float64Array {
+  const l = -Math.log(m1);
+  out[0] = kPoly(m1, l);
+  out[1] = ePoly(m1, l);
+  return out;
+}
+
+/** K of A&S 17.3.34 for m1 = 1 − m and l = ln(1/m1). */
+function kPoly(m1: number, l: number): number {
+  return 1.38629436112 + m1 * (0.09666344259 + m1 * (0.03590092383 + m1 * (0.03742563713 + m1 * 0.01451196212)))
+    + l * (0.5 + m1 * (0.12498593597 + m1 * (0.06880248576 + m1 * (0.03328355346 + m1 * 0.00441787012))));
+}
+
+/** E of A&S 17.3.36 for m1 = 1 − m and l = ln(1/m1). */
+function ePoly(m1: number, l: number): number {
+  return 1 + m1 * (0.44325141463 + m1 * (0.06260601220 + m1 * (0.04757383546 + m1 * 0.01736506451)))
+    + l * m1 * (0.24998368310 + m1 * (0.09200180037 + m1 * (0.04069697526 + m1 * 0.00526449639)));
+}
+
+/**
+ * Below this parameter m the ring keeps the AGM: the bracket of B_ρ, (1 − m/2)E − (1 − m)K ≈ 3πm²/32,
+ * cancels, so an absolute error ε of K and E becomes a relative error ≤ 2ε/(3πm²/32) ≈ 6.8 ε/m² of B_ρ
+ * (≤ 1.4e-5 at m = 0.1 with ε = 2e-8, and B_ρ ≪ B_z there: near the axis or far out). Points with m < 0.1
+ * are few (within ~0.025 (a² + z_e²)/a of the axis, or far above the ring).
+ */
+export const RING_POLY_MIN_M = 0.1;
 
 /** Geometry and strength of the ring (SM frame, RE, nT). */
 export interface RingCurrentParameters {
@@ -164,6 +202,7 @@ export function prepareRingCurrent(p: RingCurrentParameters, sinTilt: number, co
     const rho = Math.sqrt(rho2);
     let bz = 0;
     let brr = 0; // B_ρ/ρ
+    const iRho2 = 1 / rho2; // used only where m ≥ 1e-8, i.e. ρ > 0
     for (let j = 0; j < n; j++) {
       const a = aArr[j];
       const a2 = a2Arr[j];
@@ -172,7 +211,8 @@ export function prepareRingCurrent(p: RingCurrentParameters, sinTilt: number, co
       const am = a - rho;
       const beta2 = ap * ap + ze2;
       const alpha2 = am * am + ze2;
-      const m = (4 * a * rho) / beta2;
+      const iBeta2 = 1 / beta2;
+      const m = 4 * a * rho * iBeta2;
       const c = cArr[j];
       if (m < 1e-8) {
         // Leading terms near the axis (derived): B_z = πC a²/(2q^{3/2}), B_ρ/ρ = 3πC a² z/(4 q^{5/2}), q = a² + z_e².
@@ -181,12 +221,20 @@ export function prepareRingCurrent(p: RingCurrentParameters, sinTilt: number, co
         bz += 0.5 * Math.PI * c * a2 * iq;
         brr += (0.75 * Math.PI * c * a2 * zs * iq) / q;
       } else {
-        ellipticKE(ke, m);
-        const kk = ke[0], ee = ke[1];
+        let kk: number, ee: number;
+        if (m >= RING_POLY_MIN_M) {
+          const m1 = alpha2 * iBeta2; // 1 − m = α²/β² without cancellation
+          const l = -Math.log(m1);
+          kk = kPoly(m1, l);
+          ee = ePoly(m1, l);
+        } else {
+          ellipticKE(ke, m);
+          kk = ke[0]; ee = ke[1];
+        }
         const r2 = rho2 + ze2;
         const f = c / (2 * alpha2 * Math.sqrt(beta2));
         bz += f * ((a2 - r2) * ee + alpha2 * kk);
-        brr += (f * zs * ((a2 + r2) * ee - alpha2 * kk)) / rho2;
+        brr += f * zs * ((a2 + r2) * ee - alpha2 * kk) * iRho2;
       }
     }
     const bxs = brr * xs;

@@ -108,6 +108,7 @@ class SphericalHarmonicField implements MainFieldModel {
     // m ≥ 1: R_n^m = P_n^m / sin θ; dP_n^m/dθ = n cos θ R_n^m − √(n²−m²) R_{n−1}^m
     // (from (1−x²) dP/dx = −n x P_n + (n+m) P_{n−1}, Schmidt-normalised; division-free).
     const diag = this.diag;
+    const ti = t * invR, i2 = invR2;
     let brS = 0;
     let cm = 1, sm = 0;
     let rmm = 1;
@@ -119,28 +120,27 @@ class SphericalHarmonicField implements MainFieldModel {
       if (m >= 2) rmm *= diag[m] * s;
       wm *= invR;
       // n = m: R_m^m seeded, dP_m^m/dθ = m cos θ R_m^m.
-      w = wm;
-      let wr = w * rmm;
-      let wd = m * t * wr;
+      const wr = wm * rmm;
+      const wd = m * t * wr;
       // cos mφ, sin mφ are fixed over the inner loop: combine them with g, h per term (A, B),
       // so three sums instead of six (measured ~15 % faster than combining once per order).
       let A = tk[j + 3] * cm + tk[j + 4] * sm;
       let B = tk[j + 3] * sm - tk[j + 4] * cm;
       let sR1 = (m + 1) * A * wr, sD = A * wd, sR = B * wr;
       j += TERM_STRIDE;
-      let r1 = rmm, r2 = 0;
+      // Scaled: q_n = (a/r)^(n+2) R_n^m and e_n = (a/r)^(n+2) dP_n^m/dθ obey the same recursion with
+      // the radial factor folded into its coefficients (no running power).
+      let q1 = wr, q2 = 0;
       for (let n = m + 1; n <= N; n++, j += TERM_STRIDE) {
-        const r = tk[j] * t * r1 - tk[j + 1] * r2;
-        const d = n * t * r - tk[j + 2] * r1;
-        r2 = r1; r1 = r;
-        w *= invR;
-        wr = w * r;
+        const q = tk[j] * ti * q1 - tk[j + 1] * i2 * q2;
+        const e = n * t * q - tk[j + 2] * invR * q1;
+        q2 = q1; q1 = q;
         const g = tk[j + 3], h = tk[j + 4];
         A = g * cm + h * sm;
         B = g * sm - h * cm;
-        sR1 += (n + 1) * A * wr;
-        sD += A * (w * d);
-        sR += B * wr;
+        sR1 += (n + 1) * A * q;
+        sD += A * e;
+        sR += B * q;
       }
       brS += sR1;
       bt -= sD;

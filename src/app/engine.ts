@@ -171,6 +171,28 @@ export function splitFan(fan: FanSpec): FanSpec[] {
   return [{ mltHours: fan.mltHours.slice(0, k), magLatDeg: fan.magLatDeg }, { mltHours: fan.mltHours.slice(k), magLatDeg: fan.magLatDeg }];
 }
 
+/**
+ * Run `fn` in a task of its own after the current task and its microtasks (a MessageChannel
+ * message: unlike nested timeouts, not clamped to ≥ 4 ms; a timeout where there is no MessageChannel).
+ */
+let taskPort: MessagePort | null = null;
+const waitingTasks: (() => void)[] = [];
+function afterThisTask(fn: () => void): void {
+  if (typeof MessageChannel === 'undefined') {
+    setTimeout(fn, 0);
+    return;
+  }
+  if (!taskPort) {
+    const ch = new MessageChannel();
+    ch.port1.onmessage = () => waitingTasks.shift()?.();
+    // Node (tests): the port must not keep the process alive.
+    (ch.port1 as MessagePort & { unref?: () => void }).unref?.();
+    taskPort = ch.port2;
+  }
+  waitingTasks.push(fn);
+  taskPort.postMessage(0);
+}
+
 /** Product options of a request; a source distance left to follow the conditions is not sent. */
 const productOpts = (s: AppState) => ({
   altKm: s.products.altKm,
@@ -213,7 +235,7 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
   let sceneInFlight = false;
   const scene = new Channel<SceneResult>(marked('scene', (a, seq) => {
     const answered = book.answered('scene', a.requestId);
-    // The scene for the current conditions is in: the oval waiting for it goes out before React draws the lines.
+    // The scene for the current conditions is in: the oval waiting for it goes out once React has drawn the lines (sceneDone).
     if (answered.answeredFor.scene?.conditions === store.get().conditions) sceneDone();
     store.set({ scene: keepUnchanged(a, store.get().scene), errors: errorsWithout('scene'), sceneSeq: seq, ...answered });
   }), reportError('scene'), (b) => {
@@ -279,8 +301,9 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
   });
 
   // Scene first: after an isolated condition change the oval is asked once the scene's answer is
-  // in (both workers trace their half of the fan first), so the oval searches do not slow the
-  // scene's tracing; a change of the products alone (no new scene) asks at once. A change that
+  // in and drawn (both workers trace their half of the fan first; the searches start in the task
+  // after the one that stored the scene), so the oval searches slow neither the scene's tracing nor
+  // its drawing; a change of the products alone (no new scene) asks at once. A change that
   // follows the previous one within SETTLE_MS is part of a drag: the refined products wait until
   // the controls rest that long (longer than the interval of a drag's input events), so dragging
   // stays fluid; an oval already running is superseded by the request at rest, and sites and
@@ -314,10 +337,18 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
     else if (sceneAsked && sceneInFlight) afterScene = ask;
     else ask();
   };
+  // The scene's answer is drawn by React's render and effects of its store change, which run as
+  // microtasks of the task that wrote it; the oval goes out in the task after, so the two oval searches
+  // do not take the cores while the main thread builds and draws the lines. A newer change in
+  // between replaces `afterScene`, and the older release then does nothing.
   sceneDone = () => {
     const ask = afterScene;
-    afterScene = null;
-    if (ask) ask();
+    if (!ask) return;
+    afterThisTask(() => {
+      if (afterScene !== ask) return;
+      afterScene = null;
+      ask();
+    });
   };
   ovalWaits = () => settle !== undefined || afterScene !== null;
 

@@ -54,6 +54,41 @@ describe('engine client schedule', () => {
     }
   }, 120_000);
 
+  it('the oval request leaves in a task after the one that stored the scene answer: its microtasks (React renders and draws the lines there) come first', async () => {
+    setConditions({ internal: 'dipole', tail: false, pdynNpa: 3 });
+    let state = 'waiting for the scene';
+    const posted: string[] = [];
+    // Note the state at the moment each oval request is posted to a worker (comlink's APPLY message names the call).
+    const watched = (w: Worker) => {
+      const post = w.postMessage.bind(w);
+      w.postMessage = ((m: { path?: string[] }, t?: Transferable[]) => {
+        if (m?.path?.[0] === 'oval') posted.push(state);
+        return post(m, t as Transferable[]);
+      }) as Worker['postMessage'];
+      return w;
+    };
+    const engine = startEngine((role) => watched(loggingWorker(role, [])), { workers: 2 });
+    // A stand-in for React's render and draw of the stored scene: a long chain of microtasks.
+    const unsub = store.subscribe((s, prev) => {
+      if (s.scene === prev.scene || s.conditions.pdynNpa !== 5 || s.answeredFor.scene?.conditions !== s.conditions) return;
+      state = 'scene stored, not drawn';
+      let p = Promise.resolve();
+      for (let i = 0; i < 200; i++) p = p.then(() => {});
+      void p.then(() => { state = 'scene drawn'; });
+    });
+    try {
+      await until(fresh);
+      await until(() => !store.get().pending.sites && !store.get().pending.sweep);
+      posted.length = 0;
+      setConditions({ pdynNpa: 5 });
+      await until(fresh);
+      expect(posted).toEqual(['scene drawn', 'scene drawn']);
+    } finally {
+      unsub();
+      engine.dispose();
+    }
+  }, 120_000);
+
   it('a drag (changes closer than 40 ms): no oval for the steps in between, one for the value at rest', async () => {
     setConditions({ internal: 'dipole', tail: false, pdynNpa: 3 });
     const log: Ev[] = [];

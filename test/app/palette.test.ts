@@ -25,5 +25,7 @@ describe('line colours and legend', () => {
   it('counts line types in the legend', () => {
     const legend = lineLegend(Uint8Array.from([0, 0, 1, 2, 0]));
     expect(legend.map((l) => l.label)).toEqual(['closed (3)', 'open (1)', 'unresolved (1)']);
+    // The keys of the legend's items do not change with the counts (the items are updated, not replaced).
+    expect(legend.map((l) => l.type)).toEqual(lineLegend(Uint8Array.from([1])).map((l) => l.type));
   });
 });

@@ -76,6 +76,8 @@ export function lineTypeRgb(code: number): [number, number, number] {
 }
 
 interface LegendEntry {
+  /** The line type's name (a stable key: the label changes with the counts). */
+  type: string;
   label: string;
   colour: string;
 }
@@ -84,5 +86,5 @@ interface LegendEntry {
 export function lineLegend(types: ArrayLike<number>): LegendEntry[] {
   const counts = LINE_TYPE_NAMES.map(() => 0);
   for (let i = 0; i < types.length; i++) counts[LINE_TYPE_NAMES.indexOf(lineTypeName(types[i]))]++;
-  return LINE_TYPE_NAMES.map((n, i) => ({ label: `${n} (${counts[i]})`, colour: LINE_COLOURS[n] }));
+  return LINE_TYPE_NAMES.map((n, i) => ({ type: n, label: `${n} (${counts[i]})`, colour: LINE_COLOURS[n] }));
 }

@@ -23,15 +23,23 @@ export function rotate(m: ArrayLike<number>, x: number, y: number, z: number): [
   return [m[0] * x + m[1] * y + m[2] * z, m[3] * x + m[4] * y + m[5] * z, m[6] * x + m[7] * y + m[8] * z];
 }
 
-/** Line bundle → float32 positions, per-vertex colours and a segment index (pairs within each line). */
-export function bundleSegments(b: LineBundle): { positions: Float32Array; colours: Float32Array; index: Uint32Array } {
-  const nPts = b.pointsGeo.length / 3;
-  const positions = new Float32Array(b.pointsGeo);
-  const colours = new Float32Array(nPts * 3);
+/** Sizes of a line bundle drawn as segments: its points and the segment index's length (two entries a segment). */
+export function segmentCounts(b: LineBundle): { nPoints: number; nIndex: number } {
   const nLines = b.offsets.length - 1;
   let nSeg = 0;
   for (let l = 0; l < nLines; l++) nSeg += Math.max(0, b.offsets[l + 1] - b.offsets[l] - 1);
-  const index = new Uint32Array(nSeg * 2);
+  return { nPoints: b.pointsGeo.length / 3, nIndex: 2 * nSeg };
+}
+
+/**
+ * Write a line bundle as segments into arrays the caller owns (at least segmentCounts' sizes):
+ * float32 positions, per-vertex colours by line type, and the segment index (pairs within each
+ * line, never across lines). Returns the index length written.
+ */
+export function writeSegments(b: LineBundle, positions: Float32Array, colours: Float32Array, index: Uint32Array): number {
+  const nPts = b.pointsGeo.length / 3;
+  for (let i = 0; i < 3 * nPts; i++) positions[i] = b.pointsGeo[i];
+  const nLines = b.offsets.length - 1;
   let k = 0;
   for (let l = 0; l < nLines; l++) {
     const [r, g, bl] = lineTypeRgb(b.types[l]);
@@ -45,6 +53,16 @@ export function bundleSegments(b: LineBundle): { positions: Float32Array; colour
       }
     }
   }
+  return k;
+}
+
+/** Line bundle → float32 positions, per-vertex colours and a segment index (pairs within each line). */
+export function bundleSegments(b: LineBundle): { positions: Float32Array; colours: Float32Array; index: Uint32Array } {
+  const { nPoints, nIndex } = segmentCounts(b);
+  const positions = new Float32Array(3 * nPoints);
+  const colours = new Float32Array(3 * nPoints);
+  const index = new Uint32Array(nIndex);
+  writeSegments(b, positions, colours, index);
   return { positions, colours, index };
 }
 
@@ -53,6 +71,17 @@ export function bundleSegments(b: LineBundle): { positions: Float32Array; colour
  * sampled in θ up to the tail cut xMinRe and rotated into GEO.
  */
 export function magnetopauseMesh(r0: number, alpha: number, geoFromGsm: ArrayLike<number>, xMinRe = -40, nTheta = 48, nPhi = 48): { positions: Float32Array; index: Uint32Array } {
+  const positions = new Float32Array((nTheta + 1) * (nPhi + 1) * 3);
+  writeMagnetopausePositions(positions, r0, alpha, geoFromGsm, xMinRe, nTheta, nPhi);
+  return { positions, index: gridTriangles(nTheta, nPhi) };
+}
+
+/**
+ * The vertices of magnetopauseMesh written into `positions` (the caller's, (nTheta+1)(nPhi+1)·3
+ * long): θ rows from the nose, φ around GSM x. The triangles (gridTriangles) depend only on
+ * nTheta and nPhi, so a new shape can be drawn by rewriting the vertices alone.
+ */
+export function writeMagnetopausePositions(positions: Float32Array, r0: number, alpha: number, geoFromGsm: ArrayLike<number>, xMinRe = -40, nTheta = 48, nPhi = 48): void {
   // θ where x = r cos θ reaches xMinRe (bisection on a monotone function).
   const xAt = (t: number) => r0 * Math.pow(2 / (1 + Math.cos(t)), alpha) * Math.cos(t);
   let lo = Math.PI / 2;
@@ -60,7 +89,6 @@ export function magnetopauseMesh(r0: number, alpha: number, geoFromGsm: ArrayLik
   if (xAt(hi) > xMinRe) lo = hi;
   else for (let i = 0; i < 50; i++) { const mid = (lo + hi) / 2; if (xAt(mid) > xMinRe) lo = mid; else hi = mid; }
   const tMax = lo;
-  const positions = new Float32Array((nTheta + 1) * (nPhi + 1) * 3);
   let p = 0;
   for (let i = 0; i <= nTheta; i++) {
     const t = (tMax * i) / nTheta;
@@ -73,6 +101,10 @@ export function magnetopauseMesh(r0: number, alpha: number, geoFromGsm: ArrayLik
       positions[p++] = v[2];
     }
   }
+}
+
+/** Triangles of a (nTheta+1)×(nPhi+1) vertex grid, two per cell. */
+export function gridTriangles(nTheta: number, nPhi: number): Uint32Array {
   const index = new Uint32Array(nTheta * nPhi * 6);
   let k = 0;
   for (let i = 0; i < nTheta; i++)
@@ -82,7 +114,7 @@ export function magnetopauseMesh(r0: number, alpha: number, geoFromGsm: ArrayLik
       index.set([a, b, a + 1, a + 1, b, b + 1], k);
       k += 6;
     }
-  return { positions, index };
+  return index;
 }
 
 /** Segments of a geographic (or, given an axis, magnetic) graticule on a sphere of radius rRe. */

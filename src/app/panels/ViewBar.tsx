@@ -19,7 +19,7 @@ export function ViewBar() {
       </div>
       <ul className="legend" aria-label="Field-line legend">
         {legend.map((l) => (
-          <li key={l.label}><i style={{ background: l.colour }} /> {l.label}</li>
+          <li key={l.type}><i style={{ background: l.colour }} /> {l.label}</li>
         ))}
         <li><i style={{ background: '#ffd24a' }} /> Sun</li>
         <li><i style={{ background: '#ff7b5c' }} /> dipole axis (N)</li>

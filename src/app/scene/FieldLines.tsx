@@ -1,30 +1,27 @@
 /** The fan of field lines, one draw call, coloured per vertex by line type. */
 import { useEffect, useMemo } from 'react';
 import { useThree } from '@react-three/fiber';
-import * as THREE from 'three';
-import { bundleSegments } from '../lib/sphere';
 import { store, useStore } from '../store';
 import { awaitDraw, noteStep } from '../perf';
+import { SegmentBuffers } from './reusedGeometry';
 
 export function FieldLines() {
   const lines = useStore((s) => s.scene?.lines);
   const show = useStore((s) => s.view.fan);
   const invalidate = useThree((s) => s.invalidate);
+  // One geometry kept from answer to answer, refilled in place (a new object only when an answer outgrows it).
+  const buffers = useMemo(() => new SegmentBuffers(), []);
+  useEffect(() => () => buffers.dispose(), [buffers]);
   const geom = useMemo(() => {
     if (!lines) return null;
-    const { positions, colours, index } = bundleSegments(lines);
-    const g = new THREE.BufferGeometry();
-    g.setAttribute('position', new THREE.BufferAttribute(positions, 3));
-    g.setAttribute('color', new THREE.BufferAttribute(colours, 3));
-    g.setIndex(new THREE.BufferAttribute(index, 1));
+    const g = buffers.set(lines);
     noteStep('scene', store.get().sceneSeq, 'built');
     return g;
-  }, [lines]);
+  }, [lines, buffers]);
   useEffect(() => {
     awaitDraw('scene', store.get().sceneSeq);
     invalidate();
-    return () => geom?.dispose();
-  }, [geom, invalidate]);
+  }, [lines, invalidate]);
   if (!geom || !show) return null;
   return (
     <lineSegments geometry={geom} name="field-lines">

@@ -2,26 +2,24 @@
 import { useEffect, useMemo } from 'react';
 import { useThree } from '@react-three/fiber';
 import * as THREE from 'three';
-import { magnetopauseMesh } from '../lib/sphere';
 import { useStore } from '../store';
+import { SurfaceBuffers } from './reusedGeometry';
 
 export function Magnetopause() {
   const mp = useStore((s) => s.scene?.magnetopause);
   const m = useStore((s) => s.scene?.frames.geoFromGsm);
   const show = useStore((s) => s.view.magnetopauseSurface);
   const invalidate = useThree((s) => s.invalidate);
+  // One geometry for every shape: a new r0 or α rewrites its vertices (the triangles stay).
+  const buffers = useMemo(() => new SurfaceBuffers(), []);
+  useEffect(() => () => buffers.dispose(), [buffers]);
   const geom = useMemo(() => {
     if (!mp || !m || !mp.enabled || !Number.isFinite(mp.r0Re) || !Number.isFinite(mp.alpha)) return null;
-    const { positions, index } = magnetopauseMesh(mp.r0Re, mp.alpha, m);
-    const g = new THREE.BufferGeometry();
-    g.setAttribute('position', new THREE.BufferAttribute(positions, 3));
-    g.setIndex(new THREE.BufferAttribute(index, 1));
-    return g;
-  }, [mp, m]);
+    return buffers.set(mp.r0Re, mp.alpha, m);
+  }, [mp, m, buffers]);
   useEffect(() => {
     invalidate();
-    return () => geom?.dispose();
-  }, [geom, invalidate]);
+  }, [mp, m, invalidate]);
   if (!geom || !show) return null;
   return (
     <group name="magnetopause">

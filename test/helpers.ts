@@ -19,3 +19,10 @@ export function expectAtMost(actual: number, limit: number, what: string): void 
 export function expectBetween(actual: number, lo: number, hi: number, what: string): void {
   expect(Number.isFinite(actual) && actual >= lo && actual <= hi, `${what}: ${actual} not in [${lo}, ${hi}]`).toBe(true);
 }
+
+/** Great-circle angle (deg) between geocentric points i of a and j of b (xyz triples). */
+export function pointAngleDeg(a: Float64Array, i: number, b: Float64Array, j: number): number {
+  const ax = a[3 * i], ay = a[3 * i + 1], az = a[3 * i + 2], bx = b[3 * j], by = b[3 * j + 1], bz = b[3 * j + 2];
+  const cr = Math.hypot(ay * bz - az * by, az * bx - ax * bz, ax * by - ay * bx);
+  return (Math.atan2(cr, ax * bx + ay * by + az * bz) * 180) / Math.PI;
+}

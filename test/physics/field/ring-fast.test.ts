@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { expectAtMost, expectClose } from '../../helpers';
+import { expectAtMost, expectClose, pointAngleDeg } from '../../helpers';
 import { ellipticKE, ellipticKEPoly, prepareRingCurrent, ringCurrentParameters, RING_POLY_MIN_M } from '../../../src/physics/field/ringcurrent';
 import { prepareModel, type PreparedModel } from '../../../src/physics/field/model';
 import { Tracer, type TraceField } from '../../../src/physics/trace/tracer';
@@ -93,7 +93,7 @@ describe('ring current with the polynomial K, E against the AGM ring (references
         for (const end of ['footMinus', 'footPlus'] as const) {
           expect(fast[end] >= 0, `${end} present in both at ${k}/${j}`).toBe(slow[end] >= 0);
           if (slow[end] < 0) continue;
-          worst = Math.max(worst, angleDeg(fast.points, fast[end], slow.points, slow[end]));
+          worst = Math.max(worst, pointAngleDeg(fast.points, fast[end], slow.points, slow[end]));
           compared++;
         }
       }
@@ -124,9 +124,3 @@ function withAgmRing(model: PreparedModel): TraceField {
   };
 }
 
-/** Great-circle angle (deg) between two geocentric points. */
-function angleDeg(a: Float64Array, i: number, b: Float64Array, j: number): number {
-  const ax = a[3 * i], ay = a[3 * i + 1], az = a[3 * i + 2], bx = b[3 * j], by = b[3 * j + 1], bz = b[3 * j + 2];
-  const cr = Math.hypot(ay * bz - az * by, az * bx - ax * bz, ax * by - ay * bx);
-  return (Math.atan2(cr, ax * bx + ay * by + az * bz) * 180) / Math.PI;
-}

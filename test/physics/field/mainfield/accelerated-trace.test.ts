@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { expectAtMost } from '../../../helpers';
+import { expectAtMost, pointAngleDeg } from '../../../helpers';
 import { prepareModel, type PreparedModel } from '../../../../src/physics/field/model';
 import { igrfCoefficients } from '../../../../src/physics/field/mainfield/coefficients';
 import { prepareMainField, type MainFieldModel } from '../../../../src/physics/field/mainfield/synthesis';
@@ -31,12 +31,6 @@ function withMainField(model: PreparedModel, mf: MainFieldModel): TraceField {
   };
 }
 
-/** Great-circle angle (deg) between two geocentric points. */
-function angleDeg(a: Float64Array, i: number, b: Float64Array, j: number): number {
-  const ax = a[3 * i], ay = a[3 * i + 1], az = a[3 * i + 2], bx = b[3 * j], by = b[3 * j + 1], bz = b[3 * j + 2];
-  const cr = Math.hypot(ay * bz - az * by, az * bx - ax * bz, ax * by - ay * bx);
-  return (Math.atan2(cr, ax * bx + ay * by + az * bz) * 180) / Math.PI;
-}
 
 describe('IGRF truncated by footpoint tolerance (footpointTolDeg) against the full synthesis', () => {
   it('footpoints agree to ≤ 0.001° over random invented sites and dates (derived tolerance, measured)', () => {
@@ -64,7 +58,7 @@ describe('IGRF truncated by footpoint tolerance (footpointTolDeg) against the fu
         for (const end of ['footMinus', 'footPlus'] as const) {
           expect(fast[end] >= 0, `${end} present in both at site ${k}/${j}`).toBe(full[end] >= 0);
           if (full[end] < 0) continue;
-          worst = Math.max(worst, angleDeg(fast.points, fast[end], full.points, full[end]));
+          worst = Math.max(worst, pointAngleDeg(fast.points, fast[end], full.points, full[end]));
           compared++;
         }
       }

@@ -11,6 +11,7 @@ import { Channel } from './channel';
 import { conjugateAltOf, store, type AnsweredFor, type AppState } from './store';
 import { noteStep } from './perf';
 import { ovalRequestOptions } from './timeline/oval-cache';
+import { nextTask } from '../lib/next-task';
 
 /** The field-line fan: MLT meridians every 3 h, seeds from 58° to 82° magnetic latitude. */
 const FAN: FanSpec = {
@@ -171,27 +172,6 @@ export function splitFan(fan: FanSpec): FanSpec[] {
   return [{ mltHours: fan.mltHours.slice(0, k), magLatDeg: fan.magLatDeg }, { mltHours: fan.mltHours.slice(k), magLatDeg: fan.magLatDeg }];
 }
 
-/**
- * Run `fn` in a task of its own after the current task and its microtasks (a MessageChannel
- * message: unlike nested timeouts, not clamped to ≥ 4 ms; a timeout where there is no MessageChannel).
- */
-let taskPort: MessagePort | null = null;
-const waitingTasks: (() => void)[] = [];
-function afterThisTask(fn: () => void): void {
-  if (typeof MessageChannel === 'undefined') {
-    setTimeout(fn, 0);
-    return;
-  }
-  if (!taskPort) {
-    const ch = new MessageChannel();
-    ch.port1.onmessage = () => waitingTasks.shift()?.();
-    // Node (tests): the port must not keep the process alive.
-    (ch.port1 as MessagePort & { unref?: () => void }).unref?.();
-    taskPort = ch.port2;
-  }
-  waitingTasks.push(fn);
-  taskPort.postMessage(0);
-}
 
 /** Product options of a request; a source distance left to follow the conditions is not sent. */
 const productOpts = (s: AppState) => ({
@@ -344,7 +324,7 @@ export function startEngine(makeWorker?: (role: WorkerRole) => Worker, opts: { w
   sceneDone = () => {
     const ask = afterScene;
     if (!ask) return;
-    afterThisTask(() => {
+    void nextTask().then(() => {
       if (afterScene !== ask) return;
       afterScene = null;
       ask();

@@ -32,14 +32,19 @@ async function until(ok: () => boolean, ms = 60_000): Promise<void> {
 
 const fresh = () => ['scene', 'oval'].every((c) => staleReason(store.get(), c as 'scene' | 'oval') === null) && store.get().oval !== null && store.get().scene !== null;
 
+/** Wait until the scene and oval are fresh and the sites and sweep have answered: the start of each test's change. */
+async function settled(): Promise<void> {
+  await until(fresh);
+  await until(() => !store.get().pending.sites && !store.get().pending.sweep);
+}
+
 describe('engine client schedule', () => {
   it('an isolated change: both scene halves end before either oval half starts; one hemisphere per worker', async () => {
     setConditions({ internal: 'dipole', tail: false, pdynNpa: 3 });
     const log: Ev[] = [];
     const engine = startEngine((role) => loggingWorker(role, log), { workers: 2 });
     try {
-      await until(fresh);
-      await until(() => !store.get().pending.sites && !store.get().pending.sweep);
+      await settled();
       log.length = 0;
       setConditions({ pdynNpa: 5 });
       await until(fresh);
@@ -77,8 +82,7 @@ describe('engine client schedule', () => {
       void p.then(() => { state = 'scene drawn'; });
     });
     try {
-      await until(fresh);
-      await until(() => !store.get().pending.sites && !store.get().pending.sweep);
+      await settled();
       posted.length = 0;
       setConditions({ pdynNpa: 5 });
       await until(fresh);
@@ -94,8 +98,7 @@ describe('engine client schedule', () => {
     const log: Ev[] = [];
     const engine = startEngine((role) => loggingWorker(role, log), { workers: 2 });
     try {
-      await until(fresh);
-      await until(() => !store.get().pending.sites && !store.get().pending.sweep);
+      await settled();
       log.length = 0;
       for (const p of [4, 5, 6, 7]) setConditions({ pdynNpa: p });
       await until(fresh);
@@ -122,8 +125,7 @@ describe('engine client schedule', () => {
     const unsubFill = store.subscribe(fillKept);
     const sitesFresh = () => staleReason(store.get(), 'sites') === null && !store.get().pending.sites;
     try {
-      await until(fresh);
-      await until(() => !store.get().pending.sites && !store.get().pending.sweep);
+      await settled();
       kept = store.get().oval;
       setConditions({ pdynNpa: 5 });
       await until(() => fresh() && sitesFresh() && !store.get().pending.oval && !store.get().pending.sweep);

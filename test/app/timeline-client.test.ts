@@ -11,7 +11,7 @@ import { createTimelineClient, type TimelineClient, type TimelineEngine } from '
 import { timelineStore, type LoadedSeries } from '../../src/app/timeline/state';
 import { moveCursor } from '../../src/app/timeline/actions';
 import { ovalKey, ovalRequestOptions, stepsAround, OvalCache } from '../../src/app/timeline/oval-cache';
-import { store } from '../../src/app/store';
+import { store, type AppState } from '../../src/app/store';
 import { staleReason } from '../../src/app/store/freshness';
 import { exportRefusal } from '../../src/app/exports';
 import { startEngine } from '../../src/app/engine';
@@ -160,6 +160,17 @@ describe('timeline client: ovals ahead', () => {
   });
 });
 
+/** The table filled from the site timelines equals the sites channel's answer for the same inputs (field lines, footpoints and CGM aside). */
+async function expectTableIsSitesAnswer(st: AppState): Promise<void> {
+  const o = { altKm: st.products.altKm, minLatDeg: st.products.minLatDeg, conjugateAltKm: st.products.conjugateAltKm ?? st.products.altKm, minElevationDeg: st.products.minElevationDeg };
+  const direct = await createEngineApi().sites(1, st.conditions, o, st.sites);
+  st.siteResults!.sites.forEach((got, i) => {
+    const { lineGeo: _a, footpoints: _b, cgm: _c, ...w } = direct.sites[i];
+    const { lineGeo: _d, footpoints: _e, ...g } = got;
+    expect(g, got.name).toEqual(w);
+  });
+}
+
 describe('timeline client: scrubbing fills the table and the maps at once', () => {
   it('after the site timelines and the ovals ahead are in, a cursor move shows the step\'s table (filled) and oval (kept) in the same task', async () => {
     const api = createEngineApi();
@@ -177,14 +188,7 @@ describe('timeline client: scrubbing fills the table and the maps at once', () =
     expect(staleReason(st, 'oval')).toBeNull();
     expect(st.siteResults!.fromTimeline).toBe(true);
     expect(exportRefusal(st, 'sites-csv')).toMatch(/still being completed/);
-    // The filled table equals the sites channel's answer for the same inputs (field lines and CGM aside).
-    const o = { altKm: st.products.altKm, minLatDeg: st.products.minLatDeg, conjugateAltKm: st.products.conjugateAltKm ?? st.products.altKm, minElevationDeg: st.products.minElevationDeg };
-    const direct = await createEngineApi().sites(1, st.conditions, o, st.sites);
-    st.siteResults!.sites.forEach((got, i) => {
-      const { lineGeo: _a, footpoints: _b, cgm: _c, ...w } = direct.sites[i];
-      const { lineGeo: _d, footpoints: _e, ...g } = got;
-      expect(g, got.name).toEqual(w);
-    });
+    await expectTableIsSitesAnswer(st);
     // The kept oval equals a fresh oval channel's answer to the search tolerance (0.01°; hints change the cost, not the answer; measured: 0.0075°).
     const fresh = await createEngineApi().oval(1, st.conditions, ovalRequestOptions(st.products));
     expectClose(largestDifference(st.oval!, fresh), 0, 0.01, 'kept oval vs a fresh oval, largest difference (deg)');
@@ -223,13 +227,7 @@ describe('timeline client: scrubbing fills the table and the maps at once', () =
     expect(timelineStore.get().cursor).toBe(9);
     expect(staleReason(st, 'sites')).toBeNull();
     expect(st.siteResults!.fromTimeline).toBe(true);
-    const o = { altKm: st.products.altKm, minLatDeg: st.products.minLatDeg, conjugateAltKm: st.products.conjugateAltKm ?? st.products.altKm, minElevationDeg: st.products.minElevationDeg };
-    const direct = await createEngineApi().sites(1, st.conditions, o, st.sites);
-    st.siteResults!.sites.forEach((got, i) => {
-      const { lineGeo: _a, footpoints: _b, cgm: _c, ...w } = direct.sites[i];
-      const { lineGeo: _d, footpoints: _e, ...g } = got;
-      expect(g, got.name).toEqual(w);
-    });
+    await expectTableIsSitesAnswer(st);
     release();
     await until(() => timelineStore.get().result !== null, 'the site timelines', 60_000);
   }, 180_000);

@@ -10,6 +10,7 @@ import type { FieldConditions } from '../../src/physics/field/conditions';
 import { prepareModel, type PreparedModel } from '../../src/physics/field/model';
 import { makeTracer } from '../../src/physics/mapping';
 import type { Tracer } from '../../src/physics/trace/tracer';
+import { nextTask } from '../../src/lib/next-task';
 
 type Channel = 'scene' | 'oval' | 'sites' | 'sweep' | 'timeline';
 
@@ -21,18 +22,6 @@ function errorText(e: unknown): string {
 /** Thrown inside a channel's work when a newer request for the channel has arrived. */
 class StaleRequest extends Error {}
 
-/**
- * Let queued messages (newer requests) run. A MessageChannel round trip is not
- * clamped like nested setTimeout (≥ 4 ms in browsers). Node has setImmediate.
- */
-const yieldToQueue: () => Promise<void> = (() => {
-  if (typeof setImmediate === 'function') return () => new Promise<void>((r) => setImmediate(r));
-  if (typeof MessageChannel === 'undefined') return () => new Promise<void>((r) => setTimeout(r, 0));
-  const ch = new MessageChannel();
-  const waiting: (() => void)[] = [];
-  ch.port1.onmessage = () => waiting.shift()?.();
-  return () => new Promise<void>((r) => { waiting.push(r); ch.port2.postMessage(0); });
-})();
 
 export interface EngineContext {
   /** The prepared model for conditions `c` (cached while the conditions stay the same). */
@@ -73,7 +62,7 @@ export function createEngineContext(): EngineContext {
       return t;
     },
     async pause(ch, id) {
-      await yieldToQueue();
+      await nextTask(); // let newer requests in
       if (latest[ch] > id) throw new StaleRequest();
     },
     async run(ch, id, empty, work) {
